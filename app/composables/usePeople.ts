@@ -1,0 +1,22 @@
+import type { UserCreateInput, UserPatchInput } from '#shared/schemas/users'
+
+export const PEOPLE_KEY = 'setup-people'
+
+export function usePeople() {
+  async function addPerson(input: UserCreateInput) {
+    await $fetch('/api/users', { method: 'POST', body: input })
+    await refreshNuxtData(PEOPLE_KEY)
+  }
+  async function changePerson(id: string, patch: UserPatchInput) {
+    await $fetch(`/api/users/${id}`, { method: 'PATCH', body: patch })
+    await refreshNuxtData(PEOPLE_KEY)
+  }
+  return { addPerson, changePerson }
+}
+
+/** The field errors of a failed $fetch, or a single `_` message. */
+export function errorFields(err: any): Record<string, string> {
+  const fields = err?.data?.data?.fields
+  if (fields && typeof fields === 'object') return fields
+  return { _: err?.data?.message ?? err?.message ?? 'Something went wrong' }
+}

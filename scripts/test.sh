@@ -1,0 +1,64 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start against a fresh test database, then the type check,
+# unit, API and browser tests. `npm test -- unit api` runs only the kinds named.
+source "$(dirname "$0")/lib.sh"
+trap 'cleanup_children' EXIT
+trap 'exit 130' INT TERM
+
+KINDS=("$@"); [ ${#KINDS[@]} -gt 0 ] || KINDS=(typecheck unit api e2e)
+want() { local k; for k in "${KINDS[@]}"; do [ "$k" = "$1" ] && return 0; done; return 1; }
+
+# A slot keeps parallel test runs on one machine apart (ports and database).
+SLOT="${WAYSIDE_TEST_SLOT:-0}"
+TEST_DB="wayside_test_$SLOT"
+export WAYSIDE_TEST_PORT=$((3100 + SLOT * 10))
+export NUXT_SMTP_PORT=$((2600 + SLOT * 10)) WAYSIDE_SMTP_PORT=$((2600 + SLOT * 10))
+export WAYSIDE_MAIL_HTTP_PORT=$((2601 + SLOT * 10))
+export NUXT_STRIPE_API_PORT=$((12200 + SLOT * 10)) WAYSIDE_PAY_PORT=$((12200 + SLOT * 10))
+export WAYSIDE_TEST_URL="http://127.0.0.1:$WAYSIDE_TEST_PORT"
+export WAYSIDE_MAIL_URL="http://127.0.0.1:$WAYSIDE_MAIL_HTTP_PORT"
+export WAYSIDE_WEBHOOK_URL="$WAYSIDE_TEST_URL/api/payments/webhook"
+export NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-wayside-test-session-password-0123456789abcdef}"
+export NUXT_LOGIN_MAX_FAILURES=5 NUXT_LOGIN_MAX_FAILURES_PER_ADDRESS=500
+export NUXT_UPLOADS_DIR="$DATA/test-uploads-$SLOT"
+
+ensure_node_modules
+want e2e && ensure_chromium
+ensure_cluster_running
+say "fresh test database $TEST_DB"
+recreate_database "$TEST_DB"
+export NUXT_DATABASE_URL="postgres://wayside@127.0.0.1:$PGPORT/$TEST_DB"
+export WAYSIDE_PG_BIN="$PGBIN"
+(cd "$ROOT" && npx tsx server/db/migrate.ts && npx tsx server/db/seed/index.ts)
+
+cd "$ROOT"
+failed=()
+if want typecheck; then
+  say "type check"
+  npx nuxt typecheck || failed+=(typecheck)
+fi
+if want unit; then
+  say "unit tests"
+  npx vitest run --project unit || failed+=(unit)
+fi
+if want api || want e2e; then
+  build_if_needed
+  rm -rf "$NUXT_UPLOADS_DIR"
+  node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
+  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs > "$DATA/test-server-$SLOT.log" 2>&1 & CHILD_PIDS+=($!)
+  wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/test-server-$SLOT.log"; die "the test server did not start"; }
+fi
+if want api; then
+  say "API tests"
+  npx vitest run --project api || failed+=(api)
+fi
+if want e2e; then
+  say "browser tests"
+  npx playwright test || failed+=(e2e)
+fi
+
+if [ ${#failed[@]} -gt 0 ]; then
+  say "FAILED: ${failed[*]}"
+  exit 1
+fi
+say "all tests passed (${KINDS[*]})"

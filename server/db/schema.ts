@@ -1,0 +1,537 @@
+// Wayside's whole data model. Rows the device syncs carry a UUID key the device may make,
+// `version` and `updatedAt` (both set by the `wayside_touch` trigger, never by the device) and
+// `changeXid`, the writing transaction's id, which drives incremental pull (see server/utils/pull.ts).
+import { relations, sql } from 'drizzle-orm'
+import {
+  bigint, boolean, check, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable,
+  serial, text, timestamp, uniqueIndex, uuid,
+} from 'drizzle-orm/pg-core'
+
+const xid8 = customType<{ data: string }>({ dataType: () => 'xid8' })
+
+const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' })
+
+/** Columns every synced row has. Defaults cover inserts the trigger does not see in tests. */
+const synced = {
+  version: integer('version').notNull().default(1),
+  createdAt: ts('created_at').notNull().defaultNow(),
+  updatedAt: ts('updated_at').notNull().defaultNow(),
+  changeXid: xid8('change_xid').notNull().default(sql`pg_current_xact_id()`),
+}
+
+export const roleEnum = pgEnum('role', ['mechanic', 'dispatcher', 'office', 'admin'])
+export const callStatusEnum = pgEnum('call_status', ['received', 'assigned', 'en_route', 'on_site', 'completed', 'invoiced', 'paid', 'cancelled'])
+export const callOutcomeEnum = pgEnum('call_outcome', ['repaired', 'towed', 'parts_ordered', 'no_fault_found'])
+export const billingTermsEnum = pgEnum('billing_terms', ['card', 'account'])
+export const derateEnum = pgEnum('derate_state', ['none', 'derated', 'countdown', 'shutdown'])
+export const quantityEnum = pgEnum('reading_quantity', ['resistance', 'voltage', 'temperature', 'pressure', 'concentration', 'other'])
+export const verdictEnum = pgEnum('verdict', ['pass', 'low', 'high'])
+export const clockKindEnum = pgEnum('clock_kind', ['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'])
+export const faultStateEnum = pgEnum('fault_state', ['active', 'stored'])
+export const invoiceStatusEnum = pgEnum('invoice_status', ['draft', 'sent', 'paid', 'void'])
+export const invoiceLineKindEnum = pgEnum('invoice_line_kind', ['labor', 'travel', 'minimum', 'part', 'core', 'fee'])
+export const paymentMethodEnum = pgEnum('payment_method', ['card', 'account'])
+export const syncOpStatusEnum = pgEnum('sync_op_status', ['applied', 'duplicate', 'conflict', 'rejected'])
+export const conflictStatusEnum = pgEnum('conflict_status', ['open', 'resolved'])
+
+// ── People ────────────────────────────────────────────────────────────────────────────────
+export const users = pgTable('users', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  email: text('email').notNull(),
+  name: text('name').notNull(),
+  role: roleEnum('role').notNull(),
+  passwordHash: text('password_hash').notNull(),
+  active: boolean('active').notNull().default(true),
+  phone: text('phone'),
+  onDuty: boolean('on_duty').notNull().default(true),
+  lastLat: doublePrecision('last_lat'),
+  lastLon: doublePrecision('last_lon'),
+  lastPositionAt: ts('last_position_at'),
+  homeTruckId: uuid('home_truck_id'),
+  ...synced,
+}, t => [
+  uniqueIndex('users_email_unique').on(sql`lower(${t.email})`),
+  check('users_lat_range', sql`${t.lastLat} IS NULL OR ${t.lastLat} BETWEEN -90 AND 90`),
+  check('users_lon_range', sql`${t.lastLon} IS NULL OR ${t.lastLon} BETWEEN -180 AND 180`),
+])
+
+/** Failed sign-ins per key (`email:…` or `ip:…`), for slowing and then refusing guesses. */
+export const loginAttempts = pgTable('login_attempts', {
+  key: text('key').primaryKey(),
+  failures: integer('failures').notNull().default(0),
+  lastFailureAt: ts('last_failure_at').notNull().defaultNow(),
+  lockedUntil: ts('locked_until'),
+})
+
+// ── Our business ──────────────────────────────────────────────────────────────────────────
+export const yards = pgTable('yards', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  name: text('name').notNull(),
+  address: text('address').notNull(),
+  lat: doublePrecision('lat').notNull(),
+  lon: doublePrecision('lon').notNull(),
+  ...synced,
+})
+
+export const serviceTrucks = pgTable('service_trucks', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  name: text('name').notNull(),
+  plate: text('plate'),
+  yardId: uuid('yard_id').references(() => yards.id),
+  active: boolean('active').notNull().default(true),
+  ...synced,
+}, t => [uniqueIndex('service_trucks_name_unique').on(t.name)])
+
+export const truckStock = pgTable('truck_stock', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  truckId: uuid('truck_id').notNull().references(() => serviceTrucks.id),
+  partNumber: text('part_number').notNull(),
+  description: text('description').notNull(),
+  quantity: doublePrecision('quantity').notNull().default(0),
+  unitPriceCents: integer('unit_price_cents').notNull(),
+  coreChargeCents: integer('core_charge_cents').notNull().default(0),
+  ...synced,
+}, t => [
+  uniqueIndex('truck_stock_part_unique').on(t.truckId, t.partNumber),
+  check('truck_stock_price_nonneg', sql`${t.unitPriceCents} >= 0 AND ${t.coreChargeCents} >= 0`),
+])
+
+/** The admin's rates; the newest row by `effectiveFrom` is in force. */
+export const rates = pgTable('rates', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  laborCentsPerHour: integer('labor_cents_per_hour').notNull(),
+  afterHoursMultiplierPct: integer('after_hours_multiplier_pct').notNull().default(150),
+  minimumLaborTenths: integer('minimum_labor_tenths').notNull().default(10),
+  roadCallMinimumCents: integer('road_call_minimum_cents').notNull().default(0),
+  travelCentsPerUnit: integer('travel_cents_per_unit').notNull(),
+  travelUnit: text('travel_unit').notNull().default('km'),
+  partsMarkupPct: integer('parts_markup_pct').notNull().default(0),
+  taxRateBasisPoints: integer('tax_rate_basis_points').notNull().default(0),
+  laborTaxable: boolean('labor_taxable').notNull().default(false),
+  averageRoadKph: integer('average_road_kph').notNull().default(70),
+  effectiveFrom: ts('effective_from').notNull().defaultNow(),
+  ...synced,
+}, t => [
+  check('rates_travel_unit', sql`${t.travelUnit} IN ('km', 'mi')`),
+  check('rates_nonneg', sql`${t.laborCentsPerHour} >= 0 AND ${t.travelCentsPerUnit} >= 0 AND ${t.partsMarkupPct} >= 0 AND ${t.taxRateBasisPoints} >= 0 AND ${t.averageRoadKph} > 0`),
+])
+
+// ── Fleets and units ──────────────────────────────────────────────────────────────────────
+export const customers = pgTable('customers', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  name: text('name').notNull(),
+  kind: text('kind').notNull().default('fleet'),
+  billingTerms: billingTermsEnum('billing_terms').notNull().default('card'),
+  netDays: integer('net_days'),
+  billingEmail: text('billing_email'),
+  phone: text('phone'),
+  taxExempt: boolean('tax_exempt').notNull().default(false),
+  notes: text('notes'),
+  ...synced,
+}, t => [
+  index('customers_name_idx').on(t.name),
+  check('customers_kind', sql`${t.kind} IN ('fleet', 'owner_operator')`),
+  check('customers_net_days', sql`${t.netDays} IS NULL OR ${t.netDays} BETWEEN 0 AND 180`),
+])
+
+/** A customer's own yards and drop lots, offered as pick-list locations when taking a call. */
+export const customerSites = pgTable('customer_sites', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  customerId: uuid('customer_id').notNull().references(() => customers.id),
+  name: text('name').notNull(),
+  address: text('address'),
+  lat: doublePrecision('lat').notNull(),
+  lon: doublePrecision('lon').notNull(),
+  ...synced,
+}, t => [index('customer_sites_customer_idx').on(t.customerId)])
+
+export const units = pgTable('units', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  customerId: uuid('customer_id').notNull().references(() => customers.id),
+  unitNumber: text('unit_number').notNull(),
+  vin: text('vin'),
+  vinOverrideReason: text('vin_override_reason'),
+  yearMakeModel: text('year_make_model'),
+  engine: text('engine'),
+  odometer: integer('odometer'),
+  odometerUnit: text('odometer_unit').notNull().default('km'),
+  engineHours: doublePrecision('engine_hours'),
+  notes: text('notes'),
+  ...synced,
+}, t => [
+  index('units_customer_idx').on(t.customerId),
+  index('units_vin_idx').on(t.vin),
+  uniqueIndex('units_customer_number_unique').on(t.customerId, t.unitNumber),
+  check('units_odometer_unit', sql`${t.odometerUnit} IN ('km', 'mi')`),
+  check('units_nonneg', sql`(${t.odometer} IS NULL OR ${t.odometer} >= 0) AND (${t.engineHours} IS NULL OR ${t.engineHours} >= 0)`),
+])
+
+// ── Calls ─────────────────────────────────────────────────────────────────────────────────
+export const calls = pgTable('calls', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  number: serial('number').notNull(),
+  status: callStatusEnum('status').notNull().default('received'),
+  outcome: callOutcomeEnum('outcome'),
+  customerId: uuid('customer_id').notNull().references(() => customers.id),
+  unitId: uuid('unit_id').references(() => units.id),
+  locationText: text('location_text').notNull(),
+  lat: doublePrecision('lat'),
+  lon: doublePrecision('lon'),
+  complaint: text('complaint').notNull(),
+  lamps: jsonb('lamps').$type<string[]>().notNull().default([]),
+  derate: derateEnum('derate').notNull().default('none'),
+  derateNote: text('derate_note'),
+  loaded: boolean('loaded').notNull().default(false),
+  hazmat: boolean('hazmat').notNull().default(false),
+  safetyNotes: text('safety_notes'),
+  callerName: text('caller_name'),
+  callerPhone: text('caller_phone'),
+  poNumber: text('po_number'),
+  authLimitCents: integer('auth_limit_cents'),
+  mechanicId: uuid('mechanic_id').references(() => users.id),
+  serviceTruckId: uuid('service_truck_id').references(() => serviceTrucks.id),
+  // Field-work fields, written by the mechanic through sync.
+  storyComplaint: text('story_complaint'),
+  storyCause: text('story_cause'),
+  storyCorrection: text('story_correction'),
+  sceneChecklist: jsonb('scene_checklist').$type<Record<string, boolean>>(),
+  verification: jsonb('verification').$type<Record<string, unknown>>(),
+  followUp: text('follow_up'),
+  cancelReason: text('cancel_reason'),
+  receivedAt: ts('received_at').notNull().defaultNow(),
+  assignedAt: ts('assigned_at'),
+  enRouteAt: ts('en_route_at'),
+  onSiteAt: ts('on_site_at'),
+  completedAt: ts('completed_at'),
+  invoicedAt: ts('invoiced_at'),
+  paidAt: ts('paid_at'),
+  cancelledAt: ts('cancelled_at'),
+  statusChangedAt: ts('status_changed_at').notNull().defaultNow(),
+  createdBy: uuid('created_by').references(() => users.id),
+  ...synced,
+}, t => [
+  uniqueIndex('calls_number_unique').on(t.number),
+  index('calls_status_idx').on(t.status),
+  index('calls_mechanic_idx').on(t.mechanicId, t.status),
+  index('calls_customer_idx').on(t.customerId),
+  index('calls_unit_idx').on(t.unitId),
+  index('calls_change_idx').on(t.changeXid),
+  check('calls_lat_range', sql`${t.lat} IS NULL OR ${t.lat} BETWEEN -90 AND 90`),
+  check('calls_lon_range', sql`${t.lon} IS NULL OR ${t.lon} BETWEEN -180 AND 180`),
+  check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),
+  check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN ('completed', 'invoiced', 'paid')`),
+])
+
+/** Every status move, for the timeline; append-only. */
+export const callEvents = pgTable('call_events', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  callId: uuid('call_id').notNull().references(() => calls.id),
+  kind: text('kind').notNull(),
+  fromStatus: callStatusEnum('from_status'),
+  toStatus: callStatusEnum('to_status'),
+  mechanicId: uuid('mechanic_id').references(() => users.id),
+  byUserId: uuid('by_user_id').references(() => users.id),
+  note: text('note'),
+  at: ts('at').notNull().defaultNow(),
+  ...synced,
+}, t => [index('call_events_call_idx').on(t.callId, t.at)])
+
+/** Columns of every append-only record the mechanic adds to a call. */
+const callChild = {
+  callId: uuid('call_id').notNull().references(() => calls.id),
+  createdBy: uuid('created_by').references(() => users.id),
+  deviceAt: ts('device_at'),
+}
+
+export const faultCodes = pgTable('fault_codes', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  code: text('code'),
+  spn: integer('spn'),
+  fmi: integer('fmi'),
+  state: faultStateEnum('state').notNull().default('active'),
+  count: integer('count').notNull().default(1),
+  source: text('source'),
+  clearedAt: ts('cleared_at'),
+  note: text('note'),
+  ...synced,
+}, t => [
+  index('fault_codes_call_idx').on(t.callId),
+  index('fault_codes_change_idx').on(t.changeXid),
+  check('fault_codes_form', sql`${t.code} IS NOT NULL OR (${t.spn} IS NOT NULL AND ${t.fmi} IS NOT NULL)`),
+  check('fault_codes_spn_range', sql`${t.spn} IS NULL OR ${t.spn} BETWEEN 0 AND 524287`),
+  check('fault_codes_fmi_range', sql`${t.fmi} IS NULL OR ${t.fmi} BETWEEN 0 AND 31`),
+  check('fault_codes_count', sql`${t.count} >= 0 AND ${t.count} <= 127`),
+])
+
+export const testCards = pgTable('test_cards', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  slug: text('slug').notNull(),
+  title: text('title').notNull(),
+  componentType: text('component_type').notNull(),
+  currentVersion: integer('current_version').notNull().default(1),
+  active: boolean('active').notNull().default(true),
+  ...synced,
+}, t => [uniqueIndex('test_cards_slug_unique').on(t.slug)])
+
+export const testCardVersions = pgTable('test_card_versions', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  cardId: uuid('card_id').notNull().references(() => testCards.id),
+  cardVersion: integer('card_version').notNull(),
+  definition: jsonb('definition').$type<Record<string, unknown>>().notNull(),
+  authorId: uuid('author_id').references(() => users.id),
+  ...synced,
+}, t => [uniqueIndex('test_card_versions_unique').on(t.cardId, t.cardVersion)])
+
+export const testRuns = pgTable('test_runs', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  cardId: uuid('card_id').notNull().references(() => testCards.id),
+  cardVersion: integer('card_version').notNull(),
+  ambientC: doublePrecision('ambient_c'),
+  steps: jsonb('steps').$type<unknown[]>().notNull().default([]),
+  conclusion: text('conclusion'),
+  finishedAt: ts('finished_at'),
+  ...synced,
+}, t => [index('test_runs_call_idx').on(t.callId), index('test_runs_change_idx').on(t.changeXid)])
+
+export const readings = pgTable('readings', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  testRunId: uuid('test_run_id').references(() => testRuns.id),
+  stepId: text('step_id'),
+  label: text('label').notNull(),
+  quantity: quantityEnum('quantity').notNull(),
+  value: doublePrecision('value').notNull(),
+  unit: text('unit').notNull(),
+  component: text('component'),
+  pins: text('pins'),
+  conditions: text('conditions'),
+  partRole: text('part_role'),
+  spec: jsonb('spec').$type<Record<string, unknown>>(),
+  verdict: verdictEnum('verdict'),
+  ...synced,
+}, t => [
+  index('readings_call_idx').on(t.callId),
+  index('readings_change_idx').on(t.changeXid),
+  check('readings_part_role', sql`${t.partRole} IS NULL OR ${t.partRole} IN ('installed', 'new')`),
+])
+
+export const notes = pgTable('notes', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  text: text('text').notNull(),
+  ...synced,
+}, t => [index('notes_call_idx').on(t.callId), index('notes_change_idx').on(t.changeXid)])
+
+/** Photo metadata; the bytes live in Nitro storage under `storageKey` once uploaded. */
+export const photos = pgTable('photos', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  caption: text('caption'),
+  contentType: text('content_type'),
+  sizeBytes: integer('size_bytes'),
+  sha256: text('sha256'),
+  storageKey: text('storage_key'),
+  uploadedAt: ts('uploaded_at'),
+  ...synced,
+}, t => [index('photos_call_idx').on(t.callId), index('photos_change_idx').on(t.changeXid)])
+
+export const clockEvents = pgTable('clock_events', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  kind: clockKindEnum('kind').notNull(),
+  ...synced,
+}, t => [index('clock_events_call_idx').on(t.callId), index('clock_events_change_idx').on(t.changeXid)])
+
+export const partLines = pgTable('part_lines', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  partNumber: text('part_number').notNull(),
+  description: text('description').notNull(),
+  quantity: doublePrecision('quantity').notNull(),
+  unitPriceCents: integer('unit_price_cents').notNull().default(0),
+  coreChargeCents: integer('core_charge_cents').notNull().default(0),
+  serviceTruckId: uuid('service_truck_id').references(() => serviceTrucks.id),
+  ...synced,
+}, t => [
+  index('part_lines_call_idx').on(t.callId),
+  index('part_lines_change_idx').on(t.changeXid),
+  check('part_lines_quantity', sql`${t.quantity} > 0`),
+  check('part_lines_prices', sql`${t.unitPriceCents} >= 0 AND ${t.coreChargeCents} >= 0`),
+])
+
+export const signOffs = pgTable('sign_offs', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  driverName: text('driver_name').notNull(),
+  /** The drawn signature as an SVG or PNG data URL; small enough to keep in the row. */
+  signature: text('signature').notNull(),
+  ...synced,
+}, t => [uniqueIndex('sign_offs_call_unique').on(t.callId), index('sign_offs_change_idx').on(t.changeXid)])
+
+// ── Billing ───────────────────────────────────────────────────────────────────────────────
+export const invoices = pgTable('invoices', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  number: serial('number').notNull(),
+  callId: uuid('call_id').notNull().references(() => calls.id),
+  customerId: uuid('customer_id').notNull().references(() => customers.id),
+  status: invoiceStatusEnum('status').notNull().default('draft'),
+  subtotalCents: integer('subtotal_cents').notNull().default(0),
+  taxCents: integer('tax_cents').notNull().default(0),
+  totalCents: integer('total_cents').notNull().default(0),
+  ratesId: uuid('rates_id').references(() => rates.id),
+  dueAt: ts('due_at'),
+  sentAt: ts('sent_at'),
+  paidAt: ts('paid_at'),
+  ...synced,
+}, t => [
+  uniqueIndex('invoices_number_unique').on(t.number),
+  index('invoices_call_idx').on(t.callId),
+  index('invoices_status_idx').on(t.status),
+  check('invoices_totals', sql`${t.totalCents} = ${t.subtotalCents} + ${t.taxCents}`),
+])
+
+export const invoiceLines = pgTable('invoice_lines', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  invoiceId: uuid('invoice_id').notNull().references(() => invoices.id, { onDelete: 'cascade' }),
+  sort: integer('sort').notNull().default(0),
+  kind: invoiceLineKindEnum('kind').notNull(),
+  description: text('description').notNull(),
+  quantity: doublePrecision('quantity').notNull(),
+  unitCents: integer('unit_cents').notNull(),
+  amountCents: integer('amount_cents').notNull(),
+  taxable: boolean('taxable').notNull(),
+}, t => [index('invoice_lines_invoice_idx').on(t.invoiceId)])
+
+export const payments = pgTable('payments', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  invoiceId: uuid('invoice_id').notNull().references(() => invoices.id),
+  method: paymentMethodEnum('method').notNull(),
+  amountCents: integer('amount_cents').notNull(),
+  providerRef: text('provider_ref'),
+  status: text('status').notNull(),
+  ...synced,
+}, t => [
+  uniqueIndex('payments_provider_ref_unique').on(t.providerRef),
+  index('payments_invoice_idx').on(t.invoiceId),
+  check('payments_amount_pos', sql`${t.amountCents} > 0`),
+])
+
+/** A fleet's running account: invoices charged to it and payments received on it. */
+export const accountEntries = pgTable('account_entries', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  customerId: uuid('customer_id').notNull().references(() => customers.id),
+  invoiceId: uuid('invoice_id').references(() => invoices.id),
+  amountCents: integer('amount_cents').notNull(),
+  memo: text('memo').notNull(),
+  ...synced,
+}, t => [index('account_entries_customer_idx').on(t.customerId)])
+
+// ── Sync ──────────────────────────────────────────────────────────────────────────────────
+export const syncClients = pgTable('sync_clients', {
+  id: uuid('id').primaryKey(),
+  userId: uuid('user_id').notNull().references(() => users.id),
+  lastSeq: bigint('last_seq', { mode: 'number' }).notNull().default(0),
+  userAgent: text('user_agent'),
+  createdAt: ts('created_at').notNull().defaultNow(),
+  lastSeenAt: ts('last_seen_at').notNull().defaultNow(),
+})
+
+export const syncOps = pgTable('sync_ops', {
+  opId: uuid('op_id').primaryKey(),
+  clientId: uuid('client_id').notNull().references(() => syncClients.id),
+  seq: bigint('seq', { mode: 'number' }).notNull(),
+  entity: text('entity').notNull(),
+  entityId: text('entity_id'),
+  action: text('action').notNull(),
+  status: syncOpStatusEnum('status').notNull(),
+  version: integer('version'),
+  reason: text('reason'),
+  receivedAt: ts('received_at').notNull().defaultNow(),
+}, t => [uniqueIndex('sync_ops_client_seq_unique').on(t.clientId, t.seq)])
+
+export const conflicts = pgTable('conflicts', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  callId: uuid('call_id').notNull().references(() => calls.id),
+  entity: text('entity').notNull(),
+  entityId: uuid('entity_id').notNull(),
+  field: text('field').notNull(),
+  baseValue: jsonb('base_value'),
+  deviceValue: jsonb('device_value'),
+  serverValue: jsonb('server_value'),
+  reason: text('reason').notNull(),
+  opId: uuid('op_id'),
+  raisedBy: uuid('raised_by').references(() => users.id),
+  status: conflictStatusEnum('status').notNull().default('open'),
+  choice: text('choice'),
+  resolvedValue: jsonb('resolved_value'),
+  resolvedBy: uuid('resolved_by').references(() => users.id),
+  resolvedAt: ts('resolved_at'),
+  ...synced,
+}, t => [
+  index('conflicts_call_idx').on(t.callId, t.status),
+  index('conflicts_change_idx').on(t.changeXid),
+  check('conflicts_choice', sql`${t.choice} IS NULL OR ${t.choice} IN ('device', 'server', 'value')`),
+])
+
+export const mailLog = pgTable('mail_log', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  kind: text('kind').notNull(),
+  toAddress: text('to_address').notNull(),
+  subject: text('subject').notNull(),
+  relatedId: uuid('related_id'),
+  messageId: text('message_id'),
+  status: text('status').notNull(),
+  error: text('error'),
+  sentAt: ts('sent_at').notNull().defaultNow(),
+})
+
+// ── Relations ─────────────────────────────────────────────────────────────────────────────
+export const callsRelations = relations(calls, ({ one, many }) => ({
+  customer: one(customers, { fields: [calls.customerId], references: [customers.id] }),
+  unit: one(units, { fields: [calls.unitId], references: [units.id] }),
+  mechanic: one(users, { fields: [calls.mechanicId], references: [users.id] }),
+  serviceTruck: one(serviceTrucks, { fields: [calls.serviceTruckId], references: [serviceTrucks.id] }),
+  faultCodes: many(faultCodes),
+  readings: many(readings),
+  testRuns: many(testRuns),
+  notes: many(notes),
+  photos: many(photos),
+  clockEvents: many(clockEvents),
+  partLines: many(partLines),
+  signOffs: many(signOffs),
+  events: many(callEvents),
+  conflicts: many(conflicts),
+}))
+export const customersRelations = relations(customers, ({ many }) => ({ units: many(units), sites: many(customerSites), calls: many(calls) }))
+export const customerSitesRelations = relations(customerSites, ({ one }) => ({ customer: one(customers, { fields: [customerSites.customerId], references: [customers.id] }) }))
+export const unitsRelations = relations(units, ({ one, many }) => ({
+  customer: one(customers, { fields: [units.customerId], references: [customers.id] }),
+  calls: many(calls),
+}))
+const childOfCall = <T extends { callId: any }>(table: any) => relations(table, ({ one }) => ({
+  call: one(calls, { fields: [table.callId], references: [calls.id] }),
+}))
+export const faultCodesRelations = childOfCall(faultCodes)
+export const readingsRelations = childOfCall(readings)
+export const testRunsRelations = childOfCall(testRuns)
+export const notesRelations = childOfCall(notes)
+export const photosRelations = childOfCall(photos)
+export const clockEventsRelations = childOfCall(clockEvents)
+export const partLinesRelations = childOfCall(partLines)
+export const signOffsRelations = childOfCall(signOffs)
+export const callEventsRelations = childOfCall(callEvents)
+export const conflictsRelations = childOfCall(conflicts)
+export const testCardsRelations = relations(testCards, ({ many }) => ({ versions: many(testCardVersions) }))
+export const testCardVersionsRelations = relations(testCardVersions, ({ one }) => ({ card: one(testCards, { fields: [testCardVersions.cardId], references: [testCards.id] }) }))
+export const serviceTrucksRelations = relations(serviceTrucks, ({ many, one }) => ({ stock: many(truckStock), yard: one(yards, { fields: [serviceTrucks.yardId], references: [yards.id] }) }))
+export const truckStockRelations = relations(truckStock, ({ one }) => ({ truck: one(serviceTrucks, { fields: [truckStock.truckId], references: [serviceTrucks.id] }) }))
+export const invoicesRelations = relations(invoices, ({ one, many }) => ({
+  call: one(calls, { fields: [invoices.callId], references: [calls.id] }),
+  customer: one(customers, { fields: [invoices.customerId], references: [customers.id] }),
+  lines: many(invoiceLines),
+  payments: many(payments),
+}))
+export const invoiceLinesRelations = relations(invoiceLines, ({ one }) => ({ invoice: one(invoices, { fields: [invoiceLines.invoiceId], references: [invoices.id] }) }))
+export const paymentsRelations = relations(payments, ({ one }) => ({ invoice: one(invoices, { fields: [payments.invoiceId], references: [invoices.id] }) }))

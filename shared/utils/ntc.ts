@@ -1,0 +1,43 @@
+// NTC thermistors: the Beta model (what most data sheets print) and Steinhart–Hart
+// (what a fitted A/B/C set gives). Both work in kelvin inside and °C outside.
+
+const NTC_KELVIN = 273.15
+const NTC_T25_K = 298.15 // the Beta model's reference point, 25 °C
+
+function ntcCheckPositive(name: string, v: number, unit: string): void {
+  if (typeof v !== 'number' || Number.isNaN(v)) throw new RangeError(`NTC ${name} must be a number, got ${v}`)
+  if (!Number.isFinite(v) || v <= 0) throw new RangeError(`NTC ${name} must be a positive finite number, got ${v} ${unit}`)
+}
+
+function ntcCheckKelvin(k: number): number {
+  // A fit pushed far outside its range can give 1/T ≤ 0: that is no temperature at all, say so.
+  if (!Number.isFinite(k) || k <= 0) throw new RangeError('NTC reading is outside what the model can describe (no physical temperature)')
+  return k - NTC_KELVIN
+}
+
+/** Resistance (Ω) of an NTC at tempC by the Beta equation R = R25·exp(B(1/T − 1/298.15)). */
+export function ntcResistanceBeta(tempC: number, r25: number, beta: number): number {
+  if (typeof tempC !== 'number' || !Number.isFinite(tempC)) throw new RangeError(`NTC temperature must be a finite number, got ${tempC}`)
+  if (tempC <= -NTC_KELVIN) throw new RangeError(`NTC temperature ${tempC} °C is at or below absolute zero`)
+  ntcCheckPositive('R25', r25, 'Ω')
+  ntcCheckPositive('Beta', beta, 'K')
+  return r25 * Math.exp(beta * (1 / (tempC + NTC_KELVIN) - 1 / NTC_T25_K))
+}
+
+/** Temperature (°C) of an NTC reading `ohms`, by the Beta equation. */
+export function ntcTemperatureBeta(ohms: number, r25: number, beta: number): number {
+  ntcCheckPositive('resistance', ohms, 'Ω')
+  ntcCheckPositive('R25', r25, 'Ω')
+  ntcCheckPositive('Beta', beta, 'K')
+  return ntcCheckKelvin(1 / (1 / NTC_T25_K + Math.log(ohms / r25) / beta))
+}
+
+/** Temperature (°C) from 1/T = a + b·ln R + c·(ln R)³, T in kelvin. */
+export function steinhartHartTemperature(ohms: number, a: number, b: number, c: number): number {
+  ntcCheckPositive('resistance', ohms, 'Ω')
+  for (const [name, v] of [['A', a], ['B', b], ['C', c]] as const) {
+    if (typeof v !== 'number' || !Number.isFinite(v)) throw new RangeError(`Steinhart–Hart coefficient ${name} must be a finite number, got ${v}`)
+  }
+  const ln = Math.log(ohms)
+  return ntcCheckKelvin(1 / (a + b * ln + c * ln * ln * ln))
+}

@@ -1,0 +1,127 @@
+import { describe, expect, it } from 'vitest'
+import fc from 'fast-check'
+import { validateVin, vinCheckDigit, vinProblem } from '../../shared/utils/vin'
+
+// Second, independent check-digit implementation (49 CFR 565): letters valued by their place in
+// the alphabet in three runs (A–I = 1–9, J–R = 1–9, S–Z = 2–9), weights from the position formula.
+// Deliberately no lookup tables, so a typo in the module's tables cannot be copied here.
+function refValue(ch: string): number {
+  const x = ch.charCodeAt(0)
+  if (x >= 48 && x <= 57) return x - 48
+  const i = x - 65
+  if (i < 9) return i + 1
+  if (i < 18) return i - 8
+  return i - 16
+}
+function refWeight(pos: number): number {
+  if (pos <= 7) return 9 - pos
+  if (pos === 8) return 10
+  if (pos === 9) return 0
+  return 19 - pos
+}
+function refCheckDigit(vin: string): string {
+  let sum = 0
+  for (let p = 1; p <= 17; p++) sum += refValue(vin.charAt(p - 1)) * refWeight(p)
+  const r = sum % 11
+  return r === 10 ? 'X' : String(r)
+}
+
+// Reference VINs built for these tests (invented, not real vehicles); check digit by refCheckDigit.
+const OUR_VINS = [
+  '1WSTR42HXRA100001',
+  '2WYDE5JK2SB204517',
+  '3WXCN8LM3TC300288',
+  '4WAYS1DE5VD419930',
+  '5WRDT7CV6WE512345',
+  '1W9HX4ZZ2XF600777',
+  '2WKPL6AB8YG700016',
+  '3WNUV3GH21H801234',
+  '4WBCE2RT42J999999',
+  '5WFMS8YZ53K000042',
+]
+
+describe('vinCheckDigit', () => {
+  it('widely published worked example 1M8GDM9AXKP042788 -> X', () => {
+    // 49 CFR 565 worked example (REFERENCES §5): 1M8GDM9AXKP042788 -> X
+    expect(vinCheckDigit('1M8GDM9AXKP042788')).toBe('X')
+    // independent implementation agrees on the same 49 CFR 565 worked example
+    expect(refCheckDigit('1M8GDM9AXKP042788')).toBe('X')
+  })
+
+  it.each(OUR_VINS)('our reference VIN %s', (vin) => {
+    // 49 CFR 565 check digit, cross-checked by the independent implementation in this file
+    expect(refCheckDigit(vin)).toBe(vin.charAt(8))
+    expect(vinCheckDigit(vin)).toBe(vin.charAt(8))
+    expect(validateVin(vin)).toEqual({ ok: true })
+  })
+
+  it('agrees with the independent implementation on random VINs', () => {
+    // 49 CFR 565 check digit, two independent implementations must agree
+    const vinChar = fc.constantFrom(...'0123456789ABCDEFGHJKLMNPRSTUVWXYZ'.split(''))
+    fc.assert(
+      fc.property(fc.array(vinChar, { minLength: 17, maxLength: 17 }), (chars) => {
+        const v = chars.join('')
+        return vinCheckDigit(v) === refCheckDigit(v)
+      }),
+      { numRuns: 2000 },
+    )
+  })
+
+  it('forgives lower case and edge spaces', () => {
+    // 49 CFR 565 worked example, typed in lower case
+    expect(vinCheckDigit(' 1m8gdm9axkp042788 ')).toBe('X')
+  })
+
+  it('throws on a VIN it cannot compute', () => {
+    // our own input contract (49 CFR 565: 17 characters, no I, O, Q)
+    expect(() => vinCheckDigit('1M8GDM9AXKP04278')).toThrow(RangeError)
+    expect(() => vinCheckDigit('1M8GDM9AXKP0427O8')).toThrow(RangeError)
+    expect(() => vinCheckDigit('1M8GDM9AXKP0427-8')).toThrow(RangeError)
+    expect(() => vinCheckDigit(null as unknown as string)).toThrow(TypeError)
+  })
+})
+
+describe('validateVin and vinProblem', () => {
+  it('rejects the wrong length', () => {
+    // 49 CFR 565: a VIN is 17 characters
+    expect(vinProblem('1M8GDM9AXKP04278')?.kind).toBe('length')
+    expect(vinProblem('1M8GDM9AXKP0427888')?.kind).toBe('length')
+    expect(vinProblem('')?.kind).toBe('length')
+    const r = validateVin('1M8GDM9AXKP04278')
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.reason).toMatch(/17/)
+  })
+
+  it('rejects I, O and Q', () => {
+    // 49 CFR 565: the letters I, O and Q are never used
+    for (const bad of ['1M8GDM9AXKP0427I8', '1M8GDM9AXKP0427O8', '1M8GDM9AXKP0427Q8']) {
+      expect(vinProblem(bad)?.kind).toBe('letters')
+      const r = validateVin(bad)
+      expect(r.ok).toBe(false)
+      if (!r.ok) expect(r.reason).toMatch(/I, O or Q/)
+    }
+  })
+
+  it('rejects characters that are not letters or digits', () => {
+    // 49 CFR 565: VIN characters are capital letters and digits only
+    expect(vinProblem('1M8GDM9AXKP0427-8')?.kind).toBe('characters')
+    expect(vinProblem('1M8GDM9AXKP0427 8')?.kind).toBe('characters')
+    expect(vinProblem('1M8GDM9AXKP0427É8')?.kind).toBe('characters')
+  })
+
+  it('rejects a wrong check digit as its own kind', () => {
+    // 49 CFR 565 worked example with the check digit changed from X to 5
+    const p = vinProblem('1M8GDM9A5KP042788')
+    expect(p?.kind).toBe('check_digit')
+    expect(p?.reason).toMatch(/X/)
+    expect(validateVin('1M8GDM9A5KP042788').ok).toBe(false)
+    // one-character typo in our reference VIN is caught by the check digit (49 CFR 565)
+    expect(vinProblem('1WSTR42HXRA100002')?.kind).toBe('check_digit')
+  })
+
+  it('accepts the worked example', () => {
+    // 49 CFR 565 worked example (REFERENCES §5)
+    expect(validateVin('1M8GDM9AXKP042788')).toEqual({ ok: true })
+    expect(vinProblem('1M8GDM9AXKP042788')).toBeNull()
+  })
+})
