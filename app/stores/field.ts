@@ -8,6 +8,7 @@ import {
   RECORD_COLLECTION, commitChanges, readBundle, readBundles, readOutbox,
   type CallBundle, type DeviceRow, type LocalChange, type OutboxEntry, type RecordEntity,
 } from '../utils/fieldDb'
+import { readPhotoQueue } from '../utils/syncApply'
 import { useOutboxStore } from './outbox'
 
 export type AddableEntity = RecordEntity
@@ -166,10 +167,10 @@ export const useFieldStore = defineStore('field', () => {
 
   /** Calls on the phone with how many of their changes wait to sync. */
   async function listCalls() {
-    const [all, outbox] = await Promise.all([readBundles(), readOutbox()])
+    const [all, outbox, photos] = await Promise.all([readBundles(), readOutbox(), readPhotoQueue()])
     return all.map(b => ({
       call: b.call, unit: b.unit, customer: b.customer, revoked: !!b.revoked,
-      waiting: outbox.filter(e => e.callId === b.id).length,
+      waiting: outbox.filter(e => e.callId === b.id && e.state === 'pending').length + photos.filter(p => p.callId === b.id).length,
       rejected: outbox.filter(e => e.callId === b.id && e.state === 'rejected').length,
     }))
   }

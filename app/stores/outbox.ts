@@ -78,7 +78,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       const { res, text } = await request(doFetch, '/api/sync/push', { method: 'POST', headers: JSON_HEADERS, body: JSON.stringify(body) })
       if (res.status === 409) {
         // The server expects another seq: ops below it are stored there already, or the outbox has a gap.
-        const expected = expectedSeqOf(text) ?? ((await pullLastSeq(doFetch)) + 1)
+        const expected = expectedSeqOf(text) ?? ((await pullLastSeq(doFetch, clientId)) + 1)
         if (++realigned > 3) throw new SyncStop('server', `The server keeps asking for op ${expected}; try Sync now later`)
         await realignSeq(expected)
         continue
@@ -92,9 +92,16 @@ export const useOutboxStore = defineStore('outbox', () => {
     }
   }
 
-  async function pullLastSeq(doFetch: SyncFetch): Promise<number> {
+  async function pullUrl(clientId: string) {
     const cursor = await getMeta<string | number>('cursor')
-    const { res, text } = await request(doFetch, `/api/sync/pull${cursor !== undefined ? `?cursor=${encodeURIComponent(String(cursor))}` : ''}`, { headers: JSON_HEADERS })
+    const q = new URLSearchParams({ clientId })
+    if (cursor !== undefined) q.set('cursor', String(cursor))
+    return { url: `/api/sync/pull?${q}`, cursor }
+  }
+
+  async function pullLastSeq(doFetch: SyncFetch, clientId: string): Promise<number> {
+    const { url } = await pullUrl(clientId)
+    const { res, text } = await request(doFetch, url, { headers: JSON_HEADERS })
     const answer = res.ok ? parseAnswer(pullAnswerSchema, text) : undefined
     if (!answer) throw new SyncStop('invalid', 'Could not read the server\'s last op number')
     return answer.lastSeq
@@ -112,12 +119,11 @@ export const useOutboxStore = defineStore('outbox', () => {
     }
   }
 
-  async function pull(doFetch: SyncFetch): Promise<string[]> {
+  async function pull(doFetch: SyncFetch, clientId: string): Promise<string[]> {
     const changed = new Set<string>()
     for (let page = 0; page < 50; page++) {
-      const cursor = await getMeta<string | number>('cursor')
-      const q = cursor !== undefined ? `?cursor=${encodeURIComponent(String(cursor))}` : ''
-      const { res, text } = await request(doFetch, `/api/sync/pull${q}`, { headers: JSON_HEADERS })
+      const { url, cursor } = await pullUrl(clientId)
+      const { res, text } = await request(doFetch, url, { headers: JSON_HEADERS })
       if (!res.ok) throw new SyncStop('server', `Could not fetch changes (${res.status}): ${messageOf(text)}`)
       const answer = parseAnswer(pullAnswerSchema, text)
       if (!answer) throw new SyncStop('invalid', 'The answer did not come from Wayside (a Wi-Fi sign-in page?)')
@@ -136,7 +142,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       const clientId = await getClientId()
       await push(doFetch, clientId, opts.position)
       await uploadPhotos(doFetch)
-      const changedCalls = await pull(doFetch)
+      const changedCalls = await pull(doFetch, clientId)
       const now = new Date().toISOString()
       await setMeta('lastSyncAt', now)
       if (opts.position) await setMeta('positionSentAt', opts.position.at)

@@ -190,7 +190,18 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
     for (const id of changed) { const b = bundles.get(id); if (b) callsStore.put(b, id) }
 
-    if (ch.rates) lib.put(ch.rates, 'rates')
+    const rateRows = Array.isArray(ch.rates) ? ch.rates : ch.rates ? [ch.rates] : []
+    if (rateRows.length) {
+      const rates = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('rates'))) ?? {}
+      for (const r of rateRows) rates[r.id] = r
+      lib.put(rates, 'rates')
+    }
+    const stock = (ch as Record<string, unknown>).truckStock
+    if (Array.isArray(stock) && stock.length) {
+      const have = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('truckStock'))) ?? {}
+      for (const r of stock as DeviceRow[]) have[r.id] = r
+      lib.put(have, 'truckStock')
+    }
     if (ch.testCards?.length) {
       const cards = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('testCards'))) ?? {}
       for (const c of ch.testCards) cards[c.id] = c

@@ -3,19 +3,8 @@
 // protocol's answer counts as success (DESIGN.md, "Sync protocol").
 import { z } from 'zod'
 
-export const opStatusSchema = z.enum(['applied', 'duplicate', 'conflict', 'rejected'])
-
-export const pushResultSchema = z.object({
-  lastSeq: z.number().int().nonnegative(),
-  results: z.array(z.object({
-    opId: z.string().min(1),
-    seq: z.number().int().positive(),
-    status: opStatusSchema,
-    version: z.number().int().optional().nullable(),
-    reason: z.string().optional().nullable(),
-  })),
-})
-export type PushResult = z.infer<typeof pushResultSchema>
+// The push answer's schema is the protocol's own (shared with the server).
+export { pushResultSchema, type PushResult } from '#shared/schemas/sync'
 
 const rowSchema = z.object({ id: z.string().min(1) }).passthrough()
 const rows = z.array(rowSchema).default([])
