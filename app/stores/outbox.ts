@@ -4,9 +4,9 @@
 // useSync. Nothing leaves the outbox until the server answered applied, duplicate or conflict.
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import { getClientId, getMeta, readJournal, readOutbox, setMeta, type JournalEntry, type OutboxEntry } from '../utils/fieldDb'
+import { getClientId, getMeta, readBundles, readJournal, readOutbox, setLibrary, setMeta, type DeviceRow, type JournalEntry, type OutboxEntry } from '../utils/fieldDb'
 import { applyPull, applyPushResults, photoConfirmed, photoFailed, readPhotoQueue, realignSeq } from '../utils/syncApply'
-import { expectedSeqOf, parseAnswer, photoPutAnswerSchema, pullAnswerSchema, pushResultSchema, retryAfterMs } from '../utils/syncWire'
+import { expectedSeqOf, parseAnswer, photoPutAnswerSchema, pullAnswerSchema, pushResultSchema, retryAfterMs, stockAnswerSchema } from '../utils/syncWire'
 
 export const PUSH_BATCH = 500
 export type SyncFetch = (url: string, init?: RequestInit) => Promise<Response>
@@ -133,6 +133,26 @@ export const useOutboxStore = defineStore('outbox', () => {
     return [...changed]
   }
 
+  /**
+   * The stock of the trucks on the phone's open calls, so part lines can be picked with no signal.
+   * Read at most every quarter hour; a failure here never fails the pass.
+   */
+  async function refreshStock(doFetch: SyncFetch) {
+    const last = await getMeta<number>('stockFetchedAt')
+    if (last && Date.now() - last < 15 * 60_000) return
+    const trucks = new Set((await readBundles()).filter(b => !['invoiced', 'paid', 'cancelled'].includes(String(b.call.status)))
+      .map(b => b.call.serviceTruckId).filter((t): t is string => typeof t === 'string'))
+    const found: DeviceRow[] = []
+    for (const id of trucks) {
+      const res = await doFetch(`/api/service-trucks/${id}/stock`, { headers: JSON_HEADERS, credentials: 'same-origin' }).catch(() => null)
+      const body = res?.ok ? parseAnswer(stockAnswerSchema, await res.text()) : undefined
+      if (!body) return
+      found.push(...body.items)
+    }
+    await setLibrary('truckStock', Object.fromEntries(found.map(r => [r.id, r])))
+    await setMeta('stockFetchedAt', Date.now())
+  }
+
   /** One whole pass: push, photos, pull. Never throws; says what happened. */
   async function runOnce(opts: { fetch?: SyncFetch; position?: SyncPosition } = {}): Promise<SyncOutcome> {
     const doFetch = opts.fetch ?? ((url, init) => globalThis.fetch(url, init))
@@ -143,6 +163,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       await push(doFetch, clientId, opts.position)
       await uploadPhotos(doFetch)
       const changedCalls = await pull(doFetch, clientId)
+      await refreshStock(doFetch).catch(() => {})
       const now = new Date().toISOString()
       await setMeta('lastSyncAt', now)
       if (opts.position) await setMeta('positionSentAt', opts.position.at)

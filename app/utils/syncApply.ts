@@ -196,17 +196,6 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
       for (const r of rateRows) rates[r.id] = r
       lib.put(rates, 'rates')
     }
-    const stock = (ch as Record<string, unknown>).truckStock
-    if (Array.isArray(stock) && stock.length) {
-      const have = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('truckStock'))) ?? {}
-      for (const r of stock as DeviceRow[]) have[r.id] = r
-      lib.put(have, 'truckStock')
-    }
-    if (ch.testCards?.length) {
-      const cards = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('testCards'))) ?? {}
-      for (const c of ch.testCards) cards[c.id] = c
-      lib.put(cards, 'testCards')
-    }
     const meta = tx.objectStore('meta')
     meta.put(answer.cursor, 'cursor')
     meta.put(answer.lastSeq, 'serverLastSeq')

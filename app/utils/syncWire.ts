@@ -25,6 +25,9 @@ export const pullAnswerSchema = z.object({
 })
 export type PullAnswer = z.infer<typeof pullAnswerSchema>
 
+/** GET /api/service-trucks/[id]/stock */
+export const stockAnswerSchema = z.object({ items: z.array(rowSchema) })
+
 /** The photo upload answer: the server names the hash it stored, which must be ours. */
 export const photoPutAnswerSchema = z.object({ sha256: z.string().regex(/^[0-9a-f]{64}$/i) }).passthrough()
 

@@ -95,12 +95,11 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await page.locator('#ph-file').setInputFiles('tests/e2e/fixtures/sensor.jpg')
   await expect(page.getByRole('list', { name: 'Photos taken' }).getByRole('img')).toHaveCount(2)
 
-  // A part, typed.
+  // A part from the service truck's stock, cached on the phone by the first sync.
   await page.getByRole('button', { name: 'Add a part' }).click()
-  await page.getByLabel('Part number').fill('TR-DEF-10')
+  await page.getByLabel("From the truck's stock").selectOption({ label: 'TR-DEF-10 · DEF (AUS 32), 10 L jug' })
+  await expect(page.getByLabel('Unit price')).toHaveValue('24.00')
   await page.getByLabel('Quantity').fill('3')
-  await page.getByLabel('Description').fill('DEF (AUS 32), 10 L jug')
-  await page.getByLabel('Unit price').fill('24.00')
   await page.getByRole('button', { name: 'Add part' }).click()
   await expect(page.getByRole('list', { name: 'Parts used' })).toContainText('TR-DEF-10')
 
@@ -169,7 +168,8 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   expect(await count('readings', where, [callId])).toBe(3)
   expect(await count('notes', where, [callId])).toBe(1)
   expect(await count('photos', `${where} AND storage_key IS NOT NULL`, [callId])).toBe(2)
-  expect(await count('part_lines', where, [callId])).toBe(1)
+  const part = (await testPool().query('SELECT part_number, quantity, unit_price_cents, service_truck_id FROM part_lines WHERE call_id = $1', [callId])).rows
+  expect(part).toEqual([{ part_number: 'TR-DEF-10', quantity: 3, unit_price_cents: 2400, service_truck_id: expect.any(String) }])
   expect(await count('sign_offs', where, [callId])).toBe(1)
   const clock = await testPool().query('SELECT kind FROM clock_events WHERE call_id = $1 ORDER BY device_at, kind', [callId])
   expect(clock.rows.map(r => r.kind)).toEqual(['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'])
