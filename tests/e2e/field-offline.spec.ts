@@ -198,6 +198,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
 })
 
 async function addNote(page: Page, text: string) {
+  await expect(page.getByRole('heading', { name: /^Notes \(/ })).toBeVisible()
   const open = page.getByRole('button', { name: 'Write a note' })
   if (await open.isVisible()) await open.click()
   await page.getByLabel('New note').fill(text)
@@ -220,10 +221,11 @@ test('two tabs with work waiting come online together: one syncs at a time, no d
   const opsBefore = await count('sync_ops')
 
   await ctx.setOffline(true)
-  await addNote(a, 'Tab A: thermostat housing wet')
-  await addNote(b, 'Tab B: coolant level low')
-  await addNote(a, 'Tab A: topped up coolant')
-  await addNote(b, 'Tab B: pressure test holds')
+  const tag = Date.now()
+  await addNote(a, `Tab A: thermostat housing wet ${tag}`)
+  await addNote(b, `Tab B: coolant level low ${tag}`)
+  await addNote(a, `Tab A: topped up coolant ${tag}`)
+  await addNote(b, `Tab B: pressure test holds ${tag}`)
 
   // Every sync request each tab makes, with when it started and ended.
   const spans: { tab: string; url: string; start: number; end: number }[] = []
@@ -280,4 +282,46 @@ test('signing out with unsynced work warns first, and keeps the work', async ({ 
   await page.getByRole('button', { name: 'Sign out' }).click()
   await expect(page).toHaveURL(/\/login/)
   await ctx.close()
+})
+
+test('a field changed on two phones from the same start is settled on the phone', async ({ browser }) => {
+  const phones = await Promise.all([0, 1].map(() => browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })))
+  const pages = await Promise.all(phones.map(p => p.newPage()))
+  let callId = ''
+  for (const p of pages) {
+    await signIn(p, 'mech1@wayside.test')
+    await waitForServiceWorker(p)
+    callId = await callIdByNumber(p, /#4 · Lakeline/)
+    await p.goto(`/m/calls/${callId}`)
+    await expect(p.getByRole('heading', { level: 1, name: 'Call #4' })).toBeVisible()
+    await expect(p.getByTestId('sync-chip')).toContainText('All sent')
+  }
+  const [a, b] = pages as [Page, Page]
+  await Promise.all(phones.map(p => p.setOffline(true)))
+  for (const [p, text] of [[a, 'Thermostat stuck open'], [b, 'Coolant sensor open circuit']] as const) {
+    await p.getByLabel(/^Cause/).fill(text)
+    await p.getByRole('button', { name: 'Save the story' }).click()
+    await expect(p.getByText('Story saved on the phone')).toBeVisible()
+  }
+  // Phone A gets signal first; phone B's change then meets A's on the server.
+  await phones[0]!.setOffline(false)
+  await expect(a.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
+  await phones[1]!.setOffline(false)
+  const conflict = b.getByRole('article', { name: 'Conflict on Cause' })
+  await expect(conflict).toBeVisible({ timeout: 30_000 })
+  await expect(conflict.getByTestId('device-value')).toHaveText('Coolant sensor open circuit')
+  await expect(conflict.getByTestId('server-value')).toHaveText('Thermostat stuck open')
+  await expect(b.getByTestId('sync-chip')).toContainText('1 to settle')
+  await conflict.scrollIntoViewIfNeeded()
+  await b.screenshot({ path: 'tests/e2e/screenshots/field-conflict-360.png' })
+  expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'open'", [callId])).toBe(1)
+
+  await conflict.getByLabel('Or type the right value').fill('Thermostat stuck open; sensor reads true')
+  await conflict.getByRole('button', { name: 'Keep this' }).click()
+  await expect(b.getByRole('article', { name: 'Conflict on Cause' })).toHaveCount(0, { timeout: 30_000 })
+  await expect.poll(async () => (await testPool().query('SELECT story_cause FROM calls WHERE id = $1', [callId])).rows[0].story_cause, { timeout: 30_000 })
+    .toBe('Thermostat stuck open; sensor reads true')
+  expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'resolved' AND choice = 'value'", [callId])).toBe(1)
+  await expect(b.getByLabel(/^Cause/)).toHaveValue('Thermostat stuck open; sensor reads true')
+  await Promise.all(phones.map(p => p.close()))
 })
