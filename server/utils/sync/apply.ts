@@ -363,7 +363,17 @@ export class SyncApplier {
     }
     if (rejects.length) return rejected(rejects.join('; '))
     const problemOutcome = outcomeProblem(call, takes)
-    if (problemOutcome) return rejected(problemOutcome)
+    if (problemOutcome) {
+      // The device completed the call but its status move did not take: the outcome waits with it.
+      if (!('outcome' in takes) || !('status' in changes) || takes.status !== undefined) return rejected(problemOutcome)
+      const reason = 'outcome: the call was not completed on the server'
+      notes.push(reason)
+      conflicts.push({
+        callId: call.id, entity: 'call', entityId: call.id, field: 'outcome', reason, opId: op.opId, raisedBy: this.user.id,
+        baseValue: jsonb('outcome' in base ? base.outcome : null), deviceValue: jsonb(takes.outcome), serverValue: jsonb(call.outcome),
+      })
+      delete takes.outcome
+    }
     let after = call
     if (Object.keys(takes).length) after = await writeCallChanges(this.tx, call, takes, this.user)
     if (conflicts.length) await this.tx.insert(tables.conflicts).values(conflicts)

@@ -5,7 +5,7 @@ import { and, eq, inArray, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { PushBody, PushResult } from '#shared/schemas/sync'
 import { applySyncOps, type OpOutcome } from './apply'
-import { withTxRetry } from './retry'
+import { pgErrorCode, withTxRetry } from './retry'
 import { syncTestInjectSerializationFailure, syncTestPause } from './testHooks'
 
 /** An op past the next expected seq: nothing was applied; the device resends from expectedSeq. */
@@ -79,7 +79,7 @@ export async function syncPush(user: User, body: PushBody, meta: { userAgent?: s
     }
     await syncTestPause('before-commit')
     return { lastSeq, results: body.ops.map(op => results.get(op.opId)!) }
-  }))
+  }), { onRetry: (attempt, err) => console.warn(`[sync] push retried (attempt ${attempt + 1}) after SQLSTATE ${pgErrorCode(err)}`) })
   await syncTestPause('after-commit')
   return answer
 }
