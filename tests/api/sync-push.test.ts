@@ -152,6 +152,33 @@ describe('push: one bad op', () => {
   })
 })
 
+describe('push: a row the database refuses', () => {
+  it('rejects only the op whose value PostgreSQL refuses (a NUL inside JSON), naming the field; the rest apply', async () => {
+    const callId = await makeCall()
+    const cardId = await makeTestCard()
+    const d = new Device(mech1)
+    const ops = [
+      d.op('note', { callId, text: 'before' }),
+      d.op('testRun', { callId, cardId, cardVersion: 1, steps: [{ id: 's1', note: 'bad \u0000 byte' }] }),
+      d.op('note', { callId, text: 'after' }),
+      d.update('call', callId, { verification: { roadTest: 'ok \u0000' } }, { verification: null }),
+      d.update('call', callId, { storyCause: 'fine' }, { storyCause: null }),
+      d.op('note', { callId, text: 'nul \u0000 in text' }),
+    ]
+    const r = await d.push(ops)
+    expect(r.status).toBe(200)
+    expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'rejected', 'applied', 'rejected', 'applied', 'rejected'])
+    expect(r.body.results[1].reason).toMatch(/^steps: the database refused it/)
+    expect(r.body.results[3].reason).toMatch(/^verification: the database refused it/)
+    expect(r.body.results[5].reason).toMatch(/^text: May not contain a NUL/)
+    expect(await count('notes', 'id = ANY($1)', [idList(ops)])).toBe(2)
+    expect(await count('test_runs', 'id = $1', [ops[1]!.entityId])).toBe(0)
+    const row = await callRow(callId)
+    expect([row.verification, row.story_cause]).toEqual([null, 'fine'])
+    expect(r.body.lastSeq).toBe(ops.length)
+  })
+})
+
 describe('push: who may write what', () => {
   it("rejects a mechanic's ops on another mechanic's call as forbidden", async () => {
     const theirs = await makeCall({ mechanicId: IDS.mech2 })
