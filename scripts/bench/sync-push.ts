@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto'
 import pg from 'pg'
 import { seedId } from '../../server/db/seed/ids'
 
-const BASE = process.env.WAYSIDE_BENCH_URL ?? 'http://127.0.0.1:3090'
+const BASE = process.env.WAYSIDE_BENCH_URL ?? process.env.WAYSIDE_TEST_URL ?? 'http://127.0.0.1:3190'
 const DB = process.env.NUXT_DATABASE_URL ?? 'postgres://wayside@127.0.0.1:54329/wayside_bench'
 const TOTAL = 10_000
 const BATCH = 500

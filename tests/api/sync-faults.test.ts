@@ -88,6 +88,23 @@ describe('a server killed mid-push', () => {
   })
 })
 
+describe('a push that stays contended', () => {
+  it('answers 503 with Retry-After once every retry failed, applies nothing, and takes the resend', async () => {
+    const callId = await makeCall()
+    // withTxRetry makes 8 attempts; all 8 fail here, the next push finds the way clear.
+    const server = await own({ WAYSIDE_SYNC_TEST_SERIALIZATION_FAILURES: '8' })
+    const device = await deviceOn(server)
+    const ops = Array.from({ length: 5 }, (_, i) => device.op('note', { callId, text: `Contended ${i}` }))
+    const busy = await device.push(ops)
+    expect(busy.status).toBe(503)
+    expect(busy.headers.get('retry-after')).toBe('2')
+    expect(await recordsOf(callId, ops)).toEqual({ notes: 0, readings: 0, statusEvents: 0, syncOps: 0 })
+    const r = await device.push(ops)
+    expect(r.body.results.map((x: any) => x.status)).toEqual(Array(5).fill('applied'))
+    expect(await recordsOf(callId, ops)).toEqual({ notes: 5, readings: 0, statusEvents: 0, syncOps: 5 })
+  })
+})
+
 describe('memory under oversized and hostile bodies', () => {
   it('refuses 50 oversized pushes and 20 deeply nested ones without its memory growing, and still works', async () => {
     const server = await own()
