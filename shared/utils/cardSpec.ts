@@ -129,6 +129,20 @@ export interface VerdictExplanation {
 
 const VERDICT_WORDS: Record<JudgeVerdict, string> = { pass: 'pass', low: 'low', high: 'high' }
 
+/** How a step's spec reads in the display unit: 'a Pt200 at 12 °C should read 209.4 Ω ± 2 %' or 'spec 4.8–5.2 V'. */
+export function describeCardSpec(spec: CardSpec, opts: { quantity: NumericMeasure; ambientC?: number; unit?: MeasureUnit; temperatureUnit?: 'degC' | 'degF' }) {
+  if (!(opts.quantity in BASE_UNIT_OF)) throw new RangeError(`Unknown quantity "${String(opts.quantity)}"`)
+  const unit = displayUnitFor(opts.quantity, opts.unit)
+  const resolved = resolveCardSpec(spec, opts.ambientC)
+  if (resolved.model && opts.quantity !== 'resistance') throw new RangeError('A sensor-model spec gives ohms: the reading must be a resistance')
+  const specText = describeSpec(specInUnit(resolved.judge, unit), unit)
+  const limitsText = describeSpec(specInUnit(specBounds(resolved.judge), unit), unit)
+  const should = resolved.model
+    ? `${resolved.model} at ${fmtValue(resolved.ambientC!, opts.temperatureUnit ?? 'degC')} should read ${specText}`
+    : `spec ${specText}`
+  return { resolved, unit, specText, limitsText, should }
+}
+
 /**
  * The verdict on one reading and how it was reached, in words a mechanic can check by hand.
  * `value` is in the quantity's base unit; `unit` is how to show numbers (the mechanic's
@@ -142,25 +156,17 @@ export function explainVerdict(input: {
   unit?: MeasureUnit
   temperatureUnit?: 'degC' | 'degF'
 }): VerdictExplanation {
-  const { value, quantity, spec } = input
+  const { value, quantity } = input
   if (typeof value !== 'number' || Number.isNaN(value)) throw new RangeError(`Reading must be a number, got ${value}`)
   if (!(quantity in BASE_UNIT_OF)) throw new RangeError(`Unknown quantity "${String(quantity)}"`)
   if (value === Infinity && quantity !== 'resistance') throw new RangeError('Only a resistance can read OL (open)')
   if (quantity === 'resistance' && value < 0) throw new RangeError(`Resistance cannot be negative, got ${value} Ω`)
-  const unit = displayUnitFor(quantity, input.unit)
-  const resolved = resolveCardSpec(spec, input.ambientC)
-  if (resolved.model && quantity !== 'resistance') throw new RangeError('A sensor-model spec gives ohms: the reading must be a resistance')
-  const verdict = judge(value, resolved.judge)
-  const specText = describeSpec(specInUnit(resolved.judge, unit), unit)
-  const bounds = specBounds(resolved.judge)
-  const limitsText = describeSpec(specInUnit(bounds, unit), unit)
-  let should: string
-  if (resolved.model) {
-    const tUnit = input.temperatureUnit ?? 'degC'
-    should = `${resolved.model} at ${fmtValue(resolved.ambientC!, tUnit)} should read ${specText}`
+  const d = describeCardSpec(input.spec, input)
+  const verdict = judge(value, d.resolved.judge)
+  return {
+    verdict, judged: d.resolved.judge, specText: d.specText, limitsText: d.limitsText,
+    text: `measured ${fmtValue(value, d.unit)}; ${d.should}; ${VERDICT_WORDS[verdict]}`,
   }
-  else should = `spec ${specText}`
-  return { verdict, judged: resolved.judge, specText, limitsText, text: `measured ${fmtValue(value, unit)}; ${should}; ${VERDICT_WORDS[verdict]}` }
 }
 
 /** Verdict on a yes/no or pick-one step: pass when the answer is one the card marks as passing. */
