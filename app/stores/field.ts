@@ -78,7 +78,7 @@ export const useFieldStore = defineStore('field', () => {
   async function loadCall(callId: string): Promise<CallView | null> {
     const [bundle, all, outbox] = await Promise.all([readBundle(callId), readBundles(), readOutbox()])
     const view = bundle ? viewOf(bundle, all.filter(o => o.id !== callId), outbox) : null
-    if (current.value?.call.id === callId || !current.value) current.value = view
+    current.value = view
     return view
   }
 
@@ -137,6 +137,22 @@ export const useFieldStore = defineStore('field', () => {
     await afterWrite(callId)
   }
 
+  /**
+   * A photo: its record op and its bytes (with their SHA-256) queued in one transaction. The
+   * bytes go up on their own queue once the server applied the record.
+   */
+  async function addPhoto(callId: string, photo: { bytes: ArrayBuffer; contentType: string; caption?: string; thumb?: string }): Promise<string> {
+    const id = crypto.randomUUID()
+    const sha256 = await sha256Hex(photo.bytes)
+    const fields: Record<string, unknown> = { callId, contentType: photo.contentType, sizeBytes: photo.bytes.byteLength, sha256 }
+    if (photo.caption) fields.caption = photo.caption
+    const change = createChange('photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
+    change.photo = { id, callId, bytes: photo.bytes, sha256, contentType: photo.contentType, size: photo.bytes.byteLength, opApplied: false, tries: 0 }
+    await commitChanges(callId, [change])
+    await afterWrite(callId)
+    return id
+  }
+
   /** Settles a conflict with the device's value, the server's, or one typed by the mechanic. */
   async function resolveConflict(callId: string, conflictId: string, choice: 'device' | 'server' | 'value', value?: unknown) {
     const changes: Record<string, unknown> = { conflictId, choice }
@@ -158,14 +174,20 @@ export const useFieldStore = defineStore('field', () => {
     }))
   }
 
-  return { current, loadCall, addRecord, updateRecord, updateCall, writeCall, resolveConflict, listCalls }
+  return { current, loadCall, addRecord, addPhoto, updateRecord, updateCall, writeCall, resolveConflict, listCalls }
 })
 
-function createChange(entity: AddableEntity, id: string, fields: Record<string, unknown>): LocalChange {
+/** A create op; `localOnly` fields (a thumbnail) stay on the phone and are not sent. */
+function createChange(entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {}): LocalChange {
   return {
     entity, entityId: id, action: 'create', changes: fields,
-    apply: (b, at) => { b.records[RECORD_COLLECTION[entity]][id] = { ...fields, id, deviceAt: at } },
+    apply: (b, at) => { b.records[RECORD_COLLECTION[entity]][id] = { ...fields, ...localOnly, id, deviceAt: at } },
   }
+}
+
+export async function sha256Hex(bytes: ArrayBuffer): Promise<string> {
+  const digest = await crypto.subtle.digest('SHA-256', bytes)
+  return [...new Uint8Array(digest)].map(b => b.toString(16).padStart(2, '0')).join('')
 }
 
 if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useFieldStore, import.meta.hot))

@@ -41,8 +41,8 @@ export const useOutboxStore = defineStore('outbox', () => {
   const lastSyncAt = ref<string | null>(null)
   const lastAttemptAt = ref<string | null>(null)
   const lastError = ref<string | null>(null)
-  /** Why sync is stopped until the person acts: sign in again, or update the app. */
-  const paused = ref<'signin' | 'update' | null>(null)
+  /** Why sync is stopped until the person acts: sign in again, update the app, or another person's work waits here. */
+  const paused = ref<'signin' | 'update' | 'owner' | null>(null)
   const syncing = ref(false)
   const nextAttemptAt = ref<number | null>(null)
   /** Bumped after every local write, so the engine can sync soon. */

@@ -45,6 +45,8 @@ export interface JournalEntry {
   status: OpStatus | 'discarded'
   reason?: string
   doneAt: string
+  /** The op in words, kept because the journal does not keep the op's data. */
+  summary: string
 }
 
 /** Where a record entity lives in a call's bundle (and in a pull's `changes`). */
@@ -195,4 +197,25 @@ export function waitingByEntity(outbox: readonly OutboxEntry[]): Map<string, Out
     m.set(e.entityId, list)
   }
   return m
+}
+
+/**
+ * Ties the device's records to the person signed in. Another person's calls never show: with
+ * nothing waiting, the device is cleared for the new person (new client id, fresh pull); with
+ * work still waiting, it stays untouched for its owner and 'foreign' is answered.
+ */
+export async function claimDevice(userId: string): Promise<'mine' | 'cleared' | 'foreign'> {
+  return deviceTx(['meta', 'calls', 'library', 'outbox', 'photos', 'journal'], 'readwrite', async (tx) => {
+    const meta = tx.objectStore('meta')
+    const owner = await promisifyRequest<string | undefined>(meta.get('ownerId'))
+    if (owner === userId) return 'mine'
+    if (owner === undefined) { meta.put(userId, 'ownerId'); return 'mine' }
+    const waiting = await promisifyRequest<number>(tx.objectStore('outbox').count())
+    const photos = await promisifyRequest<number>(tx.objectStore('photos').count())
+    if (waiting + photos > 0) return 'foreign'
+    for (const s of ['calls', 'library', 'journal'] as const) tx.objectStore(s).clear()
+    for (const k of [META_CLIENT, META_SEQ, 'cursor', 'serverLastSeq', 'lastSyncAt', 'positionSentAt']) meta.delete(k)
+    meta.put(userId, 'ownerId')
+    return 'cleared'
+  })
 }

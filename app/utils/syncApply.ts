@@ -7,12 +7,16 @@ import {
   BUNDLE_COLLECTIONS, RECORD_COLLECTION, emptyBundle, overlayPending, waitingByEntity,
   type CallBundle, type Collection, type DeviceRow, type JournalEntry, type OutboxEntry, type QueuedPhoto, type RecordEntity,
 } from './fieldDb'
+import { opSummary } from './opSummary'
 import type { PullAnswer, PushResult } from './syncWire'
 
 const JOURNAL_KEEP = 300
 
 function journalOf(e: OutboxEntry, status: JournalEntry['status'], reason?: string | null): JournalEntry {
-  const j: JournalEntry = { seq: e.seq, opId: e.opId, entity: e.entity, entityId: e.entityId, callId: e.callId, action: e.action, at: e.at, status, doneAt: new Date().toISOString() }
+  const j: JournalEntry = {
+    seq: e.seq, opId: e.opId, entity: e.entity, entityId: e.entityId, callId: e.callId, action: e.action, at: e.at,
+    status, doneAt: new Date().toISOString(), summary: opSummary(e),
+  }
   if (reason) j.reason = reason
   return j
 }

@@ -1,0 +1,437 @@
+// Applies a push's fresh ops inside the push transaction. Creates are gathered per entity and
+// written with one multi-row INSERT each (flushed before any update, so an update sees the rows
+// created before it); updates and conflict settlements run one by one, each in a savepoint so a
+// row the database refuses rejects only that op.
+import { eq, inArray, sql } from 'drizzle-orm'
+import type { PgTable } from 'drizzle-orm/pg-core'
+import type { User } from '#auth-utils'
+import {
+  conflictResolutionSchema, createSchemas, updateSchemas,
+  type ChildCreate, type ChildEntity, type Op,
+} from '#shared/schemas/sync'
+import { judge } from '#shared/utils/spec'
+import type { z } from 'zod'
+import type { Tx } from '../db'
+import { outcomeProblem, writeCallChanges, type CallRow } from './callWrite'
+import { resolveConflictInTx, SyncRuleError } from './conflicts'
+import { mergeCallField, sameSyncValue } from './merge'
+import { isRetryableTxError, pgErrorCode } from './retry'
+
+export type OpOutcome = { status: 'applied' | 'conflict' | 'rejected'; version?: number; reason?: string }
+
+type Parsed =
+  | { kind: 'bad'; reason: string }
+  | { kind: 'create'; entity: ChildEntity; data: Record<string, unknown> }
+  | { kind: 'callUpdate'; data: Record<string, unknown> }
+  | { kind: 'childUpdate'; entity: 'faultCode' | 'testRun'; data: Record<string, unknown> }
+  | { kind: 'resolution'; data: z.output<typeof conflictResolutionSchema>; hasValue: boolean }
+
+const rejected = (reason: string): OpOutcome => ({ status: 'rejected', reason })
+const FORBIDDEN = 'forbidden'
+
+const ENTITY_WORDS: Record<ChildEntity, string> = {
+  reading: 'reading', faultCode: 'fault code', note: 'note', photo: 'photo', clockEvent: 'clock event',
+  partLine: 'part line', testRun: 'test run', signOff: 'sign-off',
+}
+
+/** Zod issues as one reason naming each field ("value: Invalid input: expected number…"). */
+export function syncIssuesReason(error: z.ZodError, entity: string): string {
+  const parts: string[] = []
+  for (const issue of error.issues) {
+    if (issue.code === 'unrecognized_keys') {
+      for (const key of issue.keys) parts.push(`${key}: not a field of a ${entity} a device may change`)
+      continue
+    }
+    const key = issue.path.map(String).join('.') || 'changes'
+    if (!parts.some(p => p.startsWith(`${key}: `))) parts.push(`${key}: ${issue.message}`)
+  }
+  return parts.join('; ')
+}
+
+function parseOp(op: Op): Parsed {
+  const { entity, action, changes } = op
+  if (entity === 'conflictResolution') {
+    const r = conflictResolutionSchema.safeParse(changes)
+    return r.success ? { kind: 'resolution', data: r.data, hasValue: 'value' in changes } : { kind: 'bad', reason: syncIssuesReason(r.error, 'conflict resolution') }
+  }
+  if (entity === 'call') {
+    if (action === 'create') return { kind: 'bad', reason: 'action: calls are taken by dispatch, not created by sync' }
+    if (!Object.keys(changes).length) return { kind: 'bad', reason: 'changes: nothing to change' }
+    const r = updateSchemas.call.safeParse(changes)
+    return r.success ? { kind: 'callUpdate', data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, 'call') }
+  }
+  if (action === 'update') {
+    if (entity !== 'faultCode' && entity !== 'testRun') return { kind: 'bad', reason: `action: ${ENTITY_WORDS[entity]}s are append-only` }
+    if (!Object.keys(changes).length) return { kind: 'bad', reason: 'changes: nothing to change' }
+    const r = updateSchemas[entity].safeParse(changes)
+    return r.success ? { kind: 'childUpdate', entity, data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
+  }
+  const { id, ...fields } = changes
+  if (id !== undefined && id !== op.entityId) return { kind: 'bad', reason: 'id: differs from the op entityId' }
+  const r = createSchemas[entity].safeParse(fields)
+  return r.success ? { kind: 'create', entity, data: r.data as Record<string, unknown> } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
+}
+
+const TABLE: Record<ChildEntity, PgTable & { id: any; version: any; callId: any }> = {
+  reading: tables.readings, faultCode: tables.faultCodes, note: tables.notes, photo: tables.photos,
+  clockEvent: tables.clockEvents, partLine: tables.partLines, testRun: tables.testRuns, signOff: tables.signOffs,
+}
+// Test runs first: readings may point at a run created in the same push.
+const FLUSH_ORDER: ChildEntity[] = ['testRun', 'faultCode', 'reading', 'note', 'photo', 'clockEvent', 'partLine', 'signOff']
+/** Columns that are not the record's content, left out when a repeated create is compared. */
+const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt'])
+
+const toDate = (v: unknown) => (typeof v === 'string' ? new Date(v) : null)
+
+type Row = Record<string, unknown> & { id: string; callId: string }
+type Pending = { index: number; row: Row }
+
+/** What the push already knows about rows its ops point at, fetched in a few queries up front. */
+interface Refs {
+  testRuns: Map<string, string> // id → callId (in the database or created earlier in this push)
+  cardVersions: Set<string> // `${cardId}:${version}`
+  trucks: Set<string>
+  stock: Map<string, { unitPriceCents: number; coreChargeCents: number }> // `${truckId}:${partNumber}`
+  signedCalls: Map<string, string> // callId → sign-off id
+}
+
+function isDataError(err: unknown) {
+  const code = pgErrorCode(err)
+  return !!code && (code.startsWith('22') || code.startsWith('23'))
+}
+function dbReason(err: unknown) {
+  const cause = ((err as { cause?: unknown }).cause ?? err) as { message?: string; column?: string; constraint?: string }
+  const what = cause.column ?? cause.constraint ?? 'record'
+  return `${what}: the database refused it (${cause.message ?? 'invalid'})`
+}
+
+export class SyncApplier {
+  readonly results: OpOutcome[]
+  private parsed: Parsed[]
+  private calls = new Map<string, CallRow>()
+  private refs: Refs = { testRuns: new Map(), cardVersions: new Set(), trucks: new Set(), stock: new Map(), signedCalls: new Map() }
+  private buffers = new Map<ChildEntity, Pending[]>()
+  private sp = 0
+
+  constructor(private tx: Tx, private user: User, private ops: Op[], private limits: { photoMaxBytes: number }) {
+    this.results = ops.map(() => ({ status: 'rejected' }))
+    this.parsed = ops.map(parseOp)
+  }
+
+  async run(): Promise<OpOutcome[]> {
+    await this.load()
+    for (let i = 0; i < this.ops.length; i++) {
+      const p = this.parsed[i]!
+      const op = this.ops[i]!
+      if (p.kind === 'bad') this.results[i] = rejected(p.reason)
+      else if (p.kind === 'create') this.queueCreate(i, op, p.entity, p.data)
+      else {
+        await this.flush()
+        this.results[i] = await this.inSavepoint(() =>
+          p.kind === 'callUpdate' ? this.callUpdate(op, p.data)
+          : p.kind === 'childUpdate' ? this.childUpdate(op, p.entity, p.data)
+          : this.resolution(p.data, p.hasValue))
+      }
+    }
+    await this.flush()
+    return this.results
+  }
+
+  // ── Loading ─────────────────────────────────────────────────────────────────────────────
+  private async load() {
+    const { tx } = this
+    const callIds = new Set<string>()
+    const runIds = new Set<string>(), cardIds = new Set<string>(), truckIds = new Set<string>(), signCalls = new Set<string>()
+    const conflictIds: string[] = []
+    this.parsed.forEach((p, i) => {
+      if (p.kind === 'create') {
+        callIds.add(p.data.callId as string)
+        if (p.entity === 'reading' && p.data.testRunId) runIds.add(p.data.testRunId as string)
+        if (p.entity === 'testRun') cardIds.add(p.data.cardId as string)
+        if (p.entity === 'partLine' && p.data.serviceTruckId) truckIds.add(p.data.serviceTruckId as string)
+        if (p.entity === 'signOff') signCalls.add(p.data.callId as string)
+      }
+      else if (p.kind === 'callUpdate') callIds.add(this.ops[i]!.entityId)
+      else if (p.kind === 'resolution') conflictIds.push(p.data.conflictId)
+    })
+    if (conflictIds.length) {
+      const rows = await tx.select({ callId: tables.conflicts.callId }).from(tables.conflicts).where(inArray(tables.conflicts.id, conflictIds))
+      for (const r of rows) callIds.add(r.callId)
+    }
+    // One statement, in id order, so concurrent pushes take the call locks in the same order.
+    if (callIds.size) {
+      const rows = await tx.select().from(tables.calls).where(inArray(tables.calls.id, [...callIds])).orderBy(tables.calls.id).for('no key update')
+      for (const r of rows) this.calls.set(r.id, r)
+    }
+    const jobs: Promise<void>[] = []
+    if (runIds.size) {
+      jobs.push(tx.select({ id: tables.testRuns.id, callId: tables.testRuns.callId }).from(tables.testRuns).where(inArray(tables.testRuns.id, [...runIds]))
+        .then((rows) => { for (const r of rows) this.refs.testRuns.set(r.id, r.callId) }))
+    }
+    if (cardIds.size) {
+      jobs.push(tx.select({ cardId: tables.testCardVersions.cardId, v: tables.testCardVersions.cardVersion }).from(tables.testCardVersions)
+        .where(inArray(tables.testCardVersions.cardId, [...cardIds]))
+        .then((rows) => { for (const r of rows) this.refs.cardVersions.add(`${r.cardId}:${r.v}`) }))
+    }
+    if (truckIds.size) {
+      jobs.push(tx.select({ id: tables.serviceTrucks.id }).from(tables.serviceTrucks).where(inArray(tables.serviceTrucks.id, [...truckIds]))
+        .then((rows) => { for (const r of rows) this.refs.trucks.add(r.id) }))
+      const s = tables.truckStock
+      jobs.push(tx.select({ truckId: s.truckId, partNumber: s.partNumber, unitPriceCents: s.unitPriceCents, coreChargeCents: s.coreChargeCents })
+        .from(s).where(inArray(s.truckId, [...truckIds]))
+        .then((rows) => { for (const r of rows) this.refs.stock.set(`${r.truckId}:${r.partNumber}`, r) }))
+    }
+    if (signCalls.size) {
+      jobs.push(tx.select({ id: tables.signOffs.id, callId: tables.signOffs.callId }).from(tables.signOffs).where(inArray(tables.signOffs.callId, [...signCalls]))
+        .then((rows) => { for (const r of rows) this.refs.signedCalls.set(r.callId, r.id) }))
+    }
+    // Sequential on the one connection anyway; Promise.all just keeps the code flat.
+    await Promise.all(jobs)
+  }
+
+  private async lockCall(id: string): Promise<CallRow | undefined> {
+    const known = this.calls.get(id)
+    if (known) return known
+    const [row] = await this.tx.select().from(tables.calls).where(eq(tables.calls.id, id)).for('no key update')
+    if (row) this.calls.set(row.id, row)
+    return row
+  }
+
+  /** A reason to refuse the user this call, or undefined when they may write to it. */
+  private accessProblem(call: CallRow | undefined): string | undefined {
+    if (this.user.role === 'mechanic') return call && call.mechanicId === this.user.id ? undefined : FORBIDDEN
+    return call ? undefined : 'callId: no such call'
+  }
+
+  // ── Creates ─────────────────────────────────────────────────────────────────────────────
+  private queueCreate(index: number, op: Op, entity: ChildEntity, data: Record<string, unknown>) {
+    const call = this.calls.get(data.callId as string)
+    const problem = this.accessProblem(call)
+    if (problem) { this.results[index] = rejected(problem); return }
+    const built = this.buildRow(entity, op, data)
+    if (typeof built === 'string') { this.results[index] = rejected(built); return }
+    if (entity === 'testRun') this.refs.testRuns.set(built.id, built.callId)
+    if (entity === 'signOff') {
+      const existing = this.refs.signedCalls.get(built.callId)
+      if (existing && existing !== built.id) { this.results[index] = rejected('callId: this call already has a sign-off'); return }
+      this.refs.signedCalls.set(built.callId, built.id)
+    }
+    const list = this.buffers.get(entity) ?? []
+    list.push({ index, row: built })
+    this.buffers.set(entity, list)
+  }
+
+  /** The full row for a create (every column set, so a repeated create compares completely). */
+  private buildRow(entity: ChildEntity, op: Op, data: Record<string, unknown>): Row | string {
+    const common = { id: op.entityId, callId: data.callId as string, createdBy: this.user.id, deviceAt: new Date(op.at) }
+    switch (entity) {
+      case 'reading': {
+        const d = data as ChildCreate<'reading'>
+        if (d.testRunId && this.refs.testRuns.get(d.testRunId) !== d.callId) return 'testRunId: no such test run on this call'
+        let verdict = d.verdict ?? null
+        // The server judges again when the spec is one it can read; the device's verdict is a hint.
+        if (d.spec) { try { verdict = judge(d.value, d.spec) } catch {} }
+        return {
+          ...common, testRunId: d.testRunId ?? null, stepId: d.stepId ?? null, label: d.label, quantity: d.quantity, value: d.value, unit: d.unit,
+          component: d.component ?? null, pins: d.pins ?? null, conditions: d.conditions ?? null, partRole: d.partRole ?? null,
+          spec: d.spec ?? null, verdict,
+        }
+      }
+      case 'faultCode': {
+        const d = data as ChildCreate<'faultCode'>
+        return {
+          ...common, code: d.code ?? null, spn: d.spn ?? null, fmi: d.fmi ?? null, state: d.state ?? 'active', count: d.count ?? 1,
+          source: d.source ?? null, clearedAt: toDate(d.clearedAt), note: d.note ?? null,
+        }
+      }
+      case 'note': return { ...common, text: (data as ChildCreate<'note'>).text }
+      case 'clockEvent': return { ...common, kind: (data as ChildCreate<'clockEvent'>).kind }
+      case 'photo': {
+        const d = data as ChildCreate<'photo'>
+        if (d.sizeBytes > this.limits.photoMaxBytes) return `sizeBytes: larger than the ${this.limits.photoMaxBytes}-byte photo limit`
+        return { ...common, sha256: d.sha256, contentType: d.contentType, sizeBytes: d.sizeBytes, caption: d.caption ?? null }
+      }
+      case 'partLine': {
+        const d = data as ChildCreate<'partLine'>
+        if (d.serviceTruckId && !this.refs.trucks.has(d.serviceTruckId)) return 'serviceTruckId: no such service truck'
+        const stock = d.serviceTruckId ? this.refs.stock.get(`${d.serviceTruckId}:${d.partNumber}`) : undefined
+        return {
+          ...common, partNumber: d.partNumber, description: d.description, quantity: d.quantity,
+          unitPriceCents: d.unitPriceCents ?? stock?.unitPriceCents ?? 0, coreChargeCents: d.coreChargeCents ?? stock?.coreChargeCents ?? 0,
+          serviceTruckId: d.serviceTruckId ?? null,
+        }
+      }
+      case 'testRun': {
+        const d = data as ChildCreate<'testRun'>
+        if (!this.refs.cardVersions.has(`${d.cardId}:${d.cardVersion}`)) return 'cardVersion: no such version of this test card'
+        return {
+          ...common, cardId: d.cardId, cardVersion: d.cardVersion, ambientC: d.ambientC ?? null, steps: d.steps,
+          conclusion: d.conclusion ?? null, finishedAt: toDate(d.finishedAt),
+        }
+      }
+      case 'signOff': {
+        const d = data as ChildCreate<'signOff'>
+        return { ...common, driverName: d.driverName, signature: d.signature }
+      }
+    }
+  }
+
+  private async flush() {
+    for (const entity of FLUSH_ORDER) {
+      const pending = this.buffers.get(entity)
+      if (!pending?.length) continue
+      this.buffers.delete(entity)
+      await this.insertAll(entity, pending)
+    }
+  }
+
+  private async insertAll(entity: ChildEntity, pending: Pending[]) {
+    const table = TABLE[entity]
+    // A second create of the same id in one push is compared with the first, after it is written.
+    const first = new Map<string, Pending>()
+    for (const p of pending) if (!first.has(p.row.id)) first.set(p.row.id, p)
+    const rows = [...first.values()]
+    const inserted = new Map<string, number>()
+    const refused = new Map<string, string>()
+    try {
+      const out = await this.inSavepointRaw(() =>
+        this.tx.insert(table).values(rows.map(p => p.row) as any).onConflictDoNothing().returning({ id: table.id, version: table.version }))
+      for (const r of out as { id: string; version: number }[]) inserted.set(r.id, r.version)
+    }
+    catch (err) {
+      if (!isDataError(err)) throw err
+      // Something the checks above did not foresee: find the bad rows one at a time.
+      for (const p of rows) {
+        try {
+          const out = await this.inSavepointRaw(() =>
+            this.tx.insert(table).values(p.row as any).onConflictDoNothing().returning({ id: table.id, version: table.version }))
+          for (const r of out as { id: string; version: number }[]) inserted.set(r.id, r.version)
+        }
+        catch (e) {
+          if (!isDataError(e)) throw e
+          refused.set(p.row.id, dbReason(e))
+        }
+      }
+    }
+    const again = pending.filter(p => !inserted.has(p.row.id) && !refused.has(p.row.id))
+    const existing = new Map<string, Record<string, unknown>>()
+    if (again.length) {
+      const rowsThere = await this.tx.select().from(table).where(inArray(table.id, [...new Set(again.map(p => p.row.id))]))
+      for (const r of rowsThere as Record<string, unknown>[]) existing.set(r.id as string, r)
+    }
+    for (const p of pending) {
+      const refusal = refused.get(p.row.id)
+      if (refusal) { this.results[p.index] = rejected(refusal); continue }
+      const version = inserted.get(p.row.id)
+      if (version !== undefined && first.get(p.row.id) === p) { this.results[p.index] = { status: 'applied', version }; continue }
+      // Already there (an earlier push, or earlier in this one): the same content is a no-op.
+      const there = existing.get(p.row.id) ?? (version !== undefined ? first.get(p.row.id)?.row : undefined)
+      if (!there) { this.results[p.index] = rejected(entity === 'signOff' ? 'callId: this call already has a sign-off' : 'entityId: clashes with an existing record'); continue }
+      const same = Object.keys(p.row).every(k => NOT_CONTENT.has(k) || sameSyncValue(p.row[k], there[k]))
+      this.results[p.index] = same
+        ? { status: 'applied', version: (there.version as number | undefined) ?? version ?? 1 }
+        : rejected(`entityId: a different ${ENTITY_WORDS[entity]} already has this id`)
+    }
+  }
+
+  // ── Updates ─────────────────────────────────────────────────────────────────────────────
+  private async callUpdate(op: Op, changes: Record<string, unknown>): Promise<OpOutcome> {
+    const call = this.calls.get(op.entityId)
+    const problem = this.accessProblem(call)
+    if (problem || !call) return rejected(problem === 'callId: no such call' ? 'entityId: no such call' : FORBIDDEN)
+    const base = op.base ?? {}
+    const takes: Record<string, unknown> = {}
+    const rejects: string[] = [], notes: string[] = []
+    const conflicts: (typeof tables.conflicts.$inferInsert)[] = []
+    for (const [field, device] of Object.entries(changes)) {
+      const server = call[field as keyof CallRow]
+      const d = mergeCallField({
+        field, device, server, role: this.user.role, serverStatus: call.status,
+        base: field in base ? { value: base[field] } : undefined,
+        baseVersionMatches: op.baseVersion !== undefined && op.baseVersion === call.version,
+      })
+      if (d.action === 'take') takes[field] = d.value
+      else if (d.action === 'reject') rejects.push(d.reason)
+      else if (d.action === 'keep') notes.push(d.reason)
+      else if (d.action === 'conflict') {
+        notes.push(d.reason)
+        conflicts.push({
+          callId: call.id, entity: 'call', entityId: call.id, field, reason: d.reason, opId: op.opId, raisedBy: this.user.id,
+          baseValue: jsonb(field in base ? base[field] : null), deviceValue: jsonb(device), serverValue: jsonb(server),
+        })
+      }
+    }
+    if (rejects.length) return rejected(rejects.join('; '))
+    const problemOutcome = outcomeProblem(call, takes)
+    if (problemOutcome) return rejected(problemOutcome)
+    let after = call
+    if (Object.keys(takes).length) after = await writeCallChanges(this.tx, call, takes, this.user)
+    if (conflicts.length) await this.tx.insert(tables.conflicts).values(conflicts)
+    this.calls.set(after.id, after)
+    const reason = notes.length ? notes.join('; ') : undefined
+    return { status: conflicts.length ? 'conflict' : 'applied', version: after.version, ...(reason ? { reason } : {}) }
+  }
+
+  /** Fault codes and test runs change in place; only their call's writers reach them. */
+  private async childUpdate(op: Op, entity: 'faultCode' | 'testRun', changes: Record<string, unknown>): Promise<OpOutcome> {
+    const table = TABLE[entity]
+    const [row] = await this.tx.select({ callId: table.callId }).from(table).where(eq(table.id, op.entityId)).for('update')
+    if (!row) return rejected(`entityId: no such ${ENTITY_WORDS[entity]}`)
+    const problem = this.accessProblem(await this.lockCall(row.callId as string))
+    if (problem) return rejected(problem === FORBIDDEN ? FORBIDDEN : 'entityId: no such call')
+    const set: Record<string, unknown> = { ...changes }
+    for (const k of ['clearedAt', 'finishedAt']) if (k in set) set[k] = toDate(set[k])
+    const [out] = await this.tx.update(table).set(set as any).where(eq(table.id, op.entityId)).returning({ version: table.version })
+    return { status: 'applied', version: (out as { version: number }).version }
+  }
+
+  private async resolution(data: z.output<typeof conflictResolutionSchema>, hasValue: boolean): Promise<OpOutcome> {
+    try {
+      const { conflict, call } = await resolveConflictInTx(this.tx, this.user, data.conflictId, data.choice, data.value, { hasValue })
+      this.calls.set(call.id, call)
+      return { status: 'applied', version: conflict.version }
+    }
+    catch (err) {
+      if (err instanceof SyncRuleError) return rejected(err.message)
+      throw err
+    }
+  }
+
+  // ── Savepoints ──────────────────────────────────────────────────────────────────────────
+  private async inSavepointRaw<T>(fn: () => Promise<T>): Promise<T> {
+    const name = sql.raw(`sync_sp_${++this.sp}`)
+    await this.tx.execute(sql`SAVEPOINT ${name}`)
+    try {
+      const out = await fn()
+      await this.tx.execute(sql`RELEASE SAVEPOINT ${name}`)
+      return out
+    }
+    catch (err) {
+      // A failed statement aborts the transaction until we roll back to the savepoint.
+      if (!isRetryableTxError(err)) await this.tx.execute(sql`ROLLBACK TO SAVEPOINT ${name}`)
+      throw err
+    }
+  }
+
+  /** One op in a savepoint: a row the database refuses rejects that op and keeps the rest. */
+  private async inSavepoint(fn: () => Promise<OpOutcome>): Promise<OpOutcome> {
+    const before = new Map(this.calls)
+    try {
+      return await this.inSavepointRaw(fn)
+    }
+    catch (err) {
+      if (!isDataError(err)) throw err
+      this.calls = before
+      return rejected(dbReason(err))
+    }
+  }
+}
+
+/** A value for a jsonb column that keeps JSON null and strings as JSON. */
+function jsonb(v: unknown) {
+  return sql`${JSON.stringify(v ?? null)}::jsonb`
+}
+
+export async function applySyncOps(tx: Tx, user: User, ops: Op[], limits: { photoMaxBytes: number }) {
+  return new SyncApplier(tx, user, ops, limits).run()
+}

@@ -1,0 +1,85 @@
+// POST /api/sync/push: one transaction per push. The sync_clients row is locked first, so two
+// pushes from one device run one after the other and the second finds the first's ops already
+// stored (duplicates). Ops, their stored results and the client's last seq commit together.
+import { and, eq, inArray, sql } from 'drizzle-orm'
+import type { User } from '#auth-utils'
+import type { PushBody, PushResult } from '#shared/schemas/sync'
+import { applySyncOps, type OpOutcome } from './apply'
+import { withTxRetry } from './retry'
+import { syncTestInjectSerializationFailure, syncTestPause } from './testHooks'
+
+/** An op past the next expected seq: nothing was applied; the device resends from expectedSeq. */
+export class SyncSeqGapError extends Error {
+  constructor(readonly expectedSeq: number, readonly lastSeq: number, readonly gotSeq: number) {
+    super(`Expected seq ${expectedSeq}, got ${gotSeq}`)
+  }
+}
+
+type Result = PushResult['results'][number]
+
+export async function syncPush(user: User, body: PushBody, meta: { userAgent?: string } = {}): Promise<PushResult> {
+  const photoMaxBytes = Number(useRuntimeConfig().photoMaxBytes)
+  const userAgent = meta.userAgent?.slice(0, 300) ?? null
+  const answer = await withTxRetry(() => useDb().transaction(async (tx) => {
+    const { syncClients, syncOps, users } = tables
+    await tx.insert(syncClients).values({ id: body.clientId, userId: user.id, userAgent }).onConflictDoNothing()
+    const [client] = await tx.select().from(syncClients).where(eq(syncClients.id, body.clientId)).for('update')
+    if (!client) throw new Error('sync client row missing after insert')
+    if (client.userId !== user.id) throw createError({ status: 403, statusText: 'This device is registered to another person' })
+
+    const fresh = body.ops.filter(op => op.seq > client.lastSeq)
+    const dups = body.ops.filter(op => op.seq <= client.lastSeq)
+    fresh.forEach((op, i) => {
+      if (op.seq !== client.lastSeq + 1 + i) throw new SyncSeqGapError(client.lastSeq + 1, client.lastSeq, op.seq)
+    })
+
+    const stored = dups.length
+      ? await tx.select().from(syncOps).where(and(eq(syncOps.clientId, client.id), inArray(syncOps.seq, dups.map(o => o.seq))))
+      : []
+    const storedBySeq = new Map(stored.map(s => [s.seq, s]))
+    const results = new Map<string, Result>()
+    for (const op of dups) {
+      const s = storedBySeq.get(op.seq)
+      if (s && s.opId !== op.opId) {
+        // The seq was used by another op of this device: this one was never applied.
+        results.set(op.opId, { opId: op.opId, seq: op.seq, status: 'rejected', reason: `seq: ${op.seq} was already used by another op from this device` })
+        continue
+      }
+      const r: Result = { opId: op.opId, seq: op.seq, status: 'duplicate' }
+      if (s && s.status !== 'duplicate') r.original = s.status
+      if (s?.version != null) r.version = s.version
+      if (s?.reason) r.reason = s.reason
+      results.set(op.opId, r)
+    }
+
+    if (body.position) {
+      // Device time, but never in the future, and never older than what we already know.
+      const at = sql`LEAST(${new Date(body.position.at)}::timestamptz, now())`
+      await tx.update(users).set({ lastLat: body.position.lat, lastLon: body.position.lon, lastPositionAt: at })
+        .where(and(eq(users.id, user.id), sql`(${users.lastPositionAt} IS NULL OR ${users.lastPositionAt} < ${at})`))
+    }
+
+    let outcomes: OpOutcome[] = []
+    if (fresh.length) {
+      outcomes = await applySyncOps(tx, user, fresh, { photoMaxBytes })
+      await tx.insert(syncOps).values(fresh.map((op, i) => ({
+        opId: op.opId, clientId: client.id, seq: op.seq, entity: op.entity, entityId: op.entityId, action: op.action,
+        status: outcomes[i]!.status, version: outcomes[i]!.version ?? null, reason: outcomes[i]!.reason ?? null,
+      }))).onConflictDoNothing()
+      fresh.forEach((op, i) => {
+        const o = outcomes[i]!
+        results.set(op.opId, { opId: op.opId, seq: op.seq, status: o.status, ...(o.version !== undefined ? { version: o.version } : {}), ...(o.reason ? { reason: o.reason } : {}) })
+      })
+    }
+    const lastSeq = fresh.length ? fresh[fresh.length - 1]!.seq : client.lastSeq
+    await tx.update(syncClients).set({ lastSeq, lastSeenAt: sql`now()`, ...(userAgent ? { userAgent } : {}) }).where(eq(syncClients.id, client.id))
+
+    if (syncTestInjectSerializationFailure()) {
+      await tx.execute(sql`DO $$ BEGIN RAISE EXCEPTION 'injected by the sync fault test' USING ERRCODE = '40001'; END $$`)
+    }
+    await syncTestPause('before-commit')
+    return { lastSeq, results: body.ops.map(op => results.get(op.opId)!) }
+  }))
+  await syncTestPause('after-commit')
+  return answer
+}
