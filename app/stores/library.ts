@@ -13,7 +13,7 @@ const runKey = (callId: string, cardId: string) => `run:${callId}:${cardId}`
 const parseRun = (raw: string): CardRun => JSON.parse(raw, (k, v) => (k === 'value' && v === 'Infinity' ? Infinity : v))
 
 export const useLibraryStore = defineStore('library', () => {
-  const cards = ref<TestCardView[]>([])
+  const cards = shallowRef<TestCardView[]>([])
   const fetchedAt = ref<string | null>(null)
   const loaded = ref(false)
   const offline = ref(false)
