@@ -3,8 +3,10 @@
 // same store under their own keys, with a copy of the card version they use.
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { del, entries, get, set } from 'idb-keyval'
+import { ref, shallowRef } from 'vue'
 import type { TestCardView } from '#shared/schemas/testCards'
 import type { CardRun } from '#shared/utils/cardRun'
+import { deviceStore } from '../utils/deviceDb'
 
 const LIST_KEY = 'cards'
 const cardKey = (id: string, version: number) => `card:${id}@${version}`
