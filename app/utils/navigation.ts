@@ -10,6 +10,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/m/settings', label: 'Settings', icon: 'gear', roles: ['mechanic'] },
   { to: '/dispatch', label: 'Dispatch', icon: 'board', roles: ['dispatcher', 'admin'] },
   { to: '/billing', label: 'Billing', icon: 'receipt', roles: ['office', 'admin'] },
+  { to: '/reports', label: 'Reports', icon: 'gauge', roles: ['dispatcher', 'office', 'admin'] },
   { to: '/setup', label: 'Setup', icon: 'gear', roles: ['admin'] },
 ]
 

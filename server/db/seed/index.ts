@@ -2,6 +2,7 @@
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import * as schema from '../schema'
+import { seedBilling } from './billing'
 import { seedCore } from './core'
 import { seedCards } from './cards'
 
@@ -12,6 +13,7 @@ try {
   await db.transaction(async (tx) => {
     await seedCore(tx as unknown as typeof db)
     await seedCards(tx as unknown as typeof db)
+    await seedBilling(tx as unknown as typeof db)
   })
   console.log('[wayside] demo data in place')
 }
