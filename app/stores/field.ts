@@ -4,10 +4,12 @@
 // checks) write through addRecord / updateRecord / updateCall and read through loadCall.
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { ref } from 'vue'
+import { describeFaultCode } from '#shared/utils/dtc'
 import {
   RECORD_COLLECTION, commitChanges, readBundle, readBundles, readOutbox,
   type CallBundle, type DeviceRow, type LocalChange, type OutboxEntry, type RecordEntity,
 } from '../utils/fieldDb'
+import { readPhotoQueue } from '../utils/syncApply'
 import { useOutboxStore } from './outbox'
 
 export type AddableEntity = RecordEntity
@@ -38,6 +40,11 @@ export interface CallView {
   revoked: boolean
 }
 
+function codeLabel(r: DeviceRow) {
+  try { return describeFaultCode({ code: r.code as string | null, spn: r.spn as number | null, fmi: r.fmi as number | null }).label }
+  catch { return String(r.code ?? `SPN ${r.spn} FMI ${r.fmi}`) }
+}
+
 const timeOf = (r: DeviceRow) => String(r.deviceAt ?? r.at ?? r.createdAt ?? '')
 const byTime = (a: DeviceRow, b: DeviceRow) => timeOf(a).localeCompare(timeOf(b))
 
@@ -49,7 +56,9 @@ export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: rea
   const unitId = b.call.unitId
   const seen = new Set<string>([b.id])
   const history: DeviceRow[] = []
-  for (const h of [...others.filter(o => unitId && o.call.unitId === unitId).map(o => o.call), ...b.history]) {
+  const earlier = others.filter(o => unitId && o.call.unitId === unitId)
+    .map(o => ({ ...o.call, codes: Object.values(o.records.faultCodes ?? {}).map(codeLabel) }))
+  for (const h of [...earlier, ...b.history]) {
     if (seen.has(h.id)) continue
     seen.add(h.id)
     history.push(h)
@@ -166,10 +175,10 @@ export const useFieldStore = defineStore('field', () => {
 
   /** Calls on the phone with how many of their changes wait to sync. */
   async function listCalls() {
-    const [all, outbox] = await Promise.all([readBundles(), readOutbox()])
+    const [all, outbox, photos] = await Promise.all([readBundles(), readOutbox(), readPhotoQueue()])
     return all.map(b => ({
       call: b.call, unit: b.unit, customer: b.customer, revoked: !!b.revoked,
-      waiting: outbox.filter(e => e.callId === b.id).length,
+      waiting: outbox.filter(e => e.callId === b.id && e.state === 'pending').length + photos.filter(p => p.callId === b.id).length,
       rejected: outbox.filter(e => e.callId === b.id && e.state === 'rejected').length,
     }))
   }

@@ -4,9 +4,9 @@
 // useSync. Nothing leaves the outbox until the server answered applied, duplicate or conflict.
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import { getClientId, getMeta, readJournal, readOutbox, setMeta, type JournalEntry, type OutboxEntry } from '../utils/fieldDb'
+import { getClientId, getMeta, readBundles, readJournal, readOutbox, setLibrary, setMeta, type DeviceRow, type JournalEntry, type OutboxEntry } from '../utils/fieldDb'
 import { applyPull, applyPushResults, photoConfirmed, photoFailed, readPhotoQueue, realignSeq } from '../utils/syncApply'
-import { expectedSeqOf, parseAnswer, photoPutAnswerSchema, pullAnswerSchema, pushResultSchema, retryAfterMs } from '../utils/syncWire'
+import { expectedSeqOf, parseAnswer, photoPutAnswerSchema, pullAnswerSchema, pushResultSchema, retryAfterMs, stockAnswerSchema } from '../utils/syncWire'
 
 export const PUSH_BATCH = 500
 export type SyncFetch = (url: string, init?: RequestInit) => Promise<Response>
@@ -78,7 +78,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       const { res, text } = await request(doFetch, '/api/sync/push', { method: 'POST', headers: JSON_HEADERS, body: JSON.stringify(body) })
       if (res.status === 409) {
         // The server expects another seq: ops below it are stored there already, or the outbox has a gap.
-        const expected = expectedSeqOf(text) ?? ((await pullLastSeq(doFetch)) + 1)
+        const expected = expectedSeqOf(text) ?? ((await pullLastSeq(doFetch, clientId)) + 1)
         if (++realigned > 3) throw new SyncStop('server', `The server keeps asking for op ${expected}; try Sync now later`)
         await realignSeq(expected)
         continue
@@ -92,9 +92,16 @@ export const useOutboxStore = defineStore('outbox', () => {
     }
   }
 
-  async function pullLastSeq(doFetch: SyncFetch): Promise<number> {
+  async function pullUrl(clientId: string) {
     const cursor = await getMeta<string | number>('cursor')
-    const { res, text } = await request(doFetch, `/api/sync/pull${cursor !== undefined ? `?cursor=${encodeURIComponent(String(cursor))}` : ''}`, { headers: JSON_HEADERS })
+    const q = new URLSearchParams({ clientId })
+    if (cursor !== undefined) q.set('cursor', String(cursor))
+    return { url: `/api/sync/pull?${q}`, cursor }
+  }
+
+  async function pullLastSeq(doFetch: SyncFetch, clientId: string): Promise<number> {
+    const { url } = await pullUrl(clientId)
+    const { res, text } = await request(doFetch, url, { headers: JSON_HEADERS })
     const answer = res.ok ? parseAnswer(pullAnswerSchema, text) : undefined
     if (!answer) throw new SyncStop('invalid', 'Could not read the server\'s last op number')
     return answer.lastSeq
@@ -112,12 +119,11 @@ export const useOutboxStore = defineStore('outbox', () => {
     }
   }
 
-  async function pull(doFetch: SyncFetch): Promise<string[]> {
+  async function pull(doFetch: SyncFetch, clientId: string): Promise<string[]> {
     const changed = new Set<string>()
     for (let page = 0; page < 50; page++) {
-      const cursor = await getMeta<string | number>('cursor')
-      const q = cursor !== undefined ? `?cursor=${encodeURIComponent(String(cursor))}` : ''
-      const { res, text } = await request(doFetch, `/api/sync/pull${q}`, { headers: JSON_HEADERS })
+      const { url, cursor } = await pullUrl(clientId)
+      const { res, text } = await request(doFetch, url, { headers: JSON_HEADERS })
       if (!res.ok) throw new SyncStop('server', `Could not fetch changes (${res.status}): ${messageOf(text)}`)
       const answer = parseAnswer(pullAnswerSchema, text)
       if (!answer) throw new SyncStop('invalid', 'The answer did not come from Wayside (a Wi-Fi sign-in page?)')
@@ -125,6 +131,26 @@ export const useOutboxStore = defineStore('outbox', () => {
       if (!answer.more || String(answer.cursor) === String(cursor)) break
     }
     return [...changed]
+  }
+
+  /**
+   * The stock of the trucks on the phone's open calls, so part lines can be picked with no signal.
+   * Read at most every quarter hour; a failure here never fails the pass.
+   */
+  async function refreshStock(doFetch: SyncFetch) {
+    const last = await getMeta<number>('stockFetchedAt')
+    if (last && Date.now() - last < 15 * 60_000) return
+    const trucks = new Set((await readBundles()).filter(b => !['invoiced', 'paid', 'cancelled'].includes(String(b.call.status)))
+      .map(b => b.call.serviceTruckId).filter((t): t is string => typeof t === 'string'))
+    const found: DeviceRow[] = []
+    for (const id of trucks) {
+      const res = await doFetch(`/api/service-trucks/${id}/stock`, { headers: JSON_HEADERS, credentials: 'same-origin' }).catch(() => null)
+      const body = res?.ok ? parseAnswer(stockAnswerSchema, await res.text()) : undefined
+      if (!body) return
+      found.push(...body.items)
+    }
+    await setLibrary('truckStock', Object.fromEntries(found.map(r => [r.id, r])))
+    await setMeta('stockFetchedAt', Date.now())
   }
 
   /** One whole pass: push, photos, pull. Never throws; says what happened. */
@@ -136,7 +162,8 @@ export const useOutboxStore = defineStore('outbox', () => {
       const clientId = await getClientId()
       await push(doFetch, clientId, opts.position)
       await uploadPhotos(doFetch)
-      const changedCalls = await pull(doFetch)
+      const changedCalls = await pull(doFetch, clientId)
+      await refreshStock(doFetch).catch(() => {})
       const now = new Date().toISOString()
       await setMeta('lastSyncAt', now)
       if (opts.position) await setMeta('positionSentAt', opts.position.at)

@@ -103,6 +103,10 @@ export async function setMeta(key: string, value: unknown): Promise<void> {
   await deviceTx(['meta'], 'readwrite', (tx) => { tx.objectStore('meta').put(value, key) })
 }
 
+export async function setLibrary(key: string, value: unknown): Promise<void> {
+  await deviceTx(['library'], 'readwrite', (tx) => { tx.objectStore('library').put(value, key) })
+}
+
 /** What one local change does: the op to queue and how the call's bundle changes with it. */
 export interface LocalChange {
   entity: OpEntity

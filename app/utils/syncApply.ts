@@ -190,11 +190,11 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
     for (const id of changed) { const b = bundles.get(id); if (b) callsStore.put(b, id) }
 
-    if (ch.rates) lib.put(ch.rates, 'rates')
-    if (ch.testCards?.length) {
-      const cards = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('testCards'))) ?? {}
-      for (const c of ch.testCards) cards[c.id] = c
-      lib.put(cards, 'testCards')
+    const rateRows = Array.isArray(ch.rates) ? ch.rates : ch.rates ? [ch.rates] : []
+    if (rateRows.length) {
+      const rates = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('rates'))) ?? {}
+      for (const r of rateRows) rates[r.id] = r
+      lib.put(rates, 'rates')
     }
     const meta = tx.objectStore('meta')
     meta.put(answer.cursor, 'cursor')

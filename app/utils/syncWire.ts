@@ -3,19 +3,8 @@
 // protocol's answer counts as success (DESIGN.md, "Sync protocol").
 import { z } from 'zod'
 
-export const opStatusSchema = z.enum(['applied', 'duplicate', 'conflict', 'rejected'])
-
-export const pushResultSchema = z.object({
-  lastSeq: z.number().int().nonnegative(),
-  results: z.array(z.object({
-    opId: z.string().min(1),
-    seq: z.number().int().positive(),
-    status: opStatusSchema,
-    version: z.number().int().optional().nullable(),
-    reason: z.string().optional().nullable(),
-  })),
-})
-export type PushResult = z.infer<typeof pushResultSchema>
+// The push answer's schema is the protocol's own (shared with the server).
+export { pushResultSchema, type PushResult } from '#shared/schemas/sync'
 
 const rowSchema = z.object({ id: z.string().min(1) }).passthrough()
 const rows = z.array(rowSchema).default([])
@@ -35,6 +24,9 @@ export const pullAnswerSchema = z.object({
   more: z.boolean().optional(),
 })
 export type PullAnswer = z.infer<typeof pullAnswerSchema>
+
+/** GET /api/service-trucks/[id]/stock */
+export const stockAnswerSchema = z.object({ items: z.array(rowSchema) })
 
 /** The photo upload answer: the server names the hash it stored, which must be ours. */
 export const photoPutAnswerSchema = z.object({ sha256: z.string().regex(/^[0-9a-f]{64}$/i) }).passthrough()

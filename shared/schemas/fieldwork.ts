@@ -3,8 +3,9 @@
 import { z } from 'zod'
 import { parseDtc } from '../utils/dtc'
 import { specBounds } from '../utils/spec'
+import { READING_QUANTITIES } from './sync'
 
-export const READING_QUANTITIES = ['resistance', 'voltage', 'temperature', 'pressure', 'concentration', 'other'] as const
+export { READING_QUANTITIES }
 export type ReadingQuantity = (typeof READING_QUANTITIES)[number]
 
 /** Units offered per quantity, printed as the trade writes them. */
@@ -18,11 +19,10 @@ export const UNITS_FOR: Record<ReadingQuantity, string[]> = {
 }
 
 /** A number typed on a phone keypad: '' means none, a comma counts as a decimal point. */
-export const typedNumber = (label: string) => z.preprocess(
-  v => (typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.trim().replace(',', '.'))) : v),
-  z.number({ message: `${label} must be a number` }),
-)
-const optTypedNumber = (label: string) => typedNumber(label).optional()
+const keypadNumber = (v: unknown) => (typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.trim().replace(',', '.'))) : v)
+const num = (label: string) => z.number({ message: `${label} must be a number` })
+export const typedNumber = (label: string, check: (n: z.ZodNumber) => z.ZodNumber = n => n) => z.preprocess(keypadNumber, check(num(label)))
+const optTypedNumber = (label: string, check: (n: z.ZodNumber) => z.ZodNumber = n => n) => z.preprocess(keypadNumber, check(num(label)).optional())
 const optText = (max: number, label: string) => z.string().trim().max(max, `${label} is too long (at most ${max} characters)`)
   .optional().transform(v => (v ? v : undefined))
 
@@ -57,7 +57,7 @@ export const faultCodeInputSchema = z.object({
   spn: optTypedNumber('SPN'),
   fmi: optTypedNumber('FMI'),
   state: z.enum(['active', 'stored'], { message: 'Pick active or stored' }),
-  count: typedNumber('Count').pipe(z.number().int('Count must be a whole number').min(0, 'Count cannot be below 0').max(127, 'Count cannot be above 127')),
+  count: typedNumber('Count', n => n.int('Count must be a whole number').min(0, 'Count cannot be below 0').max(127, 'Count cannot be above 127')),
 }).superRefine((v, ctx) => {
   if (v.form === 'j2012') {
     try { parseDtc(v.code ?? '') }
@@ -74,15 +74,15 @@ export const noteInputSchema = z.object({
   text: z.string().trim().min(1, 'Write the note first').max(4000, 'Note is too long (at most 4000 characters)'),
 })
 
-const cents = (label: string) => typedNumber(label).pipe(z.number().min(0, `${label} cannot be negative`).max(10_000_000, `${label} is too large`))
-  .transform(v => Math.round(v * 100))
+const cents = (label: string) => optTypedNumber(label, n => n.min(0, `${label} cannot be negative`).max(10_000_000, `${label} is too large`))
+  .transform(v => (v === undefined ? undefined : Math.round(v * 100)))
 
 export const partLineInputSchema = z.object({
   partNumber: z.string().trim().min(1, 'Part number is required').max(40, 'Part number is too long'),
   description: z.string().trim().min(1, 'Description is required').max(200, 'Description is too long'),
-  quantity: typedNumber('Quantity').pipe(z.number().gt(0, 'Quantity must be above 0').max(1000, 'Quantity is too large')),
-  unitPrice: cents('Unit price').optional(),
-  corePrice: cents('Core charge').optional(),
+  quantity: typedNumber('Quantity', n => n.gt(0, 'Quantity must be above 0').max(1000, 'Quantity is too large')),
+  unitPrice: cents('Unit price'),
+  corePrice: cents('Core charge'),
   serviceTruckId: z.string().uuid().optional(),
 }).transform(({ unitPrice, corePrice, ...p }) => ({ ...p, unitPriceCents: unitPrice ?? 0, coreChargeCents: corePrice ?? 0 }))
 
@@ -103,8 +103,8 @@ export const verificationInputSchema = z.object({
   codesCleared: z.boolean(),
   liveValuesChecked: z.boolean(),
   liveValuesNote: optText(500, 'Live values note'),
-  testDriveKm: optTypedNumber('Test drive distance').pipe(z.number().min(0, 'Distance cannot be negative').max(2000).optional()),
-  testDriveMinutes: optTypedNumber('Test drive time').pipe(z.number().min(0, 'Time cannot be negative').max(1440).optional()),
+  testDriveKm: optTypedNumber('Test drive distance', n => n.min(0, 'Distance cannot be negative').max(2000, 'Distance is too large')),
+  testDriveMinutes: optTypedNumber('Test drive time', n => n.min(0, 'Time cannot be negative').max(1440, 'Time is too long')),
   lampsOff: z.boolean(),
   derateGone: z.boolean(),
 })
