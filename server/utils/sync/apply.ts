@@ -197,11 +197,11 @@ export class SyncApplier {
     await Promise.all(jobs)
   }
 
-  private async lockCall(id: string): Promise<CallRow | undefined> {
+  /** The call of a record an op changes in place; read, not locked (the record's row is). */
+  private async callOf(id: string): Promise<CallRow | undefined> {
     const known = this.calls.get(id)
     if (known) return known
-    const [row] = await this.tx.select().from(tables.calls).where(eq(tables.calls.id, id)).for('no key update')
-    if (row) this.calls.set(row.id, row)
+    const [row] = await this.tx.select().from(tables.calls).where(eq(tables.calls.id, id))
     return row
   }
 
@@ -399,7 +399,7 @@ export class SyncApplier {
     const table = TABLE[entity]
     const [row] = await this.tx.select({ callId: table.callId }).from(table).where(eq(table.id, op.entityId)).for('update')
     if (!row) return rejected(`entityId: no such ${ENTITY_WORDS[entity]}`)
-    const problem = this.accessProblem(await this.lockCall(row.callId as string))
+    const problem = this.accessProblem(await this.callOf(row.callId as string))
     if (problem) return rejected(problem === FORBIDDEN ? FORBIDDEN : 'entityId: no such call')
     const set: Record<string, unknown> = { ...changes }
     for (const k of ['clearedAt', 'finishedAt']) if (k in set) set[k] = toDate(set[k])
