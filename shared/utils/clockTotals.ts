@@ -2,8 +2,8 @@
 // travel_start to arrive, labor from work_start to work_stop. The device's clock times the events
 // (the server only learns of them at sync, perhaps hours later).
 
-export type ClockKind = 'travel_start' | 'arrive' | 'work_start' | 'work_stop' | 'depart'
-export interface ClockTotalsEvent { kind: ClockKind; at: Date | string | number }
+export type ClockTotalsKind = 'travel_start' | 'arrive' | 'work_start' | 'work_stop' | 'depart'
+export interface ClockTotalsEvent { kind: ClockTotalsKind; at: Date | string | number }
 export interface ClockTotals {
   travelMinutes: number
   laborMinutes: number
