@@ -9,6 +9,10 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/m/sync', label: 'Sync', icon: 'sync', roles: ['mechanic'] },
   { to: '/m/settings', label: 'Settings', icon: 'gear', roles: ['mechanic'] },
   { to: '/dispatch', label: 'Dispatch', icon: 'board', roles: ['dispatcher', 'admin'] },
+  { to: '/dispatch/new', label: 'New call', icon: 'plus', roles: ['dispatcher', 'admin'] },
+  { to: '/customers', label: 'Customers', icon: 'people', roles: ['dispatcher', 'admin'] },
+  { to: '/units', label: 'Units', icon: 'truck', roles: ['dispatcher', 'admin'] },
+  { to: '/calls', label: 'Calls', icon: 'list', roles: ['office', 'admin'] },
   { to: '/billing', label: 'Billing', icon: 'receipt', roles: ['office', 'admin'] },
   { to: '/setup', label: 'Setup', icon: 'gear', roles: ['admin'] },
 ]

@@ -8,6 +8,8 @@ function specText(spec: Record<string, unknown> | null, unit: string) {
   catch { return null }
 }
 
+type ConflictValue = string | number | boolean | null | unknown[] | Record<string, unknown>
+
 export async function getCallRecord(id: string) {
   const db = useDb()
   const { calls, users, testCards } = tables
@@ -61,7 +63,11 @@ export async function getCallRecord(id: string) {
     partLines: partLines.map(withoutXid),
     story: { complaint: call.storyComplaint, cause: call.storyCause, correction: call.storyCorrection },
     signOff: signOffs[0] ? withoutXid(signOffs[0]) : null,
-    conflicts: conflicts.map(c => ({ ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy) })),
+    conflicts: conflicts.map(c => ({
+      ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy),
+      // jsonb values, typed as JSON so the answer type keeps them.
+      baseValue: c.baseValue as ConflictValue, deviceValue: c.deviceValue as ConflictValue, serverValue: c.serverValue as ConflictValue, resolvedValue: c.resolvedValue as ConflictValue,
+    })),
     events: events.map(e => ({ ...withoutXid(e), by: person(e.byUserId), mechanic: person(e.mechanicId) })),
   }
 }
