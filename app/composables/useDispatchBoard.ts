@@ -11,21 +11,25 @@ export type BoardCall = {
   mechanic: { id: string; name: string } | null
 }
 
-/** The open calls, asked again every few seconds while the page is visible and at once when it comes back. */
-export async function useDispatchBoard() {
-  const fetched = await useFetch<{ items: BoardCall[]; total: number }>('/api/calls', {
+/**
+ * The open calls, asked again every few seconds while the page is visible and at once when it
+ * comes back. Hooks are set before anything is awaited; the page awaits `ready`.
+ */
+export function useDispatchBoard() {
+  const fetched = useFetch<{ items: BoardCall[]; total: number }>('/api/calls', {
     key: DISPATCH_KEY, query: { open: 'true', pageSize: 200, sort: 'receivedAt', dir: 'asc' },
   })
   const lastLoaded = ref(Date.now())
   watch(fetched.data, () => { lastLoaded.value = Date.now() })
   const visible = useDocumentVisibility()
   const { pause, resume } = useIntervalFn(() => fetched.refresh(), DISPATCH_POLL_MS, { immediate: false })
-  onMounted(() => resume())
+  onMounted(resume)
+  onBeforeUnmount(pause)
   watch(visible, (v) => {
     if (v === 'visible') { fetched.refresh(); resume() }
     else pause()
   })
-  return { ...fetched, lastLoaded }
+  return { data: fetched.data, error: fetched.error, refresh: fetched.refresh, status: fetched.status, lastLoaded, ready: fetched }
 }
 
 export type BoardFilter = { status: CallStatus | ''; mechanicId: string; customerId: string }
