@@ -20,12 +20,6 @@ export function formatDateTime(at: string | Date | null | undefined): string {
   return new Date(at).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })
 }
 
-/** Integer cents as money, e.g. 150000 -> "1,500.00". */
-export function formatCents(cents: number | null | undefined): string {
-  if (cents === null || cents === undefined) return '—'
-  return (cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })
-}
-
 /** Text typed as money ("1,500.50", "$200") -> cents; '' -> null; NaN when unreadable. */
 export function centsFromText(text: string): number | null {
   const t = text.replace(/[$,\s]/g, '')

@@ -14,6 +14,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/units', label: 'Units', icon: 'truck', roles: ['dispatcher', 'admin'] },
   { to: '/calls', label: 'Calls', icon: 'list', roles: ['office', 'admin'] },
   { to: '/billing', label: 'Billing', icon: 'receipt', roles: ['office', 'admin'] },
+  { to: '/reports', label: 'Reports', icon: 'gauge', roles: ['dispatcher', 'office', 'admin'] },
   { to: '/setup', label: 'Setup', icon: 'gear', roles: ['admin'] },
 ]
 

@@ -1,11 +1,23 @@
 // The whole record of one call, as the office reads it (GET /api/calls/[id]).
 import { asc, eq, inArray } from 'drizzle-orm'
 import type { JudgeSpec } from '#shared/utils/spec'
+import type { BillingClockEvent } from '#shared/utils/billing'
 
 function specText(spec: Record<string, unknown> | null, unit: string) {
   if (!spec) return null
   try { return describeSpec(spec as JudgeSpec, unit) }
   catch { return null }
+}
+
+/** Travel and labor from the clock (shared/utils/billing.ts), and whether a span is still open. */
+function clockTime(events: { kind: BillingClockEvent['kind']; at: Date }[]) {
+  const upToNow = clockTotals(events, new Date())
+  const latest = new Date(Math.max(0, ...events.map(e => e.at.getTime())))
+  const closed = clockTotals(events, latest)
+  return {
+    travelMinutes: upToNow.travelMs / 60_000, laborMinutes: upToNow.laborMs / 60_000,
+    travelRunning: upToNow.travelMs > closed.travelMs, workRunning: upToNow.laborMs > closed.laborMs,
+  }
 }
 
 type ConflictValue = string | number | boolean | null | unknown[] | Record<string, unknown>
@@ -59,7 +71,7 @@ export async function getCallRecord(id: string) {
     notes: notes.map(withoutXid),
     photos: photos.map(p => ({ ...withoutXid(p), url: `/api/photos/${p.id}`, pending: !p.uploadedAt })),
     clockEvents: clockEvents.map(e => ({ ...withoutXid(e), at: clockAt(e) })).sort((a, b) => a.at.getTime() - b.at.getTime()),
-    time: clockTotals(clockEvents.map(e => ({ kind: e.kind, at: clockAt(e) })), new Date()),
+    time: clockTime(clockEvents.map(e => ({ kind: e.kind, at: clockAt(e) }))),
     partLines: partLines.map(withoutXid),
     story: { complaint: call.storyComplaint, cause: call.storyCause, correction: call.storyCorrection },
     signOff: signOffs[0] ? withoutXid(signOffs[0]) : null,

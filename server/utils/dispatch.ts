@@ -145,7 +145,7 @@ export async function suggestionsFor(call: CallRow) {
     lastPositionAt: users.lastPositionAt, openCalls: load, homeTruck: { id: serviceTrucks.id, name: serviceTrucks.name },
   }).from(users).leftJoin(serviceTrucks, eq(serviceTrucks.id, users.homeTruckId))
     .where(and(eq(users.role, 'mechanic'), eq(users.active, true))).orderBy(asc(users.name))
-  const rates = await currentRates()
+  const rates = await ratesInForce()
   const averageRoadKph = rates?.averageRoadKph ?? FALLBACK_ROAD_KPH
   const at = call.lat !== null && call.lon !== null ? { lat: call.lat, lon: call.lon } : null
   const ranked = rankMechanics(rows.map(r => ({ ...r, homeTruck: r.homeTruck?.id ? r.homeTruck : null })), at, averageRoadKph)

@@ -6,7 +6,7 @@ import type { ratesSchema } from '#shared/schemas/rates'
 export const FALLBACK_ROAD_KPH = 60
 
 /** The rates in force: the newest row that has taken effect, or null when the admin set none. */
-export async function currentRates() {
+export async function ratesInForce() {
   const [row] = await useDb().select().from(tables.rates).where(lte(tables.rates.effectiveFrom, new Date()))
     .orderBy(desc(tables.rates.effectiveFrom), desc(tables.rates.createdAt)).limit(1)
   return row ? withoutXid(row) : null

@@ -2,6 +2,7 @@
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
 import * as schema from '../schema'
+import { seedBilling } from './billing'
 import { seedCore } from './core'
 
 const url = process.env.NUXT_DATABASE_URL ?? 'postgres://wayside@127.0.0.1:54329/wayside'
@@ -10,6 +11,7 @@ const db = drizzle(pool, { schema })
 try {
   await db.transaction(async (tx) => {
     await seedCore(tx as unknown as typeof db)
+    await seedBilling(tx as unknown as typeof db)
   })
   console.log('[wayside] demo data in place')
 }

@@ -1,0 +1,110 @@
+import { and, desc, eq, ne, sql, type SQL } from 'drizzle-orm'
+import type { User } from '#auth-utils'
+import type { z } from 'zod'
+import type { invoiceListQuerySchema } from '#shared/schemas/invoices'
+
+/** The rates in force: the newest row by effective date. */
+export async function currentRates(db: Db | Tx = useDb()) {
+  const [r] = await db.select().from(tables.rates).orderBy(desc(tables.rates.effectiveFrom)).limit(1)
+  if (!r) throw createError({ status: 409, statusText: 'No rates are set; an admin sets them under Setup' })
+  return r
+}
+
+/** Round trip from the service truck's yard to the call, in the rates' unit. */
+async function travelDistance(tx: Tx, call: typeof tables.calls.$inferSelect, unit: 'km' | 'mi') {
+  if (call.lat == null || call.lon == null || !call.serviceTruckId) return 0
+  const [yard] = await tx.select({ lat: tables.yards.lat, lon: tables.yards.lon }).from(tables.serviceTrucks)
+    .innerJoin(tables.yards, eq(tables.yards.id, tables.serviceTrucks.yardId)).where(eq(tables.serviceTrucks.id, call.serviceTruckId))
+  if (!yard) return 0
+  const km = 2 * haversineKm(yard, { lat: call.lat, lon: call.lon })
+  return unit === 'mi' ? km / 1.609344 : km
+}
+
+/** Drafts the invoice from the synced record and closes the call to further field changes. */
+export async function draftInvoice(callId: string, user: User) {
+  return useDb().transaction(async (tx) => {
+    const [call] = await tx.select().from(tables.calls).where(eq(tables.calls.id, callId)).for('update')
+    if (!call) throw createError({ status: 404, statusText: 'No such call' })
+    const [open] = await tx.select({ id: tables.invoices.id }).from(tables.invoices).where(and(eq(tables.invoices.callId, callId), ne(tables.invoices.status, 'void')))
+    if (open) ruleError('callId', 'This call already has an invoice')
+    if (call.status !== 'completed') ruleError('callId', `Only a call whose work is done can be billed (this one is ${STATUS_LABELS[call.status].toLowerCase()})`)
+    const [customer] = await tx.select().from(tables.customers).where(eq(tables.customers.id, call.customerId))
+    const rates = await currentRates(tx)
+    const clock = await tx.select().from(tables.clockEvents).where(eq(tables.clockEvents.callId, callId))
+    const parts = await tx.select().from(tables.partLines).where(eq(tables.partLines.callId, callId))
+    const { laborMs } = clockTotals(clock.map(c => ({ kind: c.kind, at: c.deviceAt ?? c.createdAt })), call.completedAt ?? new Date())
+    const priced = priceCall({
+      rates: { ...rates, travelUnit: rates.travelUnit as 'km' | 'mi' },
+      laborMs, travelDistance: await travelDistance(tx, call, rates.travelUnit as 'km' | 'mi'),
+      parts, taxExempt: customer?.taxExempt ?? false,
+    })
+    const netDays = customer?.billingTerms === 'account' ? (customer.netDays ?? 30) : 0
+    const [invoice] = await tx.insert(tables.invoices).values({
+      callId, customerId: call.customerId, status: 'draft', ratesId: rates.id,
+      subtotalCents: priced.subtotalCents, taxCents: priced.taxCents, totalCents: priced.totalCents,
+      dueAt: new Date(Date.now() + netDays * 86_400_000),
+    }).returning()
+    await tx.insert(tables.invoiceLines).values(priced.lines.map((l, i) => ({ ...l, invoiceId: invoice!.id, sort: i })))
+    await tx.update(tables.calls).set({ status: 'invoiced', invoicedAt: new Date(), statusChangedAt: new Date() }).where(eq(tables.calls.id, callId))
+    await tx.insert(tables.callEvents).values({ callId, kind: 'status', fromStatus: 'completed', toStatus: 'invoiced', byUserId: user.id, note: `Invoice W-${invoice!.number} drafted` })
+    return invoice!.id
+  })
+}
+
+export async function getInvoice(id: string) {
+  const inv = await useDb().query.invoices.findFirst({
+    where: eq(tables.invoices.id, id),
+    with: {
+      lines: { orderBy: (l, { asc }) => [asc(l.sort)] },
+      payments: true,
+      customer: true,
+      call: { with: { unit: true } },
+    },
+  })
+  if (!inv) return null
+  const { changeXid: _x, call, customer, ...rest } = inv
+  return {
+    ...rest,
+    customer: { id: customer.id, name: customer.name, billingEmail: customer.billingEmail, billingTerms: customer.billingTerms, netDays: customer.netDays, taxExempt: customer.taxExempt },
+    call: { id: call.id, number: call.number, status: call.status, outcome: call.outcome, locationText: call.locationText, complaint: call.complaint, poNumber: call.poNumber, authLimitCents: call.authLimitCents, storyComplaint: call.storyComplaint, storyCause: call.storyCause, storyCorrection: call.storyCorrection, completedAt: call.completedAt, unit: call.unit ? { unitNumber: call.unit.unitNumber, vin: call.unit.vin, yearMakeModel: call.unit.yearMakeModel } : null },
+  }
+}
+export type InvoiceDetail = NonNullable<Awaited<ReturnType<typeof getInvoice>>>
+
+export async function listInvoices(q: z.output<typeof invoiceListQuerySchema>) {
+  const where: SQL[] = []
+  if (q.status) where.push(eq(tables.invoices.status, q.status))
+  if (q.customerId) where.push(eq(tables.invoices.customerId, q.customerId))
+  const cond = where.length ? and(...where) : undefined
+  const db = useDb()
+  const [items, [n]] = await Promise.all([
+    db.select({
+      id: tables.invoices.id, number: tables.invoices.number, status: tables.invoices.status, callId: tables.invoices.callId,
+      callNumber: tables.calls.number, customerName: tables.customers.name, billingTerms: tables.customers.billingTerms,
+      totalCents: tables.invoices.totalCents, createdAt: tables.invoices.createdAt, sentAt: tables.invoices.sentAt, paidAt: tables.invoices.paidAt, dueAt: tables.invoices.dueAt,
+    }).from(tables.invoices)
+      .innerJoin(tables.calls, eq(tables.calls.id, tables.invoices.callId))
+      .innerJoin(tables.customers, eq(tables.customers.id, tables.invoices.customerId))
+      .where(cond).orderBy(desc(tables.invoices.number)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
+    db.select({ n: sql<number>`count(*)::int` }).from(tables.invoices).where(cond),
+  ])
+  return { items, total: n?.n ?? 0 }
+}
+
+/** Marks an invoice paid once, with its call; repeated deliveries change nothing. */
+export async function settleInvoice(tx: Tx, invoiceId: string, payment: { method: 'card' | 'account'; amountCents: number; providerRef: string | null; byUserId?: string }) {
+  if (payment.providerRef) {
+    const inserted = await tx.insert(tables.payments).values({ invoiceId, method: payment.method, amountCents: payment.amountCents, providerRef: payment.providerRef, status: 'succeeded' })
+      .onConflictDoNothing({ target: tables.payments.providerRef }).returning({ id: tables.payments.id })
+    if (!inserted.length) return false
+  }
+  else {
+    await tx.insert(tables.payments).values({ invoiceId, method: payment.method, amountCents: payment.amountCents, status: 'posted' })
+  }
+  const [inv] = await tx.update(tables.invoices).set({ status: 'paid', paidAt: new Date() })
+    .where(and(eq(tables.invoices.id, invoiceId), ne(tables.invoices.status, 'paid'))).returning()
+  if (!inv) return false
+  await tx.update(tables.calls).set({ status: 'paid', paidAt: new Date(), statusChangedAt: new Date() }).where(eq(tables.calls.id, inv.callId))
+  await tx.insert(tables.callEvents).values({ callId: inv.callId, kind: 'status', fromStatus: 'invoiced', toStatus: 'paid', byUserId: payment.byUserId, note: `Paid by ${payment.method === 'card' ? 'card' : 'charge to account'}` })
+  return true
+}

@@ -1,0 +1,142 @@
+import { randomUUID } from 'node:crypto'
+import Stripe from 'stripe'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ApiClient, signedIn } from '../support/api'
+import { count, closeTestPool, testPool } from '../support/db'
+import { BASE_URL, DEMO } from '../support/env'
+import { caughtMail, clearMail, waitForMail } from '../support/mail'
+
+// Each test bills a call of its own making, so no other test's seeded calls are touched.
+async function finishedCall(customerName: string, opts: { laborMin: number; parts?: { pn: string; qty: number; price: number; core: number }[] }) {
+  const db = testPool()
+  const { rows: [c] } = await db.query('SELECT id FROM customers WHERE name = $1', [customerName])
+  const { rows: [truck] } = await db.query(`SELECT id FROM service_trucks WHERE name = 'Truck 11'`)
+  const { rows: [mech] } = await db.query(`SELECT id FROM users WHERE email = $1`, [DEMO.mech1])
+  const id = randomUUID()
+  // 45.498, -93.012 is the north yard; this point is about 10 km due south of it.
+  await db.query(`INSERT INTO calls (id, status, outcome, customer_id, location_text, lat, lon, complaint, mechanic_id, service_truck_id, completed_at)
+    VALUES ($1, 'completed', 'repaired', $2, 'Test location', 45.408, -93.012, 'Test complaint', $3, $4, now())`, [id, c.id, mech.id, truck.id])
+  const t0 = Date.now() - 3 * 3600_000
+  await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', $2), ($1, 'work_stop', $3)`, [id, new Date(t0), new Date(t0 + opts.laborMin * 60_000)])
+  for (const p of opts.parts ?? []) {
+    await db.query(`INSERT INTO part_lines (call_id, part_number, description, quantity, unit_price_cents, core_charge_cents) VALUES ($1, $2, 'Test part', $3, $4, $5)`, [id, p.pn, p.qty, p.price, p.core])
+  }
+  return id
+}
+
+let office: Awaited<ReturnType<typeof signedIn>>
+beforeAll(async () => { office = await signedIn(DEMO.office) })
+afterAll(closeTestPool)
+
+describe('invoices', () => {
+  it('drafts an invoice priced from the synced record and closes the call', async () => {
+    const callId = await finishedCall('Prairie Cold Haul', { laborMin: 83, parts: [{ pn: 'TR-ALT-24', qty: 1, price: 38900, core: 7500 }] })
+    const r = await office.post('/api/invoices', { callId })
+    expect(r.status).toBe(201)
+    const inv = r.body
+    // Seeded rates: $145/h, tenths rounded up; 83 min → 1.4 h = $203.00 (common practice: 0.1 h = 6 min)
+    expect(inv.lines.find((l: any) => l.kind === 'labor').amountCents).toBe(20300)
+    // Travel: 0.09° of latitude out and back = 2 × 10.0 km (haversine, R = 6371 km) at $2.25/km
+    const travel = inv.lines.find((l: any) => l.kind === 'travel')
+    expect(travel.quantity).toBeCloseTo(20.0, 1)
+    // Part $389.00 + 25 % markup; core untaxed; tax 7.25 % on the part only
+    expect(inv.lines.find((l: any) => l.kind === 'part').amountCents).toBe(48625)
+    expect(inv.taxCents).toBe(Math.round(48625 * 0.0725))
+    expect(inv.totalCents).toBe(inv.subtotalCents + inv.taxCents)
+    expect(inv.subtotalCents).toBe(inv.lines.reduce((s: number, l: any) => s + l.amountCents, 0))
+    const call = (await testPool().query('SELECT status FROM calls WHERE id = $1', [callId])).rows[0]
+    expect(call.status).toBe('invoiced')
+
+    const again = await office.post('/api/invoices', { callId })
+    expect(again.status).toBe(422)
+    expect(again.body.data.fields.callId).toMatch(/already/)
+  })
+
+  it('refuses a call that is not finished, and bad ids, naming the field', async () => {
+    const { rows: [open] } = await testPool().query(`SELECT id FROM calls WHERE status = 'received' LIMIT 1`)
+    const before = await count('invoices')
+    const r = await office.post('/api/invoices', { callId: open.id })
+    expect(r.status).toBe(422)
+    expect(r.body.data.fields.callId).toBeTruthy()
+    const bad = await office.post('/api/invoices', { callId: 'nope' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields.callId).toBeTruthy()
+    expect(await count('invoices')).toBe(before)
+  })
+
+  it('is the office\'s and the admin\'s alone', async () => {
+    for (const email of [DEMO.mech1, DEMO.dispatcher]) {
+      const c = await signedIn(email)
+      expect((await c.get('/api/invoices')).status, email).toBe(403)
+      expect((await c.post('/api/invoices', { callId: randomUUID() })).status, email).toBe(403)
+    }
+    expect((await new ApiClient().get('/api/invoices')).status).toBe(401)
+  })
+
+  it('renders a PDF and e-mails it to the customer\'s billing address', async () => {
+    const callId = await finishedCall('Ironwood Freight Lines', { laborMin: 30 })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    const pdf = await fetch(`${BASE_URL}/api/invoices/${inv.id}/pdf`, { headers: { cookie: office.cookie } })
+    expect(pdf.headers.get('content-type')).toBe('application/pdf')
+    const bytes = Buffer.from(await pdf.arrayBuffer())
+    expect(bytes.subarray(0, 5).toString()).toBe('%PDF-')
+
+    await clearMail()
+    const sent = await office.post(`/api/invoices/${inv.id}/send`)
+    expect(sent.status).toBe(200)
+    expect(sent.body.status).toBe('sent')
+    const mail = await waitForMail(m => m.subject.includes(`W-${inv.number}`))
+    expect(mail).toHaveLength(1)
+    expect(mail[0]!.to).toEqual(['payables@ironwood-freight.test'])
+    expect(mail[0]!.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf', filename: `invoice-W-${inv.number}.pdf` })])
+    expect((await caughtMail()).length).toBe(1)
+  })
+})
+
+describe('payments', () => {
+  it('posts an account customer\'s invoice to their account and marks it paid', async () => {
+    const callId = await finishedCall('Lakeline Municipal Fleet', { laborMin: 60 })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    expect(inv.taxCents).toBe(0) // Lakeline is tax-exempt in the seed
+    const r = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'account' })
+    expect(r.status).toBe(200)
+    expect(r.body.status).toBe('paid')
+    expect(await count('account_entries', 'invoice_id = $1', [inv.id])).toBe(1)
+    expect((await testPool().query('SELECT status FROM calls WHERE id = $1', [callId])).rows[0].status).toBe('paid')
+    expect((await office.post(`/api/invoices/${inv.id}/pay`, { method: 'account' })).status).toBe(422)
+  })
+
+  it('charges a card through the payment SDK; a declined card says so; the webhook marks paid only once', async () => {
+    const callId = await finishedCall('Bluestem Aggregate Co.', { laborMin: 45 })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    expect((await office.post(`/api/invoices/${inv.id}/pay`, { method: 'account' })).status).toBe(422)
+    const missing = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'card' })
+    expect(missing.status).toBe(400)
+    expect(missing.body.data.fields.paymentMethod).toBeTruthy()
+    const declined = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'card', paymentMethod: 'pm_card_chargeDeclined' })
+    expect(declined.status).toBe(422)
+    expect(declined.body.data.fields.paymentMethod).toMatch(/declined/i)
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(0)
+
+    const ok = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'card', paymentMethod: 'pm_card_visa' })
+    expect(ok.status).toBe(200)
+    expect(ok.body.status).toBe('paid')
+    const ref = ok.body.payments[0].providerRef as string
+    // The fake also delivers payment_intent.succeeded to the webhook; replay it twice more, signed.
+    const payload = JSON.stringify({ id: 'evt_test', object: 'event', type: 'payment_intent.succeeded', data: { object: { id: ref, object: 'payment_intent', amount: inv.totalCents, metadata: { invoiceId: inv.id } } } })
+    const stripe = new Stripe('sk_test_x')
+    const secret = process.env.NUXT_STRIPE_WEBHOOK_SECRET ?? 'whsec_wayside_local'
+    for (let i = 0; i < 2; i++) {
+      const header = stripe.webhooks.generateTestHeaderString({ payload, secret })
+      const res = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': header }, body: payload })
+      expect(res.status).toBe(200)
+    }
+    await new Promise(r => setTimeout(r, 300))
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(1)
+  })
+
+  it('refuses a webhook whose signature does not match', async () => {
+    const res = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': 't=1,v1=bad' }, body: '{"type":"payment_intent.succeeded"}' })
+    expect(res.status).toBe(400)
+  })
+})
