@@ -49,6 +49,8 @@ export const useOutboxStore = defineStore('outbox', () => {
   const writes = ref(0)
   /** Bumped after a pull changed calls, so open screens re-read them. */
   const pulls = ref(0)
+  /** Open conflicts on the phone's calls that no choice has been made for yet. */
+  const toSettle = ref(0)
 
   const pending = computed(() => entries.value.filter(e => e.state === 'pending'))
   const rejected = computed(() => entries.value.filter(e => e.state === 'rejected'))
@@ -56,7 +58,8 @@ export const useOutboxStore = defineStore('outbox', () => {
   const isEmpty = computed(() => entries.value.length === 0 && photos.value.length === 0)
 
   async function refresh() {
-    const [o, j, p, last] = await Promise.all([readOutbox(), readJournal(50), readPhotoQueue(), getMeta<string>('lastSyncAt')])
+    const [o, j, p, last, bundles] = await Promise.all([readOutbox(), readJournal(50), readPhotoQueue(), getMeta<string>('lastSyncAt'), readBundles()])
+    toSettle.value = bundles.reduce((n, b) => n + Object.values(b.records.conflicts ?? {}).filter(c => (c.status ?? 'open') === 'open' && !c.pendingChoice).length, 0)
     entries.value = o
     journal.value = j
     photos.value = p.map(x => ({ id: x.id, callId: x.callId, size: x.size, opApplied: x.opApplied, tries: x.tries, lastError: x.lastError }))
@@ -185,7 +188,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   return {
-    entries, journal, photos, lastSyncAt, lastAttemptAt, lastError, paused, syncing, nextAttemptAt, writes, pulls,
+    entries, journal, photos, lastSyncAt, lastAttemptAt, lastError, paused, syncing, nextAttemptAt, writes, pulls, toSettle,
     pending, rejected, waitingCount, isEmpty, refresh, noteWrite, runOnce,
   }
 })

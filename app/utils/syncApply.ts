@@ -174,6 +174,22 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
     for (const coll of BUNDLE_COLLECTIONS) for (const row of (ch[coll] ?? []) as DeviceRow[]) upsert(coll, row)
     for (const row of answer.conflicts) upsert('conflicts', row)
+    // A change answered `conflict` left the server's value in place without touching its row,
+    // so the row does not come again: take the server's value from the new conflict instead.
+    const pulledCalls = new Set(ch.calls.map(c => c.id))
+    for (const c of ch.conflicts) {
+      const b = bundles.get(String(c.callId ?? ''))
+      const field = String(c.field ?? '')
+      if (!b || (c.status ?? 'open') !== 'open' || !field) continue
+      const touched = (id: string) => ops(id).some(o => field in o.changes)
+      if (c.entity === 'call' && !pulledCalls.has(b.id) && !touched(b.id)) b.call = { ...b.call, [field]: c.serverValue }
+      else if (c.entity !== 'call' && !touched(String(c.entityId))) {
+        const coll = RECORD_COLLECTION[c.entity as RecordEntity]
+        const rec = coll ? b.records[coll]?.[String(c.entityId)] : undefined
+        if (rec) rec[field] = c.serverValue
+      }
+      changed.add(b.id)
+    }
 
     for (const b of bundles.values()) {
       const unit = b.call.unitId ? lookups.units?.[String(b.call.unitId)] : undefined

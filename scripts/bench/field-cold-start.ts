@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from '@playwright/test'
 
-const BASE = process.env.WAYSIDE_TEST_URL ?? 'http://127.0.0.1:3100'
+const BASE = process.env.WAYSIDE_BENCH_URL ?? process.env.WAYSIDE_TEST_URL ?? 'http://127.0.0.1:3190'
 const RUNS = Number(process.env.WAYSIDE_BENCH_RUNS ?? 5)
 const CPU_SLOWDOWN = 4
 const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']

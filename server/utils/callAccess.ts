@@ -2,17 +2,15 @@ import type { H3Event } from 'h3'
 import { eq } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 
-export type CallRecord = typeof tables.calls.$inferSelect
-
-/** Whether the user may read and write this call: a mechanic only their own, the office all. */
-export function mayAccessCall(user: Pick<User, 'id' | 'role'>, call: Pick<CallRecord, 'mechanicId'>): boolean {
-  return user.role !== 'mechanic' || call.mechanicId === user.id
-}
-
-/** The signed-in user and the call, or 404 when there is no such call or it is not theirs to see. */
-export async function requireCallAccess(event: H3Event, callId: string): Promise<{ user: User; call: CallRecord }> {
+/**
+ * The signed-in user and the call they ask for. A mechanic only reaches calls assigned to them;
+ * anyone else's call answers 404, the same as a call that does not exist, so ids cannot be probed.
+ */
+export async function requireCallAccess(event: H3Event, callId: string): Promise<{ user: User; call: typeof tables.calls.$inferSelect }> {
   const user = await requireUser(event)
   const call = await useDb().query.calls.findFirst({ where: eq(tables.calls.id, callId) })
-  if (!call || !mayAccessCall(user, call)) throw createError({ status: 404, statusText: 'Call not found' })
+  if (!call || (user.role === 'mechanic' && call.mechanicId !== user.id)) {
+    throw createError({ status: 404, statusText: 'Call not found' })
+  }
   return { user, call }
 }

@@ -28,12 +28,20 @@ export const CONFLICT_CHOICES = ['device', 'server', 'value'] as const
 
 const uuid = (what: string) => z.string().uuid(`Not a valid ${what}`)
 const isoTime = z.string().datetime({ offset: true, message: 'Expected an ISO 8601 time' })
-const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`)
-const required = (max: number, what: string) => z.string().trim().min(1, `Enter ${what}`).max(max, `At most ${max} characters`)
+// PostgreSQL text cannot hold a NUL character; say so here rather than fail at the database.
+const noNul = (s: string) => !s.includes('\u0000')
+const NUL = 'May not contain a NUL character'
+const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`).refine(noNul, NUL)
+const required = (max: number, what: string) => z.string().trim().min(1, `Enter ${what}`).max(max, `At most ${max} characters`).refine(noNul, NUL)
 const int = (min: number, max: number) => z.number().int('Expected a whole number').min(min, `At least ${min}`).max(max, `At most ${max}`)
 const num = (min: number, max: number) => z.number().min(min, `At least ${min}`).max(max, `At most ${max}`)
 
 // ── Envelope ──────────────────────────────────────────────────────────────────────────────
+// The fields are checked per entity later; here only that they are a plain object (not copied).
+const fieldsObject = z.custom<Record<string, unknown>>(
+  v => typeof v === 'object' && v !== null && !Array.isArray(v),
+  { message: 'Expected an object of fields' },
+)
 export const opSchema = z.object({
   opId: uuid('op id'),
   clientId: uuid('client id'),
@@ -44,8 +52,8 @@ export const opSchema = z.object({
   entityId: uuid('entity id'),
   action: z.enum(SYNC_ACTIONS, { message: 'Expected create or update' }),
   baseVersion: int(0, 2_147_483_647).optional(),
-  changes: z.record(z.string(), z.unknown(), { message: 'Expected an object of fields' }),
-  base: z.record(z.string(), z.unknown(), { message: 'Expected an object of fields' }).optional(),
+  changes: fieldsObject,
+  base: fieldsObject.optional(),
 })
 export type Op = z.infer<typeof opSchema>
 

@@ -1,6 +1,5 @@
 // The heart of Wayside: a whole call worked on the phone with no signal, nothing lost across
 // reloads, and all of it at the office after the phone is back in signal.
-import { readFileSync } from 'node:fs'
 import { expect, test, type Page } from '@playwright/test'
 import { count, testPool } from '../support/db'
 import { PHONE, signIn, waitForServiceWorker } from './helpers'
@@ -41,6 +40,11 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await page.goto(`/m/calls/${callId}`)
   await expect(page.getByRole('heading', { level: 1, name: 'Call #3' })).toBeVisible()
   await expect(page.getByText('DEF lamp flashing')).toBeVisible()
+
+  // What the server holds already, so the checks below count only what this test adds.
+  const TABLES = ['fault_codes', 'readings', 'notes', 'photos', 'part_lines', 'sign_offs', 'clock_events'] as const
+  const before = Object.fromEntries(await Promise.all(TABLES.map(async t => [t, await count(t, 'call_id = $1', [callId])] as const)))
+  const started = new Date()
 
   // No signal from here on; close the app and open it again.
   await ctx.setOffline(true)
@@ -162,18 +166,19 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await expect(page.getByTestId('waiting-mark')).toHaveCount(0)
   await shot(page, 'field-call-synced-360')
 
-  // Every item is on the server.
-  const where = 'call_id = $1'
-  // The seed has one code on this call already (for the comebacks report); this is the one added here.
-  expect(await count('fault_codes', `${where} AND spn = 110 AND fmi = 0`, [callId])).toBe(1)
-  expect(await count('readings', where, [callId])).toBe(3)
-  expect(await count('notes', where, [callId])).toBe(1)
-  expect(await count('photos', `${where} AND storage_key IS NOT NULL`, [callId])).toBe(2)
-  const part = (await testPool().query('SELECT part_number, quantity, unit_price_cents, service_truck_id FROM part_lines WHERE call_id = $1', [callId])).rows
-  expect(part).toEqual([{ part_number: 'TR-DEF-10', quantity: 3, unit_price_cents: 2400, service_truck_id: expect.any(String) }])
-  expect(await count('sign_offs', where, [callId])).toBe(1)
-  const clock = await testPool().query('SELECT kind FROM clock_events WHERE call_id = $1 ORDER BY device_at, kind', [callId])
+  // Every item is on the server, once.
+  const added = async (t: (typeof TABLES)[number], extra = 'true') => (await count(t, `call_id = $1 AND ${extra}`, [callId])) - (extra === 'true' ? before[t]! : 0)
+  expect(await added('fault_codes')).toBe(1)
+  expect(await added('readings')).toBe(3)
+  expect(await added('notes')).toBe(1)
+  expect(await added('photos')).toBe(2)
+  expect(await added('photos', `storage_key IS NOT NULL AND created_at >= '${started.toISOString()}'`)).toBe(2)
+  expect(await added('part_lines')).toBe(1)
+  expect(await added('sign_offs')).toBe(1)
+  const clock = await testPool().query('SELECT kind FROM clock_events WHERE call_id = $1 AND created_at >= $2 ORDER BY device_at', [callId, started])
   expect(clock.rows.map(r => r.kind)).toEqual(['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'])
+  const part = (await testPool().query('SELECT part_number, quantity, unit_price_cents, service_truck_id FROM part_lines WHERE call_id = $1 AND created_at >= $2', [callId, started])).rows
+  expect(part).toEqual([{ part_number: 'TR-DEF-10', quantity: 3, unit_price_cents: 2400, service_truck_id: expect.any(String) }])
   const call = (await testPool().query('SELECT status, outcome, story_cause, verification, scene_checklist FROM calls WHERE id = $1', [callId])).rows[0]
   expect(call).toMatchObject({ status: 'completed', outcome: 'repaired', story_cause: 'DEF diluted to 26.5 % by refractometer.' })
   expect(call.verification).toMatchObject({ codesCleared: true, lampsOff: true, testDriveKm: 8, passed: true })
@@ -181,11 +186,20 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   const reading = (await testPool().query("SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = 'DEF concentration'", [callId])).rows[0]
   expect(reading).toEqual({ value: 26.5, unit: '%', verdict: 'low' })
 
-  // The office sees the photos' bytes, the same the phone took (after compression on the phone).
+  // The office reads the same record through its own pull, and the photos' bytes.
   const office = await browser.newContext()
   const op = await office.newPage()
   await signIn(op, 'office@wayside.test')
-  const photoIds = (await testPool().query('SELECT id, sha256 FROM photos WHERE call_id = $1', [callId])).rows
+  const seen = await (await op.request.get('/api/sync/pull')).json()
+  const mine = (list: { callId: string }[]) => list.filter(r => r.callId === callId)
+  expect(seen.changes.calls.find((c: { id: string }) => c.id === callId)).toMatchObject({ status: 'completed', outcome: 'repaired', storyCorrection: 'Drained tank, refilled 30 L fresh DEF, cleared codes.' })
+  expect(mine(seen.changes.readings).map((r: { label: string }) => r.label)).toEqual(expect.arrayContaining(['Battery at rest', 'DEF concentration', 'DEF heater resistance']))
+  expect(mine(seen.changes.faultCodes).filter((f: { spn: number }) => f.spn === 110)).toMatchObject([{ spn: 110, fmi: 0, count: 2, state: 'active', source: 'typed' }])
+  expect(mine(seen.changes.notes).map((n: { text: string }) => n.text)).toContain('Drained the diluted DEF; yard tank suspected.')
+  expect(mine(seen.changes.photos).filter((p: { uploaded: boolean; caption: string | null }) => p.uploaded).length).toBeGreaterThanOrEqual(2)
+  expect(mine(seen.changes.partLines)).toContainEqual(expect.objectContaining({ partNumber: 'TR-DEF-10', quantity: 3 }))
+  expect(mine(seen.changes.signOffs)).toContainEqual(expect.objectContaining({ driverName: 'K. Okafor', signature: expect.stringMatching(/^data:image\/png;base64,/) }))
+  const photoIds = (await testPool().query('SELECT id, sha256 FROM photos WHERE call_id = $1 AND created_at >= $2', [callId, started])).rows
   for (const p of photoIds) {
     const r = await op.request.get(`/api/photos/${p.id}`)
     expect(r.status()).toBe(200)
@@ -193,12 +207,12 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
     const { createHash } = await import('node:crypto')
     expect(createHash('sha256').update(await r.body()).digest('hex')).toBe(p.sha256)
   }
-  expect(readFileSync('tests/e2e/fixtures/harness.jpg').length).toBeGreaterThan(0)
   await office.close()
   await ctx.close()
 })
 
 async function addNote(page: Page, text: string) {
+  await expect(page.getByRole('heading', { name: /^Notes \(/ })).toBeVisible()
   const open = page.getByRole('button', { name: 'Write a note' })
   if (await open.isVisible()) await open.click()
   await page.getByLabel('New note').fill(text)
@@ -221,10 +235,11 @@ test('two tabs with work waiting come online together: one syncs at a time, no d
   const opsBefore = await count('sync_ops')
 
   await ctx.setOffline(true)
-  await addNote(a, 'Tab A: thermostat housing wet')
-  await addNote(b, 'Tab B: coolant level low')
-  await addNote(a, 'Tab A: topped up coolant')
-  await addNote(b, 'Tab B: pressure test holds')
+  const tag = Date.now()
+  await addNote(a, `Tab A: thermostat housing wet ${tag}`)
+  await addNote(b, `Tab B: coolant level low ${tag}`)
+  await addNote(a, `Tab A: topped up coolant ${tag}`)
+  await addNote(b, `Tab B: pressure test holds ${tag}`)
 
   // Every sync request each tab makes, with when it started and ended.
   const spans: { tab: string; url: string; start: number; end: number }[] = []
@@ -281,4 +296,46 @@ test('signing out with unsynced work warns first, and keeps the work', async ({ 
   await page.getByRole('button', { name: 'Sign out' }).click()
   await expect(page).toHaveURL(/\/login/)
   await ctx.close()
+})
+
+test('a field changed on two phones from the same start is settled on the phone', async ({ browser }) => {
+  const phones = await Promise.all([0, 1].map(() => browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })))
+  const pages = await Promise.all(phones.map(p => p.newPage()))
+  let callId = ''
+  for (const p of pages) {
+    await signIn(p, 'mech1@wayside.test')
+    await waitForServiceWorker(p)
+    callId = await callIdByNumber(p, /#4 · Lakeline/)
+    await p.goto(`/m/calls/${callId}`)
+    await expect(p.getByRole('heading', { level: 1, name: 'Call #4' })).toBeVisible()
+    await expect(p.getByTestId('sync-chip')).toContainText('All sent')
+  }
+  const [a, b] = pages as [Page, Page]
+  await Promise.all(phones.map(p => p.setOffline(true)))
+  for (const [p, text] of [[a, 'Thermostat stuck open'], [b, 'Coolant sensor open circuit']] as const) {
+    await p.getByLabel(/^Cause/).fill(text)
+    await p.getByRole('button', { name: 'Save the story' }).click()
+    await expect(p.getByText('Story saved on the phone')).toBeVisible()
+  }
+  // Phone A gets signal first; phone B's change then meets A's on the server.
+  await phones[0]!.setOffline(false)
+  await expect(a.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
+  await phones[1]!.setOffline(false)
+  const conflict = b.getByRole('article', { name: 'Conflict on Cause' })
+  await expect(conflict).toBeVisible({ timeout: 30_000 })
+  await expect(conflict.getByTestId('device-value')).toHaveText('Coolant sensor open circuit')
+  await expect(conflict.getByTestId('server-value')).toHaveText('Thermostat stuck open')
+  await expect(b.getByTestId('sync-chip')).toContainText('1 to settle')
+  await conflict.scrollIntoViewIfNeeded()
+  await b.screenshot({ path: 'tests/e2e/screenshots/field-conflict-360.png' })
+  expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'open'", [callId])).toBe(1)
+
+  await conflict.getByLabel('Or type the right value').fill('Thermostat stuck open; sensor reads true')
+  await conflict.getByRole('button', { name: 'Keep what I typed' }).click()
+  await expect(b.getByRole('article', { name: 'Conflict on Cause' })).toHaveCount(0, { timeout: 30_000 })
+  await expect.poll(async () => (await testPool().query('SELECT story_cause FROM calls WHERE id = $1', [callId])).rows[0].story_cause, { timeout: 30_000 })
+    .toBe('Thermostat stuck open; sensor reads true')
+  expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'resolved' AND choice = 'value'", [callId])).toBe(1)
+  await expect(b.getByLabel(/^Cause/)).toHaveValue('Thermostat stuck open; sensor reads true')
+  await Promise.all(phones.map(p => p.close()))
 })

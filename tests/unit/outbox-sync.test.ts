@@ -157,3 +157,31 @@ describe('pull', () => {
     expect((await useFieldStore().loadCall(CALL_ID))?.call.version).toBe(6)
   })
 })
+
+describe('conflicts', () => {
+  it('shows the server value once a change came back as a conflict, and settles it through the outbox', async () => {
+    const field = useFieldStore()
+    await field.updateCall(CALL_ID, { storyCause: 'Phone text' })
+    server.script = (url, init) => {
+      if (url !== '/api/sync/push') return undefined
+      const [op] = JSON.parse(String(init.body)).ops
+      if (!op) return json(200, { lastSeq: server.lastSeq, results: [] })
+      server.lastSeq = op.seq
+      return json(200, { lastSeq: op.seq, results: [{ opId: op.opId, seq: op.seq, status: 'conflict', reason: 'storyCause: changed in the office too' }] })
+    }
+    const conflict = { id: '44444444-4444-4444-8444-444444444444', callId: CALL_ID, entity: 'call', entityId: CALL_ID, field: 'storyCause', baseValue: null, deviceValue: 'Phone text', serverValue: 'Office text', status: 'open', reason: 'Changed in both places' }
+    server.pullChanges = { conflicts: [conflict] }
+    server.conflicts = [conflict]
+    await useOutboxStore().runOnce({ fetch: server.fetch })
+    expect(await readOutbox()).toEqual([]) // a conflict answer takes the op out: the server holds both values now
+    let view = await field.loadCall(CALL_ID)
+    expect(view?.call.storyCause).toBe('Office text')
+    expect(view?.conflicts.map(c => c.field)).toEqual(['storyCause'])
+
+    await field.resolveConflict(CALL_ID, conflict.id, 'value', 'Both, merged')
+    const [op] = await readOutbox()
+    expect(op).toMatchObject({ entity: 'conflictResolution', entityId: conflict.id, action: 'create', changes: { conflictId: conflict.id, choice: 'value', value: 'Both, merged' } })
+    view = await field.loadCall(CALL_ID)
+    expect(view?.conflicts[0]?.pendingChoice).toBe('value')
+  })
+})

@@ -9,6 +9,8 @@ export default defineEventHandler(async (event) => {
     return await syncPush(user, body, { userAgent: getRequestHeader(event, 'user-agent') })
   }
   catch (err) {
+    // Still contended after every retry: the device waits and sends the same ops again.
+    if ((err as { statusCode?: number }).statusCode === 503) setResponseHeader(event, 'retry-after', 2)
     if (!(err instanceof SyncSeqGapError)) throw err
     // Nothing was applied; the device resends from expectedSeq.
     setResponseStatus(event, 409, 'Out of sequence')

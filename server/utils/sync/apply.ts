@@ -14,7 +14,8 @@ import type { z } from 'zod'
 import type { Tx } from '../db'
 import { outcomeProblem, writeCallChanges, type CallRow } from './callWrite'
 import { resolveConflictInTx, SyncRuleError } from './conflicts'
-import { mergeCallField, sameSyncValue } from './merge'
+import { bulkInsert } from './bulk'
+import { mergeCallField, sameSyncValue, stableSyncJson } from './merge'
 import { isRetryableTxError, pgErrorCode } from './retry'
 
 export type OpOutcome = { status: 'applied' | 'conflict' | 'rejected'; version?: number; reason?: string }
@@ -66,9 +67,9 @@ function parseOp(op: Op): Parsed {
     const r = updateSchemas[entity].safeParse(changes)
     return r.success ? { kind: 'childUpdate', entity, data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
   }
-  const { id, ...fields } = changes
-  if (id !== undefined && id !== op.entityId) return { kind: 'bad', reason: 'id: differs from the op entityId' }
-  const r = createSchemas[entity].safeParse(fields)
+  // An `id` among the fields must be the op's; the schema leaves it out of the parsed record.
+  if (changes.id !== undefined && changes.id !== op.entityId) return { kind: 'bad', reason: 'id: differs from the op entityId' }
+  const r = createSchemas[entity].safeParse(changes)
   return r.success ? { kind: 'create', entity, data: r.data as Record<string, unknown> } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
 }
 
@@ -99,9 +100,12 @@ function isDataError(err: unknown) {
   const code = pgErrorCode(err)
   return !!code && (code.startsWith('22') || code.startsWith('23'))
 }
-function dbReason(err: unknown) {
+/** Why the database refused a row, naming the field where it can tell. */
+function dbReason(err: unknown, values: Record<string, unknown>) {
   const cause = ((err as { cause?: unknown }).cause ?? err) as { message?: string; column?: string; constraint?: string }
-  const what = cause.column ?? cause.constraint ?? 'record'
+  // A NUL deep inside a JSON value is the one refusal the schemas cannot see; find its field.
+  const nul = Object.keys(values).find(k => stableSyncJson(values[k]).includes('\\u0000'))
+  const what = cause.column ?? nul ?? cause.constraint ?? 'record'
   return `${what}: the database refused it (${cause.message ?? 'invalid'})`
 }
 
@@ -113,7 +117,11 @@ export class SyncApplier {
   private buffers = new Map<ChildEntity, Pending[]>()
   private sp = 0
 
-  constructor(private tx: Tx, private user: User, private ops: Op[], private limits: { photoMaxBytes: number }) {
+  /**
+   * careful = false: no savepoints, the fast path; a row the database refuses aborts the push,
+   * which then runs again with careful = true, where savepoints find the bad op and reject only it.
+   */
+  constructor(private tx: Tx, private user: User, private ops: Op[], private limits: { photoMaxBytes: number }, private careful = false) {
     this.results = ops.map(() => ({ status: 'rejected' }))
     this.parsed = ops.map(parseOp)
   }
@@ -127,7 +135,7 @@ export class SyncApplier {
       else if (p.kind === 'create') this.queueCreate(i, op, p.entity, p.data)
       else {
         await this.flush()
-        this.results[i] = await this.inSavepoint(() =>
+        this.results[i] = await this.inSavepoint(op.changes, () =>
           p.kind === 'callUpdate' ? this.callUpdate(op, p.data)
           : p.kind === 'childUpdate' ? this.childUpdate(op, p.entity, p.data)
           : this.resolution(p.data, p.hasValue))
@@ -221,9 +229,15 @@ export class SyncApplier {
     this.buffers.set(entity, list)
   }
 
-  /** The full row for a create (every column set, so a repeated create compares completely). */
+  /**
+   * The full row for a create (every column set, so a repeated create compares completely).
+   * Written out field by field: object spread in this hot path costs more than the insert.
+   */
   private buildRow(entity: ChildEntity, op: Op, data: Record<string, unknown>): Row | string {
-    const common = { id: op.entityId, callId: data.callId as string, createdBy: this.user.id, deviceAt: new Date(op.at) }
+    const id = op.entityId
+    const callId = data.callId as string
+    const createdBy = this.user.id
+    const deviceAt = new Date(op.at)
     switch (entity) {
       case 'reading': {
         const d = data as ChildCreate<'reading'>
@@ -232,31 +246,31 @@ export class SyncApplier {
         // The server judges again when the spec is one it can read; the device's verdict is a hint.
         if (d.spec) { try { verdict = judge(d.value, d.spec) } catch {} }
         return {
-          ...common, testRunId: d.testRunId ?? null, stepId: d.stepId ?? null, label: d.label, quantity: d.quantity, value: d.value, unit: d.unit,
-          component: d.component ?? null, pins: d.pins ?? null, conditions: d.conditions ?? null, partRole: d.partRole ?? null,
-          spec: d.spec ?? null, verdict,
+          id, callId, createdBy, deviceAt, testRunId: d.testRunId ?? null, stepId: d.stepId ?? null, label: d.label,
+          quantity: d.quantity, value: d.value, unit: d.unit, component: d.component ?? null, pins: d.pins ?? null,
+          conditions: d.conditions ?? null, partRole: d.partRole ?? null, spec: d.spec ?? null, verdict,
         }
       }
       case 'faultCode': {
         const d = data as ChildCreate<'faultCode'>
         return {
-          ...common, code: d.code ?? null, spn: d.spn ?? null, fmi: d.fmi ?? null, state: d.state ?? 'active', count: d.count ?? 1,
-          source: d.source ?? null, clearedAt: toDate(d.clearedAt), note: d.note ?? null,
+          id, callId, createdBy, deviceAt, code: d.code ?? null, spn: d.spn ?? null, fmi: d.fmi ?? null, state: d.state ?? 'active',
+          count: d.count ?? 1, source: d.source ?? null, clearedAt: toDate(d.clearedAt), note: d.note ?? null,
         }
       }
-      case 'note': return { ...common, text: (data as ChildCreate<'note'>).text }
-      case 'clockEvent': return { ...common, kind: (data as ChildCreate<'clockEvent'>).kind }
+      case 'note': return { id, callId, createdBy, deviceAt, text: (data as ChildCreate<'note'>).text }
+      case 'clockEvent': return { id, callId, createdBy, deviceAt, kind: (data as ChildCreate<'clockEvent'>).kind }
       case 'photo': {
         const d = data as ChildCreate<'photo'>
         if (d.sizeBytes > this.limits.photoMaxBytes) return `sizeBytes: larger than the ${this.limits.photoMaxBytes}-byte photo limit`
-        return { ...common, sha256: d.sha256, contentType: d.contentType, sizeBytes: d.sizeBytes, caption: d.caption ?? null }
+        return { id, callId, createdBy, deviceAt, sha256: d.sha256, contentType: d.contentType, sizeBytes: d.sizeBytes, caption: d.caption ?? null }
       }
       case 'partLine': {
         const d = data as ChildCreate<'partLine'>
         if (d.serviceTruckId && !this.refs.trucks.has(d.serviceTruckId)) return 'serviceTruckId: no such service truck'
         const stock = d.serviceTruckId ? this.refs.stock.get(`${d.serviceTruckId}:${d.partNumber}`) : undefined
         return {
-          ...common, partNumber: d.partNumber, description: d.description, quantity: d.quantity,
+          id, callId, createdBy, deviceAt, partNumber: d.partNumber, description: d.description, quantity: d.quantity,
           unitPriceCents: d.unitPriceCents ?? stock?.unitPriceCents ?? 0, coreChargeCents: d.coreChargeCents ?? stock?.coreChargeCents ?? 0,
           serviceTruckId: d.serviceTruckId ?? null,
         }
@@ -265,13 +279,13 @@ export class SyncApplier {
         const d = data as ChildCreate<'testRun'>
         if (!this.refs.cardVersions.has(`${d.cardId}:${d.cardVersion}`)) return 'cardVersion: no such version of this test card'
         return {
-          ...common, cardId: d.cardId, cardVersion: d.cardVersion, ambientC: d.ambientC ?? null, steps: d.steps,
+          id, callId, createdBy, deviceAt, cardId: d.cardId, cardVersion: d.cardVersion, ambientC: d.ambientC ?? null, steps: d.steps,
           conclusion: d.conclusion ?? null, finishedAt: toDate(d.finishedAt),
         }
       }
       case 'signOff': {
         const d = data as ChildCreate<'signOff'>
-        return { ...common, driverName: d.driverName, signature: d.signature }
+        return { id, callId, createdBy, deviceAt, driverName: d.driverName, signature: d.signature }
       }
     }
   }
@@ -294,22 +308,20 @@ export class SyncApplier {
     const inserted = new Map<string, number>()
     const refused = new Map<string, string>()
     try {
-      const out = await this.inSavepointRaw(() =>
-        this.tx.insert(table).values(rows.map(p => p.row) as any).onConflictDoNothing().returning({ id: table.id, version: table.version }))
-      for (const r of out as { id: string; version: number }[]) inserted.set(r.id, r.version)
+      const out = await this.inSavepointRaw(() => bulkInsert(this.tx, table, rows.map(p => p.row)))
+      for (const id of out) inserted.set(id, 1)
     }
     catch (err) {
       if (!isDataError(err)) throw err
       // Something the checks above did not foresee: find the bad rows one at a time.
       for (const p of rows) {
         try {
-          const out = await this.inSavepointRaw(() =>
-            this.tx.insert(table).values(p.row as any).onConflictDoNothing().returning({ id: table.id, version: table.version }))
-          for (const r of out as { id: string; version: number }[]) inserted.set(r.id, r.version)
+          const out = await this.inSavepointRaw(() => bulkInsert(this.tx, table, [p.row]))
+          for (const id of out) inserted.set(id, 1)
         }
         catch (e) {
           if (!isDataError(e)) throw e
-          refused.set(p.row.id, dbReason(e))
+          refused.set(p.row.id, dbReason(e, p.row))
         }
       }
     }
@@ -363,7 +375,17 @@ export class SyncApplier {
     }
     if (rejects.length) return rejected(rejects.join('; '))
     const problemOutcome = outcomeProblem(call, takes)
-    if (problemOutcome) return rejected(problemOutcome)
+    if (problemOutcome) {
+      // The device completed the call but its status move did not take: the outcome waits with it.
+      if (!('outcome' in takes) || !('status' in changes) || takes.status !== undefined) return rejected(problemOutcome)
+      const reason = 'outcome: the call was not completed on the server'
+      notes.push(reason)
+      conflicts.push({
+        callId: call.id, entity: 'call', entityId: call.id, field: 'outcome', reason, opId: op.opId, raisedBy: this.user.id,
+        baseValue: jsonb('outcome' in base ? base.outcome : null), deviceValue: jsonb(takes.outcome), serverValue: jsonb(call.outcome),
+      })
+      delete takes.outcome
+    }
     let after = call
     if (Object.keys(takes).length) after = await writeCallChanges(this.tx, call, takes, this.user)
     if (conflicts.length) await this.tx.insert(tables.conflicts).values(conflicts)
@@ -399,6 +421,10 @@ export class SyncApplier {
 
   // ── Savepoints ──────────────────────────────────────────────────────────────────────────
   private async inSavepointRaw<T>(fn: () => Promise<T>): Promise<T> {
+    if (!this.careful) {
+      try { return await fn() }
+      catch (err) { throw isDataError(err) ? new SyncCarefulPass(err) : err }
+    }
     const name = sql.raw(`sync_sp_${++this.sp}`)
     await this.tx.execute(sql`SAVEPOINT ${name}`)
     try {
@@ -414,16 +440,23 @@ export class SyncApplier {
   }
 
   /** One op in a savepoint: a row the database refuses rejects that op and keeps the rest. */
-  private async inSavepoint(fn: () => Promise<OpOutcome>): Promise<OpOutcome> {
+  private async inSavepoint(values: Record<string, unknown>, fn: () => Promise<OpOutcome>): Promise<OpOutcome> {
     const before = new Map(this.calls)
     try {
       return await this.inSavepointRaw(fn)
     }
     catch (err) {
-      if (!isDataError(err)) throw err
+      if (!this.careful || !isDataError(err)) throw err
       this.calls = before
-      return rejected(dbReason(err))
+      return rejected(dbReason(err, values))
     }
+  }
+}
+
+/** The fast pass hit a row the database refused: run the push again, carefully. */
+export class SyncCarefulPass extends Error {
+  constructor(readonly refusal: unknown) {
+    super('a row was refused; the push runs again op by op')
   }
 }
 
@@ -432,6 +465,6 @@ function jsonb(v: unknown) {
   return sql`${JSON.stringify(v ?? null)}::jsonb`
 }
 
-export async function applySyncOps(tx: Tx, user: User, ops: Op[], limits: { photoMaxBytes: number }) {
-  return new SyncApplier(tx, user, ops, limits).run()
+export async function applySyncOps(tx: Tx, user: User, ops: Op[], limits: { photoMaxBytes: number }, careful = false) {
+  return new SyncApplier(tx, user, ops, limits, careful).run()
 }

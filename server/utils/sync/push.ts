@@ -4,8 +4,9 @@
 import { and, eq, inArray, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { PushBody, PushResult } from '#shared/schemas/sync'
-import { applySyncOps, type OpOutcome } from './apply'
-import { withTxRetry } from './retry'
+import { applySyncOps, SyncCarefulPass, type OpOutcome } from './apply'
+import { bulkInsertSql } from './bulk'
+import { pgErrorCode, withTxRetry } from './retry'
 import { syncTestInjectSerializationFailure, syncTestPause } from './testHooks'
 
 /** An op past the next expected seq: nothing was applied; the device resends from expectedSeq. */
@@ -18,14 +19,32 @@ export class SyncSeqGapError extends Error {
 type Result = PushResult['results'][number]
 
 export async function syncPush(user: User, body: PushBody, meta: { userAgent?: string } = {}): Promise<PushResult> {
+  let answer: PushResult
+  try {
+    answer = await pushOnce(user, body, meta, false)
+  }
+  catch (err) {
+    if (!(err instanceof SyncCarefulPass)) throw err
+    answer = await pushOnce(user, body, meta, true)
+  }
+  await syncTestPause('after-commit')
+  return answer
+}
+
+function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, careful: boolean): Promise<PushResult> {
   const photoMaxBytes = Number(useRuntimeConfig().photoMaxBytes)
   const userAgent = meta.userAgent?.slice(0, 300) ?? null
-  const answer = await withTxRetry(() => useDb().transaction(async (tx) => {
+  return withTxRetry(() => useDb().transaction(async (tx) => {
     const { syncClients, syncOps, users } = tables
-    await tx.insert(syncClients).values({ id: body.clientId, userId: user.id, userAgent }).onConflictDoNothing()
-    const [client] = await tx.select().from(syncClients).where(eq(syncClients.id, body.clientId)).for('update')
-    if (!client) throw new Error('sync client row missing after insert')
-    if (client.userId !== user.id) throw createError({ status: 403, statusText: 'This device is registered to another person' })
+    // Registers the device on its first push and locks its row: a second push from the same
+    // device waits here until this one commits, then finds its ops stored.
+    const registered = await tx.execute<{ user_id: string; last_seq: string }>(sql`
+      INSERT INTO sync_clients (id, user_id, user_agent) VALUES (${body.clientId}, ${user.id}, ${userAgent})
+      ON CONFLICT (id) DO UPDATE SET last_seen_at = now()
+      RETURNING user_id, last_seq`)
+    const row = registered.rows[0]!
+    if (row.user_id !== user.id) throw createError({ status: 403, statusText: 'This device is registered to another person' })
+    const client = { id: body.clientId, lastSeq: Number(row.last_seq) }
 
     const fresh = body.ops.filter(op => op.seq > client.lastSeq)
     const dups = body.ops.filter(op => op.seq <= client.lastSeq)
@@ -60,26 +79,30 @@ export async function syncPush(user: User, body: PushBody, meta: { userAgent?: s
     }
 
     let outcomes: OpOutcome[] = []
+    if (fresh.length) outcomes = await applySyncOps(tx, user, fresh, { photoMaxBytes }, careful)
+    const lastSeq = fresh.length ? fresh[fresh.length - 1]!.seq : client.lastSeq
+    const advance = sql`UPDATE sync_clients SET last_seq = ${lastSeq}, last_seen_at = now(), user_agent = coalesce(${userAgent}, user_agent) WHERE id = ${client.id}`
     if (fresh.length) {
-      outcomes = await applySyncOps(tx, user, fresh, { photoMaxBytes })
-      await tx.insert(syncOps).values(fresh.map((op, i) => ({
+      // The ops' stored results and the new last seq in one statement.
+      const opRows = fresh.map((op, i) => ({
         opId: op.opId, clientId: client.id, seq: op.seq, entity: op.entity, entityId: op.entityId, action: op.action,
         status: outcomes[i]!.status, version: outcomes[i]!.version ?? null, reason: outcomes[i]!.reason ?? null,
-      }))).onConflictDoNothing()
+      }))
+      await tx.execute(sql`WITH stored AS (${bulkInsertSql(syncOps, opRows, { returning: false })}) ${advance}`)
       fresh.forEach((op, i) => {
         const o = outcomes[i]!
-        results.set(op.opId, { opId: op.opId, seq: op.seq, status: o.status, ...(o.version !== undefined ? { version: o.version } : {}), ...(o.reason ? { reason: o.reason } : {}) })
+        const r: Result = { opId: op.opId, seq: op.seq, status: o.status }
+        if (o.version !== undefined) r.version = o.version
+        if (o.reason) r.reason = o.reason
+        results.set(op.opId, r)
       })
     }
-    const lastSeq = fresh.length ? fresh[fresh.length - 1]!.seq : client.lastSeq
-    await tx.update(syncClients).set({ lastSeq, lastSeenAt: sql`now()`, ...(userAgent ? { userAgent } : {}) }).where(eq(syncClients.id, client.id))
+    else await tx.execute(advance)
 
     if (syncTestInjectSerializationFailure()) {
       await tx.execute(sql`DO $$ BEGIN RAISE EXCEPTION 'injected by the sync fault test' USING ERRCODE = '40001'; END $$`)
     }
     await syncTestPause('before-commit')
     return { lastSeq, results: body.ops.map(op => results.get(op.opId)!) }
-  }))
-  await syncTestPause('after-commit')
-  return answer
+  }), { onRetry: (attempt, err) => console.warn(`[sync] push retried (attempt ${attempt + 1}) after SQLSTATE ${pgErrorCode(err)}`) })
 }
