@@ -179,6 +179,36 @@ describe('push: a row the database refuses', () => {
   })
 })
 
+describe('push: creates only', () => {
+  it('writes a test run and the readings taken on it in one push', async () => {
+    const callId = await makeCall()
+    const cardId = await makeTestCard()
+    const d = new Device(mech1)
+    const run = d.op('testRun', { callId, cardId, cardVersion: 1, steps: [] })
+    const ops = [run, d.op('reading', { ...reading(callId), testRunId: run.entityId }), d.op('reading', { ...reading(callId, 1e6), testRunId: run.entityId, spec: { nominal: 138.5, tolerancePct: 5 } })]
+    const r = await d.push(ops)
+    expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'applied'])
+    const rows = (await testPool().query('SELECT verdict FROM readings WHERE test_run_id = $1 ORDER BY value', [run.entityId])).rows
+    // 1e6 Ω against 138.5 Ω ± 5 %: high (the server's judge, shared/utils/spec.ts).
+    expect(rows.map(x => x.verdict)).toEqual([null, 'high'])
+  })
+
+  it('rejects only the refused create when the push has nothing but creates', async () => {
+    const callId = await makeCall()
+    const cardId = await makeTestCard()
+    const d = new Device(mech1)
+    const ops = [
+      d.op('note', { callId, text: 'kept' }),
+      d.op('testRun', { callId, cardId, cardVersion: 1, steps: [{ note: 'nul \u0000' }] }),
+      d.op('note', { callId, text: 'kept too' }),
+    ]
+    const r = await d.push(ops)
+    expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'rejected', 'applied'])
+    expect(r.body.results[1].reason).toMatch(/^steps: /)
+    expect(await countIds('notes', ops)).toBe(2)
+  })
+})
+
 describe('push: who may write what', () => {
   it("rejects a mechanic's ops on another mechanic's call as forbidden", async () => {
     const theirs = await makeCall({ mechanicId: IDS.mech2 })

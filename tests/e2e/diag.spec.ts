@@ -20,7 +20,9 @@ test('the exhaust-temperature card runs offline to "Replace sensor", then syncs 
   await expect(page.getByRole('list', { name: 'Open calls' }).getByRole('link', { name: /#5/ })).toBeVisible()
   await page.goto(`/m/calls/${CALL_5}`)
   await expect(page.getByRole('heading', { level: 1, name: 'Call #5' })).toBeVisible()
-  await page.goto(`/m/calls/${CALL_5}/test`)
+  await expect(page.getByRole('link', { name: 'Run a test card (1 fits the codes)' })).toBeVisible()
+  await page.locator('section[aria-labelledby="diag-tools-title"]').screenshot({ path: 'tests/e2e/screenshots/diag-call-tools-360.png' })
+  await page.getByRole('link', { name: /Run a test card/ }).click()
   const suggestion = page.getByRole('region', { name: "Fits this call's codes" }).getByRole('link', { name: /Exhaust temperature sensor/ })
   await expect(suggestion).toContainText('For SPN 3242 FMI 4')
   await suggestion.click()
@@ -33,6 +35,13 @@ test('the exhaust-temperature card runs offline to "Replace sensor", then syncs 
   await expect(page.getByRole('heading', { level: 1, name: /Exhaust temperature sensor/ })).toBeVisible()
   await expect(page.getByText('No signal').first()).toBeVisible()
   await expect(page.getByText(/exhaust pipes, the DPF/i)).toBeVisible()
+  // The scene comes first: the checklist is at hand before the card's own cautions.
+  await page.getByText(/Scene checklist: \d of 9 done/).click()
+  await expect(page.getByTestId('device-plan')).toContainText('3 m (10 ft)')
+  await page.getByLabel(/Hazard flashers on/).check()
+  await page.getByLabel(/Warning triangles placed/).check()
+  await page.getByRole('button', { name: /Save checklist/ }).click()
+  await expect(page.getByRole('status').filter({ hasText: 'Saved: 2 of 9 done' })).toBeVisible()
   await shot(page, 'diag-runner-cautions-360')
 
   const ambient = page.getByLabel('Air temperature here')
@@ -76,6 +85,12 @@ test('the exhaust-temperature card runs offline to "Replace sensor", then syncs 
     { label: 'Sensor resistance at ambient', value: 118, unit: 'ohm', part_role: 'installed', verdict: 'low', conditions: 'key_off' },
     { label: 'New sensor beside the old one', value: 210.2, unit: 'ohm', part_role: 'new', verdict: 'pass', conditions: 'key_off' },
   ])
+  // The saved run on the phone, as the office's run summary shows it.
+  await page.goto(`/m/calls/${CALL_5}/test`)
+  const saved = page.getByRole('region', { name: 'Saved on this call' })
+  await expect(saved).toContainText('Replace sensor')
+  await expect(saved).toContainText('measured 118 Ω; a Pt200 at 12 °C should read 209.4 Ω ± 2 %; low')
+  await shot(page, 'diag-run-summary-360')
   await ctx.close()
 })
 
@@ -98,12 +113,44 @@ test('like sensors: the one at -40 °C is flagged, shown on a chart, saved as re
   await ctx.close()
 })
 
+test('fault codes at the card picker: decoded as typed, cleared, and flagged as returned when read again', async ({ browser }) => {
+  const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
+  const page = await ctx.newPage()
+  await signIn(page, 'mech2@wayside.test')
+  await expect(page.getByRole('list', { name: 'Open calls' }).getByRole('link', { name: /#5/ })).toBeVisible()
+  await page.goto(`/m/calls/${CALL_5}/test`)
+  const seeded = page.getByRole('article', { name: 'Fault code SPN 3242 FMI 4' })
+  // SAE J1939-73 FMI 4 (REFERENCES §4): voltage below normal or shorted low
+  await expect(seeded).toContainText('FMI 4: Voltage below normal, or shorted to a low source')
+  await seeded.getByRole('button', { name: 'Mark cleared after the repair' }).click()
+  await expect(seeded).toContainText('Cleared')
+
+  await page.getByText('Add a code read off the truck').click()
+  await page.getByRole('radio', { name: 'P/C/B/U code' }).click()
+  await page.getByLabel('Fault code', { exact: true }).fill('PO544')
+  // J2012: the second character is a digit 0–3 (the letter O is a common slip)
+  await expect(page.getByRole('alert').filter({ hasText: 'the letter O? type the digit 0' })).toBeVisible()
+  await page.getByLabel('Fault code', { exact: true }).fill('p0544')
+  await expect(page.getByTestId('fault-decoded')).toContainText('powertrain · SAE-defined')
+  await page.getByRole('radio', { name: 'SPN / FMI' }).click()
+  await page.getByLabel('SPN', { exact: true }).fill('3242')
+  await page.getByLabel('FMI', { exact: true }).selectOption('4')
+  await page.getByRole('button', { name: 'Add fault code' }).click()
+  const again = page.getByRole('article', { name: 'Fault code SPN 3242 FMI 4' }).last()
+  await expect(again).toContainText('Returned: cleared')
+  await expect(page.getByRole('article', { name: 'Fault code SPN 3242 FMI 4' })).toHaveCount(2)
+  await page.getByRole('region', { name: /Fault codes on this call/ }).screenshot({ path: 'tests/e2e/screenshots/diag-fault-codes-360.png' })
+  await ctx.close()
+})
+
 test('the admin edits a card: mistakes are named beside the field, a good change makes version 2', async ({ page }) => {
   await page.setViewportSize({ width: 1280, height: 900 })
   await signIn(page, 'admin@wayside.test')
   await page.getByRole('link', { name: /Test cards/ }).click()
   await expect(page.getByRole('heading', { level: 1, name: 'Test cards' })).toBeVisible()
-  await expect(page.locator('tbody tr')).toHaveCount(5)
+  for (const title of ['Exhaust temperature sensor (platinum RTD) and circuit', 'Coolant temperature sensor (NTC thermistor)', 'Battery state of charge and charging voltage (12 V)', 'DEF concentration with a refractometer', '5 V sensor reference circuit']) {
+    await expect(page.getByRole('link', { name: title, exact: true })).toBeVisible()
+  }
   await page.getByLabel('Filter').fill('spn 3516')
   await expect(page.locator('tbody tr')).toHaveCount(1)
   await page.getByRole('link', { name: 'DEF concentration with a refractometer' }).click()
