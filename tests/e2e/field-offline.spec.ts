@@ -193,19 +193,27 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   const reading = (await testPool().query("SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = 'DEF concentration'", [callId])).rows[0]
   expect(reading).toEqual({ value: 26.5, unit: '%', verdict: 'low' })
 
-  // The office reads the same record through its own pull, and the photos' bytes.
-  const office = await browser.newContext()
+  // The office finds every item on its call page, and the photos' bytes are the phone's.
+  const office = await browser.newContext({ viewport: { width: 1280, height: 900 } })
   const op = await office.newPage()
   await signIn(op, 'office@wayside.test')
-  const seen = await (await op.request.get('/api/sync/pull')).json()
-  const mine = (list: { callId: string }[]) => list.filter(r => r.callId === callId)
-  expect(seen.changes.calls.find((c: { id: string }) => c.id === callId)).toMatchObject({ status: 'completed', outcome: 'repaired', storyCorrection: 'Drained tank, refilled 30 L fresh DEF, cleared codes.' })
-  expect(mine(seen.changes.readings).map((r: { label: string }) => r.label)).toEqual(expect.arrayContaining(['Battery at rest', 'DEF concentration', 'DEF heater resistance']))
-  expect(mine(seen.changes.faultCodes).filter((f: { spn: number }) => f.spn === 110)).toMatchObject([{ spn: 110, fmi: 0, count: 2, state: 'active', source: 'typed' }])
-  expect(mine(seen.changes.notes).map((n: { text: string }) => n.text)).toContain('Drained the diluted DEF; yard tank suspected.')
-  expect(mine(seen.changes.photos).filter((p: { uploaded: boolean; caption: string | null }) => p.uploaded).length).toBeGreaterThanOrEqual(2)
-  expect(mine(seen.changes.partLines)).toContainEqual(expect.objectContaining({ partNumber: 'TR-DEF-10', quantity: 3 }))
-  expect(mine(seen.changes.signOffs)).toContainEqual(expect.objectContaining({ driverName: 'K. Okafor', signature: expect.stringMatching(/^data:image\/png;base64,/) }))
+  await op.goto(`/calls/${callId}`)
+  await expect(op.getByRole('heading', { level: 1, name: 'Call #3' })).toBeVisible()
+  const work = op.locator('section[aria-labelledby="work-heading"]')
+  await expect(work).toContainText('SPN 110 FMI 0')
+  for (const label of ['DEF concentration', 'Battery at rest', 'DEF heater resistance']) await expect(work).toContainText(label)
+  await expect(work).toContainText('26.5')
+  const notes = op.locator('section[aria-labelledby="notes-heading"]')
+  await expect(notes).toContainText('Drained the diluted DEF; yard tank suspected.')
+  await expect(notes.getByRole('img')).toHaveCount(2)
+  await expect(notes.getByRole('img', { name: 'DEF filler neck' })).toBeVisible()
+  const story = op.locator('section[aria-labelledby="story-heading"]')
+  await expect(story).toContainText('DEF diluted to 26.5 % by refractometer.')
+  await expect(story).toContainText('Drained tank, refilled 30 L fresh DEF, cleared codes.')
+  await expect(story).toContainText('Repaired at the roadside')
+  await expect(story.getByRole('img', { name: 'Signature of K. Okafor' })).toBeVisible()
+  await expect(op.locator('section[aria-labelledby="time-heading"]')).toContainText('TR-DEF-10')
+  await op.screenshot({ path: 'tests/e2e/screenshots/field-synced-office-call-1280.png', fullPage: true })
   const photoIds = (await testPool().query('SELECT id, sha256 FROM photos WHERE call_id = $1 AND created_at >= $2', [callId, started])).rows
   for (const p of photoIds) {
     const r = await op.request.get(`/api/photos/${p.id}`)
