@@ -58,7 +58,8 @@ export function useSync() {
     if (!import.meta.client) return undefined
     if (e.running) { e.again = true; return e.running }
     if (outbox.paused) return undefined
-    if (!navigator.onLine) { outbox.lastError = 'No signal: your work waits on the phone'; return undefined }
+    // No signal: nothing to try; the `online` event starts the next pass.
+    if (!navigator.onLine) return undefined
     if (e.timer) clearTimeout(e.timer)
     e.running = (async () => {
       const outcome = await pass()

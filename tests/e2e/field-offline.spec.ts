@@ -289,6 +289,12 @@ test('signing out with unsynced work warns first, and keeps the work', async ({ 
   await ctx.setOffline(true)
   const text = `Waiting for the sign-out test ${Date.now()}`
   await addNote(page, text)
+  // The sync panel says what waits.
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Sync' }).click()
+  await expect(page.getByTestId('waiting-count')).toContainText('1 change waits to sync')
+  await expect(page.getByRole('region', { name: /Waiting to send/ })).toContainText(text.slice(0, 30))
+  await expect(page.getByText('No signal. Work is kept on the phone')).toBeVisible()
+  await page.screenshot({ path: 'tests/e2e/screenshots/field-sync-panel-360.png', fullPage: true })
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click()
   await page.getByRole('button', { name: 'Sign out' }).click()
   const warn = page.getByRole('alertdialog')
