@@ -21,6 +21,8 @@ export NUXT_LOGIN_MAX_FAILURES=50 NUXT_LOGIN_MAX_FAILURES_PER_ADDRESS=5000
 export NUXT_UPLOADS_DIR="$DATA/bench-uploads-$SLOT"
 
 ensure_node_modules
+# The browser benchmarks (the phone's cold start) need Chromium.
+ensure_chromium
 ensure_cluster_running
 say "fresh benchmark database $BENCH_DB"
 recreate_database "$BENCH_DB"
