@@ -43,16 +43,28 @@ const P0_GROUPS: Record<string, string> = {
 
 const DTC_PATTERN = /^([PCBU])([0-3])([0-9A-F])([0-9A-F]{2})$/
 
+// Names the first thing wrong with a code that is not J2012, so the mechanic can fix that one character.
+function dtcProblem(code: string, norm: string): string {
+  const ex = '(e.g. P0118)'
+  const oh = (ch: string) => (ch === 'O' ? ' (the letter O? type the digit 0)' : ch === 'I' ? ' (the letter I? type the digit 1)' : '')
+  if (!norm) return `No fault code given: a J2012 code is a letter P, C, B or U and four more characters ${ex}`
+  if (norm.length !== 5) return `"${code}" has ${norm.length} characters; a J2012 code has 5 ${ex}`
+  const [a, b] = [norm[0]!, norm[1]!]
+  if (!'PCBU'.includes(a)) return `"${code}" starts with "${a}": the first character must be P, C, B or U${oh(a)}`
+  if (!'0123'.includes(b)) return `"${code}": the second character must be a digit 0–3, not "${b}"${oh(b)}`
+  for (let i = 2; i < 5; i++) {
+    const ch = norm[i]!
+    if (!/[0-9A-F]/.test(ch)) return `"${code}": character ${i + 1} ("${ch}") must be a digit 0–9 or a letter A–F${oh(ch)}`
+  }
+  return `"${code}" is not a J2012 fault code ${ex}`
+}
+
 /** Parse and classify a J2012 code such as 'p0118' (case and surrounding spaces forgiven). */
 export function parseDtc(code: string): ParsedDtc {
   if (typeof code !== 'string') throw new RangeError('Fault code must be text like P0118')
   const norm = code.trim().toUpperCase()
   const m = DTC_PATTERN.exec(norm)
-  if (!m) {
-    throw new RangeError(
-      `"${code}" is not a J2012 fault code: expected a letter P, C, B or U, a digit 0–3, then three hex digits (e.g. P0118)`,
-    )
-  }
+  if (!m) throw new RangeError(dtcProblem(code, norm))
   const letter = m[1] as (typeof DTC_LETTERS)[number]
   const second = m[2] ?? ''
   const third = m[3] ?? ''
@@ -192,6 +204,9 @@ const SPN_NAMES: Readonly<Record<number, string>> = {
   175: 'Engine oil temperature',
   190: 'Engine speed',
 }
+
+/** The SPNs of our short table, for pick lists. */
+export const KNOWN_SPNS: readonly { spn: number; name: string }[] = Object.entries(SPN_NAMES).map(([spn, name]) => ({ spn: Number(spn), name }))
 
 /** Name of a well-known SPN, or undefined when it is not in our short table. */
 export function spnName(spn: number): string | undefined {

@@ -44,10 +44,15 @@ export function compareLikeSensors(
   const k = opts.k ?? 3.5
   if (typeof floor !== 'number' || !Number.isFinite(floor) || floor < 0) throw new RangeError(`floor must be a finite number, 0 or more, got ${floor}`)
   if (typeof k !== 'number' || !Number.isFinite(k) || k <= 0) throw new RangeError(`k must be a positive finite number, got ${k}`)
+  const labels = new Set<string>()
   for (const r of readings) {
     if (!r || typeof r.value !== 'number' || !Number.isFinite(r.value)) {
       throw new RangeError(`Reading "${r?.label}" must be a finite number, got ${r?.value}`)
     }
+    // Outliers are reported by label, so each sensor needs its own.
+    if (typeof r.label !== 'string' || !r.label.trim()) throw new RangeError('Every reading needs a label naming its sensor')
+    if (labels.has(r.label)) throw new RangeError(`Two readings are both labelled "${r.label}"`)
+    labels.add(r.label)
   }
   const values = readings.map((r) => r.value)
   const median = likeMedian([...values].sort((a, b) => a - b))

@@ -41,3 +41,26 @@ export function steinhartHartTemperature(ohms: number, a: number, b: number, c: 
   const ln = Math.log(ohms)
   return ntcCheckKelvin(1 / (a + b * ln + c * ln * ln * ln))
 }
+
+/**
+ * Resistance (Ω) of an NTC at tempC from a Steinhart–Hart set: the closed-form inverse of
+ * 1/T = a + b·ln R + c·(ln R)³ (a depressed cubic in ln R, one real root when b, c > 0).
+ */
+export function steinhartHartResistance(tempC: number, a: number, b: number, c: number): number {
+  if (typeof tempC !== 'number' || !Number.isFinite(tempC)) throw new RangeError(`NTC temperature must be a finite number, got ${tempC}`)
+  if (tempC <= -NTC_KELVIN) throw new RangeError(`NTC temperature ${tempC} °C is at or below absolute zero`)
+  for (const [name, v] of [['A', a], ['B', b], ['C', c]] as const) {
+    if (typeof v !== 'number' || !Number.isFinite(v)) throw new RangeError(`Steinhart–Hart coefficient ${name} must be a finite number, got ${v}`)
+  }
+  if (b <= 0 || c < 0) throw new RangeError('Steinhart–Hart coefficient B must be positive and C zero or more for an NTC')
+  const invT = 1 / (tempC + NTC_KELVIN)
+  if (c === 0) return ntcCheckOhms(Math.exp((invT - a) / b))
+  const x = (a - invT) / c
+  const y = Math.sqrt((b / (3 * c)) ** 3 + (x * x) / 4)
+  return ntcCheckOhms(Math.exp(Math.cbrt(y - x / 2) - Math.cbrt(y + x / 2)))
+}
+
+function ntcCheckOhms(ohms: number): number {
+  if (!Number.isFinite(ohms) || ohms <= 0) throw new RangeError('NTC temperature is outside what the Steinhart–Hart set can describe')
+  return ohms
+}

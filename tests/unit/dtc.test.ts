@@ -234,3 +234,17 @@ describe('spnName and describeFaultCode', () => {
     expect(() => describeFaultCode({ spn: 110, fmi: Number.NaN })).toThrow(RangeError)
   })
 })
+
+describe('parseDtc errors name what is wrong', () => {
+  it.each([
+    ['P011', /4 characters; a J2012 code has 5/],
+    ['X0118', /starts with "X": the first character must be P, C, B or U/],
+    ['P4118', /second character must be a digit 0–3, not "4"/],
+    ['PO118', /not "O" \(the letter O\? type the digit 0\)/],
+    ['P01G8', /character 4 \("G"\) must be a digit 0–9 or a letter A–F/],
+    ['', /No fault code given/],
+  ])('%j', (bad, msg) => {
+    // SAE J2012 structure: letter PCBU, digit 0–3, three hex digits
+    expect(() => parseDtc(bad)).toThrow(msg)
+  })
+})

@@ -25,6 +25,23 @@ describe('compareLikeSensors', () => {
     expect(r.items.filter((i) => i.flagged)).toHaveLength(1)
   })
 
+  it('four like sensors: one at -40 °C, three at 9–15 °C; only the -40 °C one is flagged, by 50.5 °C', () => {
+    // common practice: -40 °C is the floor many controllers report for an open sensor circuit
+    const r = compareLikeSensors([
+      { label: 'coolant', value: 9 },
+      { label: 'oil', value: 12 },
+      { label: 'intake air', value: 15 },
+      { label: 'fuel', value: -40 },
+    ])
+    // arithmetic: median (9 + 12)/2 = 10.5; deviations 1.5, 1.5, 4.5, 50.5 -> MAD 3;
+    // threshold max(5, 3.5 × 1.4826 × 3) = 15.5673
+    expect(r.median).toBe(10.5)
+    expect(r.mad).toBe(3)
+    expect(Math.abs(r.threshold - 15.5673)).toBeLessThan(1e-9)
+    expect(r.outliers).toEqual(['fuel'])
+    expect(r.items.find(i => i.label === 'fuel')?.deviation).toBe(-50.5)
+  })
+
   it('flags nothing when all agree', () => {
     // common practice: a 1–2 °C spread between like sensors is normal
     const r = compareLikeSensors([
@@ -68,6 +85,8 @@ describe('compareLikeSensors', () => {
     expect(() => compareLikeSensors([{ label: 'a', value: 1 }, { label: 'b', value: 2 }])).toThrow(/at least 3/)
     expect(() => compareLikeSensors([{ label: 'a', value: 1 }, { label: 'b', value: Number.NaN }, { label: 'c', value: 2 }])).toThrow(/"b"/)
     expect(() => compareLikeSensors([{ label: 'a', value: 1 }, { label: 'b', value: Infinity }, { label: 'c', value: 2 }])).toThrow(RangeError)
+    expect(() => compareLikeSensors([{ label: '', value: 1 }, { label: 'b', value: 2 }, { label: 'c', value: 3 }])).toThrow(/label/)
+    expect(() => compareLikeSensors([{ label: 'a', value: 1 }, { label: 'a', value: 2 }, { label: 'c', value: 3 }])).toThrow(/both labelled "a"/)
     const ok = [{ label: 'a', value: 1 }, { label: 'b', value: 2 }, { label: 'c', value: 3 }]
     expect(() => compareLikeSensors(ok, { floor: -1 })).toThrow(RangeError)
     expect(() => compareLikeSensors(ok, { k: 0 })).toThrow(RangeError)

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import { ntcResistanceBeta, ntcTemperatureBeta, steinhartHartTemperature } from '../../shared/utils/ntc'
+import { ntcResistanceBeta, ntcTemperatureBeta, steinhartHartResistance, steinhartHartTemperature } from '../../shared/utils/ntc'
 
 // Common 10 kΩ Steinhart–Hart set (REFERENCES §2, widely used)
 const SH_A = 1.129148e-3
@@ -85,5 +85,35 @@ describe('Steinhart–Hart', () => {
     expect(() => steinhartHartTemperature(10000, SH_A, Infinity, SH_C)).toThrow(RangeError)
     // A coefficient set giving 1/T <= 0 describes no physical temperature
     expect(() => steinhartHartTemperature(10000, -1, 0, 0)).toThrow(/physical/)
+  })
+})
+
+describe('steinhartHartResistance (inverse of Steinhart–Hart)', () => {
+  it.each([
+    [25, 10000, 1, 'REFERENCES §2 common 10 kΩ set: 25 °C -> 10 000 Ω (coefficients rounded)'],
+    [0, 32650, 2, 'REFERENCES §2 common 10 kΩ set: 0 °C -> 32 650 Ω'],
+    [50, 3601.0, 0.1, 'REFERENCES §2 common 10 kΩ set (C): 50 °C -> 3601.0 Ω'],
+    [100, 678.4, 0.1, 'REFERENCES §2 common 10 kΩ set (C): 100 °C -> 678.4 Ω'],
+  ])('%d °C -> %d Ω (%s)', (t, ohms, tolOhms) => {
+    // see row source
+    expect(Math.abs(steinhartHartResistance(t, SH_A, SH_B, SH_C) - ohms)).toBeLessThan(tolOhms)
+  })
+
+  it('round-trips with steinhartHartTemperature', () => {
+    // Steinhart–Hart equation: the cubic in ln R has one real root for B, C > 0
+    fc.assert(fc.property(fc.double({ min: -40, max: 150, noNaN: true }), (t) =>
+      Math.abs(steinhartHartTemperature(steinhartHartResistance(t, SH_A, SH_B, SH_C), SH_A, SH_B, SH_C) - t) < 1e-6))
+    // with C = 0 the equation is the Beta form: 1/T = A + B ln R
+    const r = steinhartHartResistance(30, 1e-3, 2.5e-4, 0)
+    expect(Math.abs(steinhartHartTemperature(r, 1e-3, 2.5e-4, 0) - 30)).toBeLessThan(1e-9)
+  })
+
+  it('rejects NaN, absolute zero and coefficients no NTC has', () => {
+    // our own input contract
+    expect(() => steinhartHartResistance(Number.NaN, SH_A, SH_B, SH_C)).toThrow(RangeError)
+    expect(() => steinhartHartResistance(-273.15, SH_A, SH_B, SH_C)).toThrow(/absolute zero/)
+    expect(() => steinhartHartResistance(25, SH_A, -1, SH_C)).toThrow(RangeError)
+    expect(() => steinhartHartResistance(25, SH_A, SH_B, -1e-7)).toThrow(RangeError)
+    expect(() => steinhartHartResistance(25, Number.NaN, SH_B, SH_C)).toThrow(RangeError)
   })
 })

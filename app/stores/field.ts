@@ -1,0 +1,202 @@
+// The mechanic's calls as kept on the phone. Every change goes to IndexedDB with its outbox op
+// in one transaction (app/utils/fieldDb.ts) and shows at once as "waiting to sync"; the sync
+// engine (useSync) carries the ops to the server later. Other screens (test cards, like-sensor
+// checks) write through addRecord / updateRecord / updateCall and read through loadCall.
+import { acceptHMRUpdate, defineStore } from 'pinia'
+import { ref } from 'vue'
+import { describeFaultCode } from '#shared/utils/dtc'
+import {
+  RECORD_COLLECTION, commitChanges, readBundle, readBundles, readOutbox,
+  type CallBundle, type DeviceRow, type LocalChange, type OutboxEntry, type RecordEntity,
+} from '../utils/fieldDb'
+import { readPhotoQueue } from '../utils/syncApply'
+import { useOutboxStore } from './outbox'
+
+export type AddableEntity = RecordEntity
+export type UpdatableEntity = 'faultCode' | 'testRun'
+
+/** A call with its records, as the phone screens show it. */
+export interface CallView {
+  call: DeviceRow
+  unit: DeviceRow | null
+  customer: DeviceRow | null
+  /** Earlier calls on the same unit, newest first. */
+  history: DeviceRow[]
+  faultCodes: DeviceRow[]
+  readings: DeviceRow[]
+  notes: DeviceRow[]
+  photos: DeviceRow[]
+  clockEvents: DeviceRow[]
+  partLines: DeviceRow[]
+  testRuns: DeviceRow[]
+  signOffs: DeviceRow[]
+  callEvents: DeviceRow[]
+  /** Open conflicts on this call. */
+  conflicts: DeviceRow[]
+  /** Ids (call, records, conflicts) that an op still waiting on the device touches. */
+  pendingIds: string[]
+  /** Ids whose op the server refused, with its reason. */
+  rejected: Record<string, string>
+  revoked: boolean
+}
+
+function codeLabel(r: DeviceRow) {
+  try { return describeFaultCode({ code: r.code as string | null, spn: r.spn as number | null, fmi: r.fmi as number | null }).label }
+  catch { return String(r.code ?? `SPN ${r.spn} FMI ${r.fmi}`) }
+}
+
+const timeOf = (r: DeviceRow) => String(r.deviceAt ?? r.at ?? r.createdAt ?? '')
+const byTime = (a: DeviceRow, b: DeviceRow) => timeOf(a).localeCompare(timeOf(b))
+
+export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: readonly OutboxEntry[]): CallView {
+  const list = (c: keyof CallBundle['records']) => Object.values(b.records[c] ?? {}).sort(byTime)
+  const mine = outbox.filter(e => e.callId === b.id)
+  const rejected: Record<string, string> = {}
+  for (const e of mine) if (e.state === 'rejected') rejected[e.entityId] = e.reason ?? 'Refused by the server'
+  const unitId = b.call.unitId
+  const seen = new Set<string>([b.id])
+  const history: DeviceRow[] = []
+  const earlier = others.filter(o => unitId && o.call.unitId === unitId)
+    .map(o => ({ ...o.call, codes: Object.values(o.records.faultCodes ?? {}).map(codeLabel) }))
+  for (const h of [...earlier, ...b.history]) {
+    if (seen.has(h.id)) continue
+    seen.add(h.id)
+    history.push(h)
+  }
+  history.sort((x, y) => String(y.receivedAt ?? '').localeCompare(String(x.receivedAt ?? '')))
+  return {
+    call: b.call, unit: b.unit, customer: b.customer, history,
+    faultCodes: list('faultCodes'), readings: list('readings'), notes: list('notes'), photos: list('photos'),
+    clockEvents: list('clockEvents'), partLines: list('partLines'), testRuns: list('testRuns'),
+    signOffs: list('signOffs'), callEvents: list('callEvents'),
+    conflicts: list('conflicts').filter(c => (c.status ?? 'open') === 'open'),
+    pendingIds: [...new Set(mine.map(e => e.entityId))],
+    rejected,
+    revoked: !!b.revoked,
+  }
+}
+
+function pick(row: Record<string, unknown>, keys: string[]) {
+  return Object.fromEntries(keys.map(k => [k, row[k] ?? null]))
+}
+
+export const useFieldStore = defineStore('field', () => {
+  /** The call open on screen, refreshed after every write to it and after every sync. */
+  const current = ref<CallView | null>(null)
+
+  async function loadCall(callId: string): Promise<CallView | null> {
+    const [bundle, all, outbox] = await Promise.all([readBundle(callId), readBundles(), readOutbox()])
+    const view = bundle ? viewOf(bundle, all.filter(o => o.id !== callId), outbox) : null
+    current.value = view
+    return view
+  }
+
+  async function afterWrite(callId: string) {
+    await useOutboxStore().noteWrite()
+    if (current.value?.call.id === callId) await loadCall(callId)
+  }
+
+  /** Adds an append-only record to a call; returns its id. */
+  async function addRecord(entity: AddableEntity, record: Record<string, unknown> & { callId: string; id?: string }): Promise<string> {
+    if (!(entity in RECORD_COLLECTION)) throw new Error(`Unknown record kind ${entity}`)
+    const { id: given, ...fields } = record
+    const id = given ?? crypto.randomUUID()
+    await commitChanges(record.callId, [createChange(entity, id, fields)])
+    await afterWrite(record.callId)
+    return id
+  }
+
+  /** Changes fields of a fault code or test run (clearing a code, adding steps to a run). */
+  async function updateRecord(entity: UpdatableEntity, id: string, changes: Record<string, unknown>, base?: Record<string, unknown>): Promise<void> {
+    const bundle = (await readBundles()).find(b => b.records[RECORD_COLLECTION[entity]]?.[id])
+    if (!bundle) throw new Error('That record is not on the phone')
+    const rec = bundle.records[RECORD_COLLECTION[entity]][id]!
+    await commitChanges(bundle.id, [{
+      entity, entityId: id, action: 'update', changes,
+      base: base ?? pick(rec, Object.keys(changes)),
+      baseVersion: typeof rec.version === 'number' ? rec.version : undefined,
+      apply: (b) => { const r = b.records[RECORD_COLLECTION[entity]][id]; if (r) Object.assign(r, changes) },
+    }])
+    await afterWrite(bundle.id)
+  }
+
+  /** Changes call fields (status, story, checklist, verification…); base is what the phone last had. */
+  async function updateCall(callId: string, changes: Record<string, unknown>): Promise<void> {
+    await writeCall(callId, changes, [])
+  }
+
+  /**
+   * A call change and records that belong with it (a status step and its clock event) in one
+   * transaction, so one never syncs without the other.
+   */
+  async function writeCall(callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity; record: Record<string, unknown> }[]) {
+    const bundle = await readBundle(callId)
+    if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
+    const list: LocalChange[] = []
+    if (Object.keys(changes).length) {
+      list.push({
+        entity: 'call', entityId: callId, action: 'update', changes,
+        base: pick(bundle.call, Object.keys(changes)),
+        baseVersion: typeof bundle.call.version === 'number' ? bundle.call.version : undefined,
+        apply: (b) => { b.call = { ...b.call, ...changes } },
+      })
+    }
+    for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId }))
+    await commitChanges(callId, list)
+    await afterWrite(callId)
+  }
+
+  /**
+   * A photo: its record op and its bytes (with their SHA-256) queued in one transaction. The
+   * bytes go up on their own queue once the server applied the record.
+   */
+  async function addPhoto(callId: string, photo: { bytes: ArrayBuffer; contentType: string; caption?: string; thumb?: string }): Promise<string> {
+    const id = crypto.randomUUID()
+    const sha256 = await sha256Hex(photo.bytes)
+    const fields: Record<string, unknown> = { callId, contentType: photo.contentType, sizeBytes: photo.bytes.byteLength, sha256 }
+    if (photo.caption) fields.caption = photo.caption
+    const change = createChange('photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
+    change.photo = { id, callId, bytes: photo.bytes, sha256, contentType: photo.contentType, size: photo.bytes.byteLength, opApplied: false, tries: 0 }
+    await commitChanges(callId, [change])
+    await afterWrite(callId)
+    return id
+  }
+
+  /** Settles a conflict with the device's value, the server's, or one typed by the mechanic. */
+  async function resolveConflict(callId: string, conflictId: string, choice: 'device' | 'server' | 'value', value?: unknown) {
+    const changes: Record<string, unknown> = { conflictId, choice }
+    if (choice === 'value') changes.value = value
+    await commitChanges(callId, [{
+      entity: 'conflictResolution', entityId: conflictId, action: 'create', changes,
+      apply: (b) => { const c = b.records.conflicts[conflictId]; if (c) c.pendingChoice = choice },
+    }])
+    await afterWrite(callId)
+  }
+
+  /** Calls on the phone with how many of their changes wait to sync. */
+  async function listCalls() {
+    const [all, outbox, photos] = await Promise.all([readBundles(), readOutbox(), readPhotoQueue()])
+    return all.map(b => ({
+      call: b.call, unit: b.unit, customer: b.customer, revoked: !!b.revoked,
+      waiting: outbox.filter(e => e.callId === b.id && e.state === 'pending').length + photos.filter(p => p.callId === b.id).length,
+      rejected: outbox.filter(e => e.callId === b.id && e.state === 'rejected').length,
+    }))
+  }
+
+  return { current, loadCall, addRecord, addPhoto, updateRecord, updateCall, writeCall, resolveConflict, listCalls }
+})
+
+/** A create op; `localOnly` fields (a thumbnail) stay on the phone and are not sent. */
+function createChange(entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {}): LocalChange {
+  return {
+    entity, entityId: id, action: 'create', changes: fields,
+    apply: (b, at) => { b.records[RECORD_COLLECTION[entity]][id] = { ...fields, ...localOnly, id, deviceAt: at } },
+  }
+}
+
+export async function sha256Hex(bytes: ArrayBuffer): Promise<string> {
+  const digest = await crypto.subtle.digest('SHA-256', bytes)
+  return [...new Uint8Array(digest)].map(b => b.toString(16).padStart(2, '0')).join('')
+}
+
+if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useFieldStore, import.meta.hot))

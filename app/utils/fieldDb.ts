@@ -1,0 +1,225 @@
+// The mechanic's records on the device and the outbox of operations that carry them to the
+// server. Every local change and its op (with the next seq) are written in ONE IndexedDB
+// transaction, so a crash or a closed tab never leaves a change without its op or a gap in seq.
+// See DESIGN.md, "Sync protocol", for the op shape.
+import { promisifyRequest } from 'idb-keyval'
+import { deviceTx } from './deviceDb'
+
+export const SCHEMA_VERSION = 1
+
+export type RecordEntity = 'reading' | 'faultCode' | 'note' | 'photo' | 'clockEvent' | 'partLine' | 'testRun' | 'signOff'
+export type OpEntity = 'call' | RecordEntity | 'conflictResolution'
+export type DeviceRow = Record<string, unknown> & { id: string }
+
+export interface Op {
+  opId: string
+  clientId: string
+  seq: number
+  at: string
+  schemaVersion: number
+  entity: OpEntity
+  entityId: string
+  action: 'create' | 'update'
+  baseVersion?: number
+  changes: Record<string, unknown>
+  base?: Record<string, unknown>
+}
+
+/** An op waiting on the device; `rejected` ones stay, with the reason, until edited or discarded. */
+export interface OutboxEntry extends Op {
+  callId: string
+  state: 'pending' | 'rejected'
+  reason?: string
+  tries: number
+}
+
+export type OpStatus = 'applied' | 'duplicate' | 'conflict' | 'rejected'
+export interface JournalEntry {
+  seq: number
+  opId: string
+  entity: OpEntity
+  entityId: string
+  callId: string
+  action: Op['action']
+  at: string
+  status: OpStatus | 'discarded'
+  reason?: string
+  doneAt: string
+  /** The op in words, kept because the journal does not keep the op's data. */
+  summary: string
+}
+
+/** Where a record entity lives in a call's bundle (and in a pull's `changes`). */
+export const RECORD_COLLECTION = {
+  reading: 'readings',
+  faultCode: 'faultCodes',
+  note: 'notes',
+  photo: 'photos',
+  clockEvent: 'clockEvents',
+  partLine: 'partLines',
+  testRun: 'testRuns',
+  signOff: 'signOffs',
+} as const satisfies Record<RecordEntity, string>
+export type Collection = (typeof RECORD_COLLECTION)[RecordEntity] | 'callEvents' | 'conflicts'
+export const BUNDLE_COLLECTIONS: Collection[] = [...Object.values(RECORD_COLLECTION), 'callEvents', 'conflicts']
+
+/** One call as the device keeps it: the call, its unit and customer, its records. */
+export interface CallBundle {
+  id: string
+  call: DeviceRow
+  unit: DeviceRow | null
+  customer: DeviceRow | null
+  history: DeviceRow[]
+  records: Record<Collection, Record<string, DeviceRow>>
+  /** The call was taken away from this mechanic while work on it still waits to sync. */
+  revoked?: boolean
+  historyFetchedAt?: string
+}
+
+export function emptyBundle(call: DeviceRow): CallBundle {
+  const records = Object.fromEntries(BUNDLE_COLLECTIONS.map(c => [c, {}])) as CallBundle['records']
+  return { id: call.id, call, unit: null, customer: null, history: [], records }
+}
+
+const META_CLIENT = 'clientId'
+const META_SEQ = 'seq'
+
+/** This installed device's id, made once and kept in IndexedDB meta. */
+export async function getClientId(): Promise<string> {
+  return deviceTx(['meta'], 'readwrite', async (tx) => {
+    const meta = tx.objectStore('meta')
+    const have = await promisifyRequest<string | undefined>(meta.get(META_CLIENT))
+    if (have) return have
+    const id = crypto.randomUUID()
+    meta.put(id, META_CLIENT)
+    return id
+  })
+}
+
+export async function getMeta<T>(key: string): Promise<T | undefined> {
+  return deviceTx(['meta'], 'readonly', tx => promisifyRequest<T | undefined>(tx.objectStore('meta').get(key)))
+}
+export async function setMeta(key: string, value: unknown): Promise<void> {
+  await deviceTx(['meta'], 'readwrite', (tx) => { tx.objectStore('meta').put(value, key) })
+}
+
+export async function setLibrary(key: string, value: unknown): Promise<void> {
+  await deviceTx(['library'], 'readwrite', (tx) => { tx.objectStore('library').put(value, key) })
+}
+
+/** What one local change does: the op to queue and how the call's bundle changes with it. */
+export interface LocalChange {
+  entity: OpEntity
+  entityId: string
+  action: Op['action']
+  changes: Record<string, unknown>
+  base?: Record<string, unknown>
+  baseVersion?: number
+  apply?: (bundle: CallBundle, at: string) => void
+  /** A photo's bytes, queued for upload in the same transaction as the op that creates it. */
+  photo?: QueuedPhoto
+}
+
+/** Photo bytes waiting for upload; ArrayBuffer, since Blobs in IndexedDB fail on some phones. */
+export interface QueuedPhoto {
+  id: string
+  callId: string
+  bytes: ArrayBuffer
+  sha256: string
+  contentType: string
+  size: number
+  /** The server applied the op creating the photo; only then are the bytes sent. */
+  opApplied: boolean
+  tries: number
+  lastError?: string
+}
+
+/**
+ * Writes several changes to one call and their ops, with contiguous seqs, in one transaction.
+ * Returns the ops written.
+ */
+export async function commitChanges(callId: string, list: LocalChange[]): Promise<Op[]> {
+  const clientId = await getClientId()
+  return deviceTx(['meta', 'calls', 'outbox', 'photos'], 'readwrite', async (tx) => {
+    const meta = tx.objectStore('meta')
+    const callsStore = tx.objectStore('calls')
+    const bundle = await promisifyRequest<CallBundle | undefined>(callsStore.get(callId))
+    if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
+    let seq = (await promisifyRequest<number | undefined>(meta.get(META_SEQ))) ?? 0
+    const at = new Date().toISOString()
+    const ops: Op[] = []
+    for (const c of list) {
+      seq += 1
+      const op: Op = {
+        opId: crypto.randomUUID(), clientId, seq, at, schemaVersion: SCHEMA_VERSION,
+        entity: c.entity, entityId: c.entityId, action: c.action, changes: c.changes,
+      }
+      if (c.base) op.base = c.base
+      if (c.baseVersion !== undefined) op.baseVersion = c.baseVersion
+      c.apply?.(bundle, at)
+      if (c.photo) tx.objectStore('photos').put(c.photo, c.photo.id)
+      const entry: OutboxEntry = { ...op, callId, state: 'pending', tries: 0 }
+      tx.objectStore('outbox').put(entry, seq)
+      ops.push(op)
+    }
+    meta.put(seq, META_SEQ)
+    callsStore.put(bundle, callId)
+    return ops
+  })
+}
+
+export async function readOutbox(): Promise<OutboxEntry[]> {
+  return deviceTx(['outbox'], 'readonly', async tx => (await promisifyRequest<OutboxEntry[]>(tx.objectStore('outbox').getAll())).sort((a, b) => a.seq - b.seq))
+}
+
+export async function readJournal(limit = 100): Promise<JournalEntry[]> {
+  const all = await deviceTx(['journal'], 'readonly', tx => promisifyRequest<JournalEntry[]>(tx.objectStore('journal').getAll()))
+  return all.sort((a, b) => b.seq - a.seq).slice(0, limit)
+}
+
+export async function readBundle(callId: string): Promise<CallBundle | undefined> {
+  return deviceTx(['calls'], 'readonly', tx => promisifyRequest<CallBundle | undefined>(tx.objectStore('calls').get(callId)))
+}
+
+export async function readBundles(): Promise<CallBundle[]> {
+  return deviceTx(['calls'], 'readonly', tx => promisifyRequest<CallBundle[]>(tx.objectStore('calls').getAll()))
+}
+
+/** Lays pending changes over a server row, oldest first, so the device shows its own edits. */
+export function overlayPending(row: DeviceRow, ops: readonly Pick<Op, 'changes'>[]): DeviceRow {
+  let out = row
+  for (const op of ops) out = { ...out, ...op.changes }
+  return out
+}
+
+/** Ops still waiting (or rejected), by the id of the record they touch. */
+export function waitingByEntity(outbox: readonly OutboxEntry[]): Map<string, OutboxEntry[]> {
+  const m = new Map<string, OutboxEntry[]>()
+  for (const e of outbox) {
+    const list = m.get(e.entityId) ?? []
+    list.push(e)
+    m.set(e.entityId, list)
+  }
+  return m
+}
+
+/**
+ * Ties the device's records to the person signed in. Another person's calls never show: with
+ * nothing waiting, the device is cleared for the new person (new client id, fresh pull); with
+ * work still waiting, it stays untouched for its owner and 'foreign' is answered.
+ */
+export async function claimDevice(userId: string): Promise<'mine' | 'cleared' | 'foreign'> {
+  return deviceTx(['meta', 'calls', 'library', 'outbox', 'photos', 'journal'], 'readwrite', async (tx) => {
+    const meta = tx.objectStore('meta')
+    const owner = await promisifyRequest<string | undefined>(meta.get('ownerId'))
+    if (owner === userId) return 'mine'
+    if (owner === undefined) { meta.put(userId, 'ownerId'); return 'mine' }
+    const waiting = await promisifyRequest<number>(tx.objectStore('outbox').count())
+    const photos = await promisifyRequest<number>(tx.objectStore('photos').count())
+    if (waiting + photos > 0) return 'foreign'
+    for (const s of ['calls', 'library', 'journal'] as const) tx.objectStore(s).clear()
+    for (const k of [META_CLIENT, META_SEQ, 'cursor', 'serverLastSeq', 'lastSyncAt', 'positionSentAt']) meta.delete(k)
+    meta.put(userId, 'ownerId')
+    return 'cleared'
+  })
+}

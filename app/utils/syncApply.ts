@@ -1,0 +1,225 @@
+// Applying the server's answers to the device: push results take ops out of the outbox (only
+// for applied, duplicate or conflict), pull changes replace local copies unless an op still
+// waiting on the device touches them.
+import { promisifyRequest } from 'idb-keyval'
+import { deviceTx } from './deviceDb'
+import {
+  BUNDLE_COLLECTIONS, RECORD_COLLECTION, emptyBundle, overlayPending, waitingByEntity,
+  type CallBundle, type Collection, type DeviceRow, type JournalEntry, type OutboxEntry, type QueuedPhoto, type RecordEntity,
+} from './fieldDb'
+import { opSummary } from './opSummary'
+import type { PullAnswer, PushResult } from './syncWire'
+
+const JOURNAL_KEEP = 300
+
+function journalOf(e: OutboxEntry, status: JournalEntry['status'], reason?: string | null): JournalEntry {
+  const j: JournalEntry = {
+    seq: e.seq, opId: e.opId, entity: e.entity, entityId: e.entityId, callId: e.callId, action: e.action, at: e.at,
+    status, doneAt: new Date().toISOString(), summary: opSummary(e),
+  }
+  if (reason) j.reason = reason
+  return j
+}
+
+async function trimJournal(store: IDBObjectStore) {
+  const keys = (await promisifyRequest<IDBValidKey[]>(store.getAllKeys())) as number[]
+  if (keys.length <= JOURNAL_KEEP) return
+  keys.sort((a, b) => a - b)
+  for (const k of keys.slice(0, keys.length - JOURNAL_KEEP)) store.delete(k)
+}
+
+/** Records what the server said about each sent op. Returns how many of them it answered. */
+export async function applyPushResults(sent: readonly OutboxEntry[], answer: PushResult): Promise<number> {
+  const byOp = new Map(sent.map(e => [e.opId, e]))
+  return deviceTx(['outbox', 'journal', 'photos', 'calls'], 'readwrite', async (tx) => {
+    const outbox = tx.objectStore('outbox')
+    const journal = tx.objectStore('journal')
+    const photos = tx.objectStore('photos')
+    let answered = 0
+    for (const r of answer.results) {
+      const e = byOp.get(r.opId)
+      if (!e) continue
+      answered++
+      if (r.status === 'rejected') {
+        outbox.put({ ...e, state: 'rejected', reason: r.reason ?? 'Refused by the server', tries: e.tries + 1 } satisfies OutboxEntry, e.seq)
+        journal.put(journalOf(e, 'rejected', r.reason), e.seq)
+        continue
+      }
+      outbox.delete(e.seq)
+      journal.put(journalOf(e, r.status, r.reason), e.seq)
+      if (e.entity === 'photo' && e.action === 'create') {
+        const p = await promisifyRequest<QueuedPhoto | undefined>(photos.get(e.entityId))
+        if (p) photos.put({ ...p, opApplied: true }, p.id)
+      }
+    }
+    // Ops the answer did not mention stay pending, counted as one more try.
+    const named = new Set(answer.results.map(r => r.opId))
+    for (const e of sent) if (!named.has(e.opId)) outbox.put({ ...e, tries: e.tries + 1 }, e.seq)
+    await trimJournal(journal)
+    return answered
+  })
+}
+
+/**
+ * After a 409 the server expects `expectedSeq` next. Ops below it are already stored there (their
+ * answer was lost): they leave the outbox as duplicates. If the outbox starts above it (a gap),
+ * the waiting ops, none of which the server has, are numbered on from `expectedSeq`.
+ */
+export async function realignSeq(expectedSeq: number): Promise<void> {
+  await deviceTx(['outbox', 'journal', 'meta', 'photos'], 'readwrite', async (tx) => {
+    const outbox = tx.objectStore('outbox')
+    const all = (await promisifyRequest<OutboxEntry[]>(outbox.getAll())).sort((a, b) => a.seq - b.seq)
+    const waiting = all.filter(e => e.state === 'pending')
+    for (const e of waiting.filter(x => x.seq < expectedSeq)) {
+      outbox.delete(e.seq)
+      tx.objectStore('journal').put(journalOf(e, 'duplicate', 'Already stored on the server'), e.seq)
+      if (e.entity === 'photo' && e.action === 'create') {
+        const p = await promisifyRequest<QueuedPhoto | undefined>(tx.objectStore('photos').get(e.entityId))
+        if (p) tx.objectStore('photos').put({ ...p, opApplied: true }, p.id)
+      }
+    }
+    const rest = waiting.filter(x => x.seq >= expectedSeq)
+    if (rest.length && rest[0]!.seq > expectedSeq) {
+      for (const e of rest) outbox.delete(e.seq)
+      let seq = expectedSeq - 1
+      for (const e of rest) { seq += 1; outbox.put({ ...e, seq }, seq) }
+      // Read in this transaction, so an op written meanwhile by another tab is renumbered too.
+      tx.objectStore('meta').put(seq, 'seq')
+    }
+  })
+}
+
+/** Drops a refused op; a refused create also takes its local record (and photo bytes) away. */
+export async function discardRejected(seq: number): Promise<void> {
+  await deviceTx(['outbox', 'journal', 'calls', 'photos'], 'readwrite', async (tx) => {
+    const e = await promisifyRequest<OutboxEntry | undefined>(tx.objectStore('outbox').get(seq))
+    if (!e || e.state !== 'rejected') throw new Error('Only a change the server refused can be discarded')
+    tx.objectStore('outbox').delete(seq)
+    tx.objectStore('journal').put(journalOf(e, 'discarded', e.reason), seq)
+    const calls = tx.objectStore('calls')
+    const b = await promisifyRequest<CallBundle | undefined>(calls.get(e.callId))
+    if (b && e.action === 'create' && e.entity in RECORD_COLLECTION) {
+      delete b.records[RECORD_COLLECTION[e.entity as RecordEntity]][e.entityId]
+      calls.put(b, b.id)
+    }
+    else if (b && e.action === 'update' && e.base) {
+      const target = e.entity === 'call' ? b.call : b.records[RECORD_COLLECTION[e.entity as RecordEntity]]?.[e.entityId]
+      if (target) Object.assign(target, e.base)
+      calls.put(b, b.id)
+    }
+    if (e.entity === 'photo') tx.objectStore('photos').delete(e.entityId)
+  })
+}
+
+export async function readPhotoQueue(): Promise<QueuedPhoto[]> {
+  return deviceTx(['photos'], 'readonly', tx => promisifyRequest<QueuedPhoto[]>(tx.objectStore('photos').getAll()))
+}
+
+/** The server confirmed these bytes: the device's copy goes, the record shows it as uploaded. */
+export async function photoConfirmed(id: string, sha256: string): Promise<void> {
+  await deviceTx(['photos', 'calls'], 'readwrite', async (tx) => {
+    const p = await promisifyRequest<QueuedPhoto | undefined>(tx.objectStore('photos').get(id))
+    if (!p || p.sha256.toLowerCase() !== sha256.toLowerCase()) return
+    tx.objectStore('photos').delete(id)
+    const calls = tx.objectStore('calls')
+    const b = await promisifyRequest<CallBundle | undefined>(calls.get(p.callId))
+    const rec = b?.records.photos[id]
+    if (b && rec) { rec.uploadedAt = rec.uploadedAt ?? new Date().toISOString(); calls.put(b, b.id) }
+  })
+}
+
+export async function photoFailed(id: string, error: string): Promise<void> {
+  await deviceTx(['photos'], 'readwrite', async (tx) => {
+    const p = await promisifyRequest<QueuedPhoto | undefined>(tx.objectStore('photos').get(id))
+    if (p) tx.objectStore('photos').put({ ...p, tries: p.tries + 1, lastError: error }, id)
+  })
+}
+
+type Library = { units?: Record<string, DeviceRow>; customers?: Record<string, DeviceRow> }
+
+/** Applies one pull answer; returns the ids of calls that changed. */
+export async function applyPull(answer: PullAnswer): Promise<string[]> {
+  return deviceTx(['calls', 'library', 'outbox', 'meta'], 'readwrite', async (tx) => {
+    const callsStore = tx.objectStore('calls')
+    const lib = tx.objectStore('library')
+    const waiting = waitingByEntity(await promisifyRequest<OutboxEntry[]>(tx.objectStore('outbox').getAll()))
+    const ops = (id: string) => (waiting.get(id) ?? []).sort((a, b) => a.seq - b.seq)
+    const bundles = new Map((await promisifyRequest<CallBundle[]>(callsStore.getAll())).map(b => [b.id, b]))
+    const changed = new Set<string>()
+    const ch = answer.changes
+
+    const lookups: Library = {}
+    for (const key of ['units', 'customers'] as const) {
+      const map = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get(key))) ?? {}
+      for (const r of ch[key]) map[r.id] = r
+      if (ch[key].length) lib.put(map, key)
+      lookups[key] = map
+    }
+    for (const row of ch.calls) {
+      const b = bundles.get(row.id) ?? emptyBundle(row)
+      b.call = overlayPending(row, ops(row.id).filter(o => o.entity === 'call'))
+      delete b.revoked
+      bundles.set(row.id, b)
+      changed.add(row.id)
+    }
+    const upsert = (coll: Collection, row: DeviceRow) => {
+      const callId = String(row.callId ?? '')
+      const b = bundles.get(callId)
+      if (!b) return
+      b.records[coll] ??= {}
+      const mine = ops(row.id).filter(o => o.entity !== 'call')
+      const local = b.records[coll][row.id]
+      b.records[coll][row.id] = mine.length ? overlayPending({ ...local, ...row }, mine) : row
+      changed.add(callId)
+    }
+    for (const coll of BUNDLE_COLLECTIONS) for (const row of (ch[coll] ?? []) as DeviceRow[]) upsert(coll, row)
+    for (const row of answer.conflicts) upsert('conflicts', row)
+    // A change answered `conflict` left the server's value in place without touching its row,
+    // so the row does not come again: take the server's value from the new conflict instead.
+    const pulledCalls = new Set(ch.calls.map(c => c.id))
+    for (const c of ch.conflicts) {
+      const b = bundles.get(String(c.callId ?? ''))
+      const field = String(c.field ?? '')
+      if (!b || (c.status ?? 'open') !== 'open' || !field) continue
+      const touched = (id: string) => ops(id).some(o => field in o.changes)
+      if (c.entity === 'call' && !pulledCalls.has(b.id) && !touched(b.id)) b.call = { ...b.call, [field]: c.serverValue }
+      else if (c.entity !== 'call' && !touched(String(c.entityId))) {
+        const coll = RECORD_COLLECTION[c.entity as RecordEntity]
+        const rec = coll ? b.records[coll]?.[String(c.entityId)] : undefined
+        if (rec) rec[field] = c.serverValue
+      }
+      changed.add(b.id)
+    }
+
+    for (const b of bundles.values()) {
+      const unit = b.call.unitId ? lookups.units?.[String(b.call.unitId)] : undefined
+      const customer = lookups.customers?.[String(b.call.customerId)]
+      if (unit && unit !== b.unit) { b.unit = unit; changed.add(b.id) }
+      if (customer && customer !== b.customer) { b.customer = customer; changed.add(b.id) }
+    }
+    for (const id of answer.revokedCallIds) {
+      const b = bundles.get(id)
+      if (!b) continue
+      const stillWaiting = [...waiting.values()].some(list => list.some(e => e.callId === id))
+      if (stillWaiting) { b.revoked = true; changed.add(id) }
+      else { callsStore.delete(id); bundles.delete(id); changed.delete(id) }
+    }
+    for (const id of changed) { const b = bundles.get(id); if (b) callsStore.put(b, id) }
+
+    const rateRows = Array.isArray(ch.rates) ? ch.rates : ch.rates ? [ch.rates] : []
+    if (rateRows.length) {
+      const rates = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('rates'))) ?? {}
+      for (const r of rateRows) rates[r.id] = r
+      lib.put(rates, 'rates')
+    }
+    const meta = tx.objectStore('meta')
+    meta.put(answer.cursor, 'cursor')
+    meta.put(answer.lastSeq, 'serverLastSeq')
+    return [...changed]
+  })
+}
+
+/** One entry of the device's library (test cards, rates, units, customers, truck stock). */
+export async function readLibrary<T = unknown>(key: string): Promise<T | undefined> {
+  return deviceTx(['library'], 'readonly', tx => promisifyRequest<T | undefined>(tx.objectStore('library').get(key)))
+}

@@ -1,0 +1,503 @@
+// Applies a push's fresh ops inside the push transaction. Creates are gathered per entity and
+// written with one multi-row INSERT each (flushed before any update, so an update sees the rows
+// created before it); updates and conflict settlements run one by one, each in a savepoint so a
+// row the database refuses rejects only that op.
+import { eq, inArray, sql, type SQL } from 'drizzle-orm'
+import type { PgTable } from 'drizzle-orm/pg-core'
+import type { User } from '#auth-utils'
+import {
+  conflictResolutionSchema, createSchemas, updateSchemas,
+  type ChildCreate, type ChildEntity, type Op,
+} from '#shared/schemas/sync'
+import { judge } from '#shared/utils/spec'
+import type { z } from 'zod'
+import type { Tx } from '../db'
+import { outcomeProblem, writeCallChanges, type CallRow } from './callWrite'
+import { resolveConflictInTx, SyncRuleError } from './conflicts'
+import { bulkInsert, bulkInsertSql } from './bulk'
+import { mergeCallField, sameSyncValue, stableSyncJson } from './merge'
+import { isRetryableTxError, pgErrorCode } from './retry'
+
+export type OpOutcome = { status: 'applied' | 'conflict' | 'rejected'; version?: number; reason?: string }
+
+type Parsed =
+  | { kind: 'bad'; reason: string }
+  | { kind: 'create'; entity: ChildEntity; data: Record<string, unknown> }
+  | { kind: 'callUpdate'; data: Record<string, unknown> }
+  | { kind: 'childUpdate'; entity: 'faultCode' | 'testRun'; data: Record<string, unknown> }
+  | { kind: 'resolution'; data: z.output<typeof conflictResolutionSchema>; hasValue: boolean }
+
+const rejected = (reason: string): OpOutcome => ({ status: 'rejected', reason })
+const FORBIDDEN = 'forbidden'
+
+const ENTITY_WORDS: Record<ChildEntity, string> = {
+  reading: 'reading', faultCode: 'fault code', note: 'note', photo: 'photo', clockEvent: 'clock event',
+  partLine: 'part line', testRun: 'test run', signOff: 'sign-off',
+}
+
+/** Zod issues as one reason naming each field ("value: Invalid input: expected number…"). */
+export function syncIssuesReason(error: z.ZodError, entity: string): string {
+  const parts: string[] = []
+  for (const issue of error.issues) {
+    if (issue.code === 'unrecognized_keys') {
+      for (const key of issue.keys) parts.push(`${key}: not a field of a ${entity} a device may change`)
+      continue
+    }
+    const key = issue.path.map(String).join('.') || 'changes'
+    if (!parts.some(p => p.startsWith(`${key}: `))) parts.push(`${key}: ${issue.message}`)
+  }
+  return parts.join('; ')
+}
+
+function parseOp(op: Op): Parsed {
+  const { entity, action, changes } = op
+  if (entity === 'conflictResolution') {
+    const r = conflictResolutionSchema.safeParse(changes)
+    return r.success ? { kind: 'resolution', data: r.data, hasValue: 'value' in changes } : { kind: 'bad', reason: syncIssuesReason(r.error, 'conflict resolution') }
+  }
+  if (entity === 'call') {
+    if (action === 'create') return { kind: 'bad', reason: 'action: calls are taken by dispatch, not created by sync' }
+    if (!Object.keys(changes).length) return { kind: 'bad', reason: 'changes: nothing to change' }
+    const r = updateSchemas.call.safeParse(changes)
+    return r.success ? { kind: 'callUpdate', data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, 'call') }
+  }
+  if (action === 'update') {
+    if (entity !== 'faultCode' && entity !== 'testRun') return { kind: 'bad', reason: `action: ${ENTITY_WORDS[entity]}s are append-only` }
+    if (!Object.keys(changes).length) return { kind: 'bad', reason: 'changes: nothing to change' }
+    const r = updateSchemas[entity].safeParse(changes)
+    return r.success ? { kind: 'childUpdate', entity, data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
+  }
+  // An `id` among the fields must be the op's; the schema leaves it out of the parsed record.
+  if (changes.id !== undefined && changes.id !== op.entityId) return { kind: 'bad', reason: 'id: differs from the op entityId' }
+  const r = createSchemas[entity].safeParse(changes)
+  return r.success ? { kind: 'create', entity, data: r.data as Record<string, unknown> } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
+}
+
+const TABLE: Record<ChildEntity, PgTable & { id: any; version: any; callId: any }> = {
+  reading: tables.readings, faultCode: tables.faultCodes, note: tables.notes, photo: tables.photos,
+  clockEvent: tables.clockEvents, partLine: tables.partLines, testRun: tables.testRuns, signOff: tables.signOffs,
+}
+// Test runs first: readings may point at a run created in the same push.
+const FLUSH_ORDER: ChildEntity[] = ['testRun', 'faultCode', 'reading', 'note', 'photo', 'clockEvent', 'partLine', 'signOff']
+/** Columns that are not the record's content, left out when a repeated create is compared. */
+const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt'])
+
+const toDate = (v: unknown) => (typeof v === 'string' ? new Date(v) : null)
+
+type Row = Record<string, unknown> & { id: string; callId: string }
+type Pending = { index: number; row: Row }
+
+/** What the push already knows about rows its ops point at, fetched in a few queries up front. */
+interface Refs {
+  testRuns: Map<string, string> // id → callId (in the database or created earlier in this push)
+  cardVersions: Set<string> // `${cardId}:${version}`
+  trucks: Set<string>
+  stock: Map<string, { unitPriceCents: number; coreChargeCents: number }> // `${truckId}:${partNumber}`
+  signedCalls: Map<string, string> // callId → sign-off id
+}
+
+function isDataError(err: unknown) {
+  const code = pgErrorCode(err)
+  return !!code && (code.startsWith('22') || code.startsWith('23'))
+}
+/** Why the database refused a row, naming the field where it can tell. */
+function dbReason(err: unknown, values: Record<string, unknown>) {
+  const cause = ((err as { cause?: unknown }).cause ?? err) as { message?: string; column?: string; constraint?: string }
+  // A NUL deep inside a JSON value is the one refusal the schemas cannot see; find its field.
+  const nul = Object.keys(values).find(k => stableSyncJson(values[k]).includes('\\u0000'))
+  const what = cause.column ?? nul ?? cause.constraint ?? 'record'
+  return `${what}: the database refused it (${cause.message ?? 'invalid'})`
+}
+
+export class SyncApplier {
+  readonly results: OpOutcome[]
+  private parsed: Parsed[]
+  private calls = new Map<string, CallRow>()
+  private refs: Refs = { testRuns: new Map(), cardVersions: new Set(), trucks: new Set(), stock: new Map(), signedCalls: new Map() }
+  private buffers = new Map<ChildEntity, Pending[]>()
+  private sp = 0
+  /** Fast pass only: inserts left for the push's closing statement. */
+  deferred: SQL[] = []
+
+  /**
+   * careful = false: no savepoints, the fast path; a row the database refuses aborts the push,
+   * which then runs again with careful = true, where savepoints find the bad op and reject only it.
+   */
+  constructor(private tx: Tx, private user: User, private ops: Op[], private limits: { photoMaxBytes: number }, private careful = false) {
+    this.results = ops.map(() => ({ status: 'rejected' }))
+    this.parsed = ops.map(parseOp)
+  }
+
+  async run(): Promise<OpOutcome[]> {
+    await this.load()
+    for (let i = 0; i < this.ops.length; i++) {
+      const p = this.parsed[i]!
+      const op = this.ops[i]!
+      if (p.kind === 'bad') this.results[i] = rejected(p.reason)
+      else if (p.kind === 'create') this.queueCreate(i, op, p.entity, p.data)
+      else {
+        await this.flush()
+        this.results[i] = await this.inSavepoint(op.changes, () =>
+          p.kind === 'callUpdate' ? this.callUpdate(op, p.data)
+          : p.kind === 'childUpdate' ? this.childUpdate(op, p.entity, p.data)
+          : this.resolution(p.data, p.hasValue))
+      }
+    }
+    if (this.careful) await this.flush()
+    else this.deferred = this.deferFlush()
+    return this.results
+  }
+
+  /**
+   * Fast pass: the creates left at the end become plain INSERTs the push sends together with
+   * its stored results, in one statement. Any clash (an id that exists already) or refusal fails
+   * that statement, and the careful pass then compares and rejects op by op.
+   */
+  private deferFlush(): SQL[] {
+    const out: SQL[] = []
+    for (const entity of FLUSH_ORDER) {
+      const pending = this.buffers.get(entity)
+      if (!pending?.length) continue
+      this.buffers.delete(entity)
+      const first = new Map<string, Pending>()
+      for (const p of pending) {
+        const f = first.get(p.row.id)
+        if (!f) { first.set(p.row.id, p); this.results[p.index] = { status: 'applied', version: 1 }; continue }
+        const same = Object.keys(p.row).every(k => NOT_CONTENT.has(k) || sameSyncValue(p.row[k], f.row[k]))
+        this.results[p.index] = same ? { status: 'applied', version: 1 } : rejected(`entityId: a different ${ENTITY_WORDS[entity]} already has this id`)
+      }
+      out.push(bulkInsertSql(TABLE[entity], [...first.values()].map(p => p.row), { returning: false, skipClashes: false }))
+    }
+    return out
+  }
+
+  // ── Loading ─────────────────────────────────────────────────────────────────────────────
+  private async load() {
+    const { tx } = this
+    const callIds = new Set<string>()
+    const runIds = new Set<string>(), cardIds = new Set<string>(), truckIds = new Set<string>(), signCalls = new Set<string>()
+    const conflictIds: string[] = []
+    this.parsed.forEach((p, i) => {
+      if (p.kind === 'create') {
+        callIds.add(p.data.callId as string)
+        if (p.entity === 'reading' && p.data.testRunId) runIds.add(p.data.testRunId as string)
+        if (p.entity === 'testRun') cardIds.add(p.data.cardId as string)
+        if (p.entity === 'partLine' && p.data.serviceTruckId) truckIds.add(p.data.serviceTruckId as string)
+        if (p.entity === 'signOff') signCalls.add(p.data.callId as string)
+      }
+      else if (p.kind === 'callUpdate') callIds.add(this.ops[i]!.entityId)
+      else if (p.kind === 'resolution') conflictIds.push(p.data.conflictId)
+    })
+    if (conflictIds.length) {
+      const rows = await tx.select({ callId: tables.conflicts.callId }).from(tables.conflicts).where(inArray(tables.conflicts.id, conflictIds))
+      for (const r of rows) callIds.add(r.callId)
+    }
+    // One statement, in id order, so concurrent pushes take the call locks in the same order.
+    if (callIds.size) {
+      const rows = await tx.select().from(tables.calls).where(inArray(tables.calls.id, [...callIds])).orderBy(tables.calls.id).for('no key update')
+      for (const r of rows) this.calls.set(r.id, r)
+    }
+    const jobs: Promise<void>[] = []
+    if (runIds.size) {
+      jobs.push(tx.select({ id: tables.testRuns.id, callId: tables.testRuns.callId }).from(tables.testRuns).where(inArray(tables.testRuns.id, [...runIds]))
+        .then((rows) => { for (const r of rows) this.refs.testRuns.set(r.id, r.callId) }))
+    }
+    if (cardIds.size) {
+      jobs.push(tx.select({ cardId: tables.testCardVersions.cardId, v: tables.testCardVersions.cardVersion }).from(tables.testCardVersions)
+        .where(inArray(tables.testCardVersions.cardId, [...cardIds]))
+        .then((rows) => { for (const r of rows) this.refs.cardVersions.add(`${r.cardId}:${r.v}`) }))
+    }
+    if (truckIds.size) {
+      jobs.push(tx.select({ id: tables.serviceTrucks.id }).from(tables.serviceTrucks).where(inArray(tables.serviceTrucks.id, [...truckIds]))
+        .then((rows) => { for (const r of rows) this.refs.trucks.add(r.id) }))
+      const s = tables.truckStock
+      jobs.push(tx.select({ truckId: s.truckId, partNumber: s.partNumber, unitPriceCents: s.unitPriceCents, coreChargeCents: s.coreChargeCents })
+        .from(s).where(inArray(s.truckId, [...truckIds]))
+        .then((rows) => { for (const r of rows) this.refs.stock.set(`${r.truckId}:${r.partNumber}`, r) }))
+    }
+    if (signCalls.size) {
+      jobs.push(tx.select({ id: tables.signOffs.id, callId: tables.signOffs.callId }).from(tables.signOffs).where(inArray(tables.signOffs.callId, [...signCalls]))
+        .then((rows) => { for (const r of rows) this.refs.signedCalls.set(r.callId, r.id) }))
+    }
+    // Sequential on the one connection anyway; Promise.all just keeps the code flat.
+    await Promise.all(jobs)
+  }
+
+  /** The call of a record an op changes in place; read, not locked (the record's row is). */
+  private async callOf(id: string): Promise<CallRow | undefined> {
+    const known = this.calls.get(id)
+    if (known) return known
+    const [row] = await this.tx.select().from(tables.calls).where(eq(tables.calls.id, id))
+    return row
+  }
+
+  /** A reason to refuse the user this call, or undefined when they may write to it. */
+  private accessProblem(call: CallRow | undefined): string | undefined {
+    if (this.user.role === 'mechanic') return call && call.mechanicId === this.user.id ? undefined : FORBIDDEN
+    return call ? undefined : 'callId: no such call'
+  }
+
+  // ── Creates ─────────────────────────────────────────────────────────────────────────────
+  private queueCreate(index: number, op: Op, entity: ChildEntity, data: Record<string, unknown>) {
+    const call = this.calls.get(data.callId as string)
+    const problem = this.accessProblem(call)
+    if (problem) { this.results[index] = rejected(problem); return }
+    const built = this.buildRow(entity, op, data)
+    if (typeof built === 'string') { this.results[index] = rejected(built); return }
+    if (entity === 'testRun') this.refs.testRuns.set(built.id, built.callId)
+    if (entity === 'signOff') {
+      const existing = this.refs.signedCalls.get(built.callId)
+      if (existing && existing !== built.id) { this.results[index] = rejected('callId: this call already has a sign-off'); return }
+      this.refs.signedCalls.set(built.callId, built.id)
+    }
+    const list = this.buffers.get(entity) ?? []
+    list.push({ index, row: built })
+    this.buffers.set(entity, list)
+  }
+
+  /**
+   * The full row for a create (every column set, so a repeated create compares completely).
+   * Written out field by field: object spread in this hot path costs more than the insert.
+   */
+  private buildRow(entity: ChildEntity, op: Op, data: Record<string, unknown>): Row | string {
+    const id = op.entityId
+    const callId = data.callId as string
+    const createdBy = this.user.id
+    const deviceAt = new Date(op.at)
+    switch (entity) {
+      case 'reading': {
+        const d = data as ChildCreate<'reading'>
+        if (d.testRunId && this.refs.testRuns.get(d.testRunId) !== d.callId) return 'testRunId: no such test run on this call'
+        let verdict = d.verdict ?? null
+        // The server judges again when the spec is one it can read; the device's verdict is a hint.
+        if (d.spec) { try { verdict = judge(d.value, d.spec) } catch {} }
+        return {
+          id, callId, createdBy, deviceAt, testRunId: d.testRunId ?? null, stepId: d.stepId ?? null, label: d.label,
+          quantity: d.quantity, value: d.value, unit: d.unit, component: d.component ?? null, pins: d.pins ?? null,
+          conditions: d.conditions ?? null, partRole: d.partRole ?? null, spec: d.spec ?? null, verdict,
+        }
+      }
+      case 'faultCode': {
+        const d = data as ChildCreate<'faultCode'>
+        return {
+          id, callId, createdBy, deviceAt, code: d.code ?? null, spn: d.spn ?? null, fmi: d.fmi ?? null, state: d.state ?? 'active',
+          count: d.count ?? 1, source: d.source ?? null, clearedAt: toDate(d.clearedAt), note: d.note ?? null,
+        }
+      }
+      case 'note': return { id, callId, createdBy, deviceAt, text: (data as ChildCreate<'note'>).text }
+      case 'clockEvent': return { id, callId, createdBy, deviceAt, kind: (data as ChildCreate<'clockEvent'>).kind }
+      case 'photo': {
+        const d = data as ChildCreate<'photo'>
+        if (d.sizeBytes > this.limits.photoMaxBytes) return `sizeBytes: larger than the ${this.limits.photoMaxBytes}-byte photo limit`
+        return { id, callId, createdBy, deviceAt, sha256: d.sha256, contentType: d.contentType, sizeBytes: d.sizeBytes, caption: d.caption ?? null }
+      }
+      case 'partLine': {
+        const d = data as ChildCreate<'partLine'>
+        if (d.serviceTruckId && !this.refs.trucks.has(d.serviceTruckId)) return 'serviceTruckId: no such service truck'
+        const stock = d.serviceTruckId ? this.refs.stock.get(`${d.serviceTruckId}:${d.partNumber}`) : undefined
+        return {
+          id, callId, createdBy, deviceAt, partNumber: d.partNumber, description: d.description, quantity: d.quantity,
+          unitPriceCents: d.unitPriceCents ?? stock?.unitPriceCents ?? 0, coreChargeCents: d.coreChargeCents ?? stock?.coreChargeCents ?? 0,
+          serviceTruckId: d.serviceTruckId ?? null,
+        }
+      }
+      case 'testRun': {
+        const d = data as ChildCreate<'testRun'>
+        if (!this.refs.cardVersions.has(`${d.cardId}:${d.cardVersion}`)) return 'cardVersion: no such version of this test card'
+        return {
+          id, callId, createdBy, deviceAt, cardId: d.cardId, cardVersion: d.cardVersion, ambientC: d.ambientC ?? null, steps: d.steps,
+          conclusion: d.conclusion ?? null, finishedAt: toDate(d.finishedAt),
+        }
+      }
+      case 'signOff': {
+        const d = data as ChildCreate<'signOff'>
+        return { id, callId, createdBy, deviceAt, driverName: d.driverName, signature: d.signature }
+      }
+    }
+  }
+
+  private async flush() {
+    for (const entity of FLUSH_ORDER) {
+      const pending = this.buffers.get(entity)
+      if (!pending?.length) continue
+      this.buffers.delete(entity)
+      await this.insertAll(entity, pending)
+    }
+  }
+
+  private async insertAll(entity: ChildEntity, pending: Pending[]) {
+    const table = TABLE[entity]
+    // A second create of the same id in one push is compared with the first, after it is written.
+    const first = new Map<string, Pending>()
+    for (const p of pending) if (!first.has(p.row.id)) first.set(p.row.id, p)
+    const rows = [...first.values()]
+    const inserted = new Map<string, number>()
+    const refused = new Map<string, string>()
+    try {
+      const out = await this.inSavepointRaw(() => bulkInsert(this.tx, table, rows.map(p => p.row)))
+      for (const id of out) inserted.set(id, 1)
+    }
+    catch (err) {
+      if (!isDataError(err)) throw err
+      // Something the checks above did not foresee: find the bad rows one at a time.
+      for (const p of rows) {
+        try {
+          const out = await this.inSavepointRaw(() => bulkInsert(this.tx, table, [p.row]))
+          for (const id of out) inserted.set(id, 1)
+        }
+        catch (e) {
+          if (!isDataError(e)) throw e
+          refused.set(p.row.id, dbReason(e, p.row))
+        }
+      }
+    }
+    const again = pending.filter(p => !inserted.has(p.row.id) && !refused.has(p.row.id))
+    const existing = new Map<string, Record<string, unknown>>()
+    if (again.length) {
+      const rowsThere = await this.tx.select().from(table).where(inArray(table.id, [...new Set(again.map(p => p.row.id))]))
+      for (const r of rowsThere as Record<string, unknown>[]) existing.set(r.id as string, r)
+    }
+    for (const p of pending) {
+      const refusal = refused.get(p.row.id)
+      if (refusal) { this.results[p.index] = rejected(refusal); continue }
+      const version = inserted.get(p.row.id)
+      if (version !== undefined && first.get(p.row.id) === p) { this.results[p.index] = { status: 'applied', version }; continue }
+      // Already there (an earlier push, or earlier in this one): the same content is a no-op.
+      const there = existing.get(p.row.id) ?? (version !== undefined ? first.get(p.row.id)?.row : undefined)
+      if (!there) { this.results[p.index] = rejected(entity === 'signOff' ? 'callId: this call already has a sign-off' : 'entityId: clashes with an existing record'); continue }
+      const same = Object.keys(p.row).every(k => NOT_CONTENT.has(k) || sameSyncValue(p.row[k], there[k]))
+      this.results[p.index] = same
+        ? { status: 'applied', version: (there.version as number | undefined) ?? version ?? 1 }
+        : rejected(`entityId: a different ${ENTITY_WORDS[entity]} already has this id`)
+    }
+  }
+
+  // ── Updates ─────────────────────────────────────────────────────────────────────────────
+  private async callUpdate(op: Op, changes: Record<string, unknown>): Promise<OpOutcome> {
+    const call = this.calls.get(op.entityId)
+    const problem = this.accessProblem(call)
+    if (problem || !call) return rejected(problem === 'callId: no such call' ? 'entityId: no such call' : FORBIDDEN)
+    const base = op.base ?? {}
+    const takes: Record<string, unknown> = {}
+    const rejects: string[] = [], notes: string[] = []
+    const conflicts: (typeof tables.conflicts.$inferInsert)[] = []
+    for (const [field, device] of Object.entries(changes)) {
+      const server = call[field as keyof CallRow]
+      const d = mergeCallField({
+        field, device, server, role: this.user.role, serverStatus: call.status,
+        base: field in base ? { value: base[field] } : undefined,
+        baseVersionMatches: op.baseVersion !== undefined && op.baseVersion === call.version,
+      })
+      if (d.action === 'take') takes[field] = d.value
+      else if (d.action === 'reject') rejects.push(d.reason)
+      else if (d.action === 'keep') notes.push(d.reason)
+      else if (d.action === 'conflict') {
+        notes.push(d.reason)
+        conflicts.push({
+          callId: call.id, entity: 'call', entityId: call.id, field, reason: d.reason, opId: op.opId, raisedBy: this.user.id,
+          baseValue: jsonb(field in base ? base[field] : null), deviceValue: jsonb(device), serverValue: jsonb(server),
+        })
+      }
+    }
+    if (rejects.length) return rejected(rejects.join('; '))
+    const problemOutcome = outcomeProblem(call, takes)
+    if (problemOutcome) {
+      // The device completed the call but its status move did not take: the outcome waits with it.
+      if (!('outcome' in takes) || !('status' in changes) || takes.status !== undefined) return rejected(problemOutcome)
+      const reason = 'outcome: the call was not completed on the server'
+      notes.push(reason)
+      conflicts.push({
+        callId: call.id, entity: 'call', entityId: call.id, field: 'outcome', reason, opId: op.opId, raisedBy: this.user.id,
+        baseValue: jsonb('outcome' in base ? base.outcome : null), deviceValue: jsonb(takes.outcome), serverValue: jsonb(call.outcome),
+      })
+      delete takes.outcome
+    }
+    let after = call
+    if (Object.keys(takes).length) after = await writeCallChanges(this.tx, call, takes, this.user)
+    if (conflicts.length) await this.tx.insert(tables.conflicts).values(conflicts)
+    this.calls.set(after.id, after)
+    const reason = notes.length ? notes.join('; ') : undefined
+    return { status: conflicts.length ? 'conflict' : 'applied', version: after.version, ...(reason ? { reason } : {}) }
+  }
+
+  /** Fault codes and test runs change in place; only their call's writers reach them. */
+  private async childUpdate(op: Op, entity: 'faultCode' | 'testRun', changes: Record<string, unknown>): Promise<OpOutcome> {
+    const table = TABLE[entity]
+    const [row] = await this.tx.select({ callId: table.callId }).from(table).where(eq(table.id, op.entityId)).for('update')
+    if (!row) return rejected(`entityId: no such ${ENTITY_WORDS[entity]}`)
+    const problem = this.accessProblem(await this.callOf(row.callId as string))
+    if (problem) return rejected(problem === FORBIDDEN ? FORBIDDEN : 'entityId: no such call')
+    const set: Record<string, unknown> = { ...changes }
+    for (const k of ['clearedAt', 'finishedAt']) if (k in set) set[k] = toDate(set[k])
+    const [out] = await this.tx.update(table).set(set as any).where(eq(table.id, op.entityId)).returning({ version: table.version })
+    return { status: 'applied', version: (out as { version: number }).version }
+  }
+
+  private async resolution(data: z.output<typeof conflictResolutionSchema>, hasValue: boolean): Promise<OpOutcome> {
+    try {
+      const { conflict, call } = await resolveConflictInTx(this.tx, this.user, data.conflictId, data.choice, data.value, { hasValue })
+      this.calls.set(call.id, call)
+      return { status: 'applied', version: conflict.version }
+    }
+    catch (err) {
+      if (err instanceof SyncRuleError) return rejected(err.message)
+      throw err
+    }
+  }
+
+  // ── Savepoints ──────────────────────────────────────────────────────────────────────────
+  private async inSavepointRaw<T>(fn: () => Promise<T>): Promise<T> {
+    if (!this.careful) {
+      try { return await fn() }
+      catch (err) { throw isDataError(err) ? new SyncCarefulPass(err) : err }
+    }
+    const name = sql.raw(`sync_sp_${++this.sp}`)
+    await this.tx.execute(sql`SAVEPOINT ${name}`)
+    try {
+      const out = await fn()
+      await this.tx.execute(sql`RELEASE SAVEPOINT ${name}`)
+      return out
+    }
+    catch (err) {
+      // A failed statement aborts the transaction until we roll back to the savepoint.
+      if (!isRetryableTxError(err)) await this.tx.execute(sql`ROLLBACK TO SAVEPOINT ${name}`)
+      throw err
+    }
+  }
+
+  /** One op in a savepoint: a row the database refuses rejects that op and keeps the rest. */
+  private async inSavepoint(values: Record<string, unknown>, fn: () => Promise<OpOutcome>): Promise<OpOutcome> {
+    const before = new Map(this.calls)
+    try {
+      return await this.inSavepointRaw(fn)
+    }
+    catch (err) {
+      if (!this.careful || !isDataError(err)) throw err
+      this.calls = before
+      return rejected(dbReason(err, values))
+    }
+  }
+}
+
+/** The fast pass hit a row the database refused: run the push again, carefully. */
+export class SyncCarefulPass extends Error {
+  constructor(readonly refusal: unknown) {
+    super('a row was refused; the push runs again op by op')
+  }
+}
+
+/** A value for a jsonb column that keeps JSON null and strings as JSON. */
+function jsonb(v: unknown) {
+  return sql`${JSON.stringify(v ?? null)}::jsonb`
+}
+
+/** Applies the ops; in the fast pass some inserts come back in `deferred` for the caller to run. */
+export async function applySyncOps(tx: Tx, user: User, ops: Op[], limits: { photoMaxBytes: number }, careful = false) {
+  const applier = new SyncApplier(tx, user, ops, limits, careful)
+  const outcomes = await applier.run()
+  return { outcomes, deferred: applier.deferred }
+}
+
+export function isSyncDataError(err: unknown) {
+  return isDataError(err)
+}

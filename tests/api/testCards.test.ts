@@ -1,0 +1,138 @@
+import { afterAll, describe, expect, it } from 'vitest'
+import { ApiClient, signedIn } from '../support/api'
+import { DEMO } from '../support/env'
+import { closeTestPool, count, testPool } from '../support/db'
+
+afterAll(closeTestPool)
+
+const definition = (title = 'Glow plug resistance') => ({
+  title,
+  componentType: 'Glow plug',
+  codePatterns: ['P0671', 'SPN 676 FMI *'],
+  cautions: ['Glow plugs get very hot: key off and let them cool.'],
+  tools: ['Multimeter'],
+  steps: [
+    { id: 'plug-ohms', title: 'Plug resistance', instruction: 'Unplug the lead and measure plug tip to ground.', measure: 'resistance', conditions: 'key_off', spec: { kind: 'range', min: 0.2, max: 2 }, next: { pass: 'plug-ok', fail: 'replace-plug' } },
+  ],
+  conclusions: [{ id: 'plug-ok', text: 'Plug good', kind: 'ok' }, { id: 'replace-plug', text: 'Replace glow plug', kind: 'fault' }],
+})
+const uniqueSlug = () => `glow-${Date.now().toString(36)}-${Math.floor(Math.random() * 1e6)}`
+
+describe('GET /api/test-cards', () => {
+  it('every role reads the library, latest versions with their definitions', async () => {
+    for (const who of [DEMO.mech2, DEMO.dispatcher, DEMO.office, DEMO.admin]) {
+      const c = await signedIn(who)
+      const r = await c.get('/api/test-cards')
+      expect(r.status).toBe(200)
+      const egt = r.body.items.find((x: any) => x.slug === 'egt-rtd-sensor')
+      expect(egt.definition.steps[0].spec).toEqual({ kind: 'rtd', r0: 200, tolerancePct: 2 })
+      expect(egt.version).toBe(egt.currentVersion)
+    }
+    expect((await new ApiClient().get('/api/test-cards')).status).toBe(401)
+  })
+
+  it('answers 400 naming the field for a bad id or version, 404 for a missing card', async () => {
+    const c = await signedIn(DEMO.mech2)
+    const bad = await c.get('/api/test-cards/not-a-uuid')
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields.id).toBeDefined()
+    const list = (await c.get('/api/test-cards')).body.items
+    const v = await c.get(`/api/test-cards/${list[0].id}?version=zero`)
+    expect(v.status).toBe(400)
+    expect(v.body.data.fields.version).toMatch(/number/)
+    expect((await c.get('/api/test-cards/00000000-0000-4000-8000-000000000000')).status).toBe(404)
+    expect((await c.get(`/api/test-cards/${list[0].id}?version=999`)).status).toBe(404)
+  })
+})
+
+describe('writing cards', () => {
+  it('only an admin may create or change a card', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const list = (await admin.get('/api/test-cards')).body.items
+    for (const who of [DEMO.mech1, DEMO.dispatcher, DEMO.office]) {
+      const c = await signedIn(who)
+      expect((await c.post('/api/test-cards', { slug: uniqueSlug(), definition: definition() })).status).toBe(403)
+      expect((await c.patch(`/api/test-cards/${list[0].id}`, { active: false })).status).toBe(403)
+    }
+    expect((await new ApiClient().post('/api/test-cards', { slug: uniqueSlug(), definition: definition() })).status).toBe(401)
+  })
+
+  it('creates version 1; a PATCH makes version 2 while ?version=1 still returns the old one', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const slug = uniqueSlug()
+    const created = await admin.post('/api/test-cards', { slug, definition: definition() })
+    expect(created.status).toBe(201)
+    expect(created.body).toMatchObject({ slug, version: 1, currentVersion: 1, title: 'Glow plug resistance' })
+    const id = created.body.id
+
+    const changed = definition('Glow plug resistance (revised)')
+    changed.steps[0]!.spec = { kind: 'range', min: 0.3, max: 1.8 }
+    const p = await admin.patch(`/api/test-cards/${id}`, { definition: changed, baseVersion: 1 })
+    expect(p.status).toBe(200)
+    expect(p.body).toMatchObject({ version: 2, currentVersion: 2, title: 'Glow plug resistance (revised)' })
+
+    const mech = await signedIn(DEMO.mech1)
+    const latest = await mech.get(`/api/test-cards/${id}`)
+    expect(latest.body.version).toBe(2)
+    expect(latest.body.definition.steps[0].spec).toEqual({ kind: 'range', min: 0.3, max: 1.8 })
+    expect(latest.body.versions.map((v: any) => v.version)).toEqual([2, 1])
+    const old = await mech.get(`/api/test-cards/${id}?version=1`)
+    expect(old.status).toBe(200)
+    expect(old.body.version).toBe(1)
+    expect(old.body.currentVersion).toBe(2)
+    expect(old.body.definition.steps[0].spec).toEqual({ kind: 'range', min: 0.2, max: 2 })
+    expect(await count('test_card_versions', 'card_id = $1', [id])).toBe(2)
+    const row = await testPool().query('SELECT current_version, title FROM test_cards WHERE id = $1', [id])
+    expect(row.rows[0]).toEqual({ current_version: 2, title: 'Glow plug resistance (revised)' })
+  })
+
+  it('a stale baseVersion answers 409 and writes nothing', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const { body } = await admin.post('/api/test-cards', { slug: uniqueSlug(), definition: definition() })
+    expect((await admin.patch(`/api/test-cards/${body.id}`, { definition: definition('Second') })).status).toBe(200)
+    const stale = await admin.patch(`/api/test-cards/${body.id}`, { definition: definition('Third'), baseVersion: 1 })
+    expect(stale.status).toBe(409)
+    expect(stale.body.data.currentVersion).toBe(2)
+    expect(await count('test_card_versions', 'card_id = $1', [body.id])).toBe(2)
+  })
+
+  it('turning a card off keeps its version and hides it from the mechanic’s library', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const { body } = await admin.post('/api/test-cards', { slug: uniqueSlug(), definition: definition('Retired card') })
+    const off = await admin.patch(`/api/test-cards/${body.id}`, { active: false })
+    expect(off.body).toMatchObject({ active: false, version: 1 })
+    const mech = await signedIn(DEMO.mech1)
+    expect((await mech.get('/api/test-cards')).body.items.some((x: any) => x.id === body.id)).toBe(false)
+    expect((await admin.get('/api/test-cards?all=true')).body.items.some((x: any) => x.id === body.id)).toBe(true)
+  })
+
+  it('a bad card answers 400 naming the field, and nothing is written', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const before = await count('test_cards')
+    const bad = definition()
+    bad.steps[0]!.next.fail = 'nowhere'
+    const r = await admin.post('/api/test-cards', { slug: uniqueSlug(), definition: bad })
+    expect(r.status).toBe(400)
+    expect(r.body.data.fields['definition.steps.0.next.fail']).toMatch(/neither a step nor a conclusion/)
+    const noSpec = definition() as any
+    delete noSpec.steps[0].spec
+    const r2 = await admin.post('/api/test-cards', { slug: 'Not A Slug', definition: noSpec })
+    expect(r2.status).toBe(400)
+    expect(Object.keys(r2.body.data.fields)).toEqual(expect.arrayContaining(['slug', 'definition.steps.0.spec']))
+    expect(await count('test_cards')).toBe(before)
+
+    const { body } = await admin.post('/api/test-cards', { slug: uniqueSlug(), definition: definition() })
+    const versions = await count('test_card_versions', 'card_id = $1', [body.id])
+    const p = await admin.patch(`/api/test-cards/${body.id}`, { definition: bad })
+    expect(p.status).toBe(400)
+    expect(p.body.data.fields['definition.steps.0.next.fail']).toBeDefined()
+    expect(await count('test_card_versions', 'card_id = $1', [body.id])).toBe(versions)
+  })
+
+  it('a taken slug answers 422 naming the slug', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const r = await admin.post('/api/test-cards', { slug: 'egt-rtd-sensor', definition: definition() })
+    expect(r.status).toBe(422)
+    expect(r.body.data.fields.slug).toMatch(/already/)
+  })
+})
