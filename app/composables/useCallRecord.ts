@@ -5,7 +5,8 @@ export const suggestionsKey = (id: string) => `suggestions-${id}`
 
 /** Office writes on one call; each refreshes the record, the suggestions and the board. */
 export function useCallActions(id: () => string) {
-  const refreshAll = () => refreshNuxtData([callRecordKey(id()), suggestionsKey(id()), DISPATCH_KEY])
+  const refreshKeys = useRefreshKeys()
+  const refreshAll = () => refreshKeys([callRecordKey(id()), suggestionsKey(id()), DISPATCH_KEY])
   async function assign(input: CallAssignInput) {
     const res = await $fetch<{ mail: { sent: boolean; reason?: string } | null }>(`/api/calls/${id()}/assign`, { method: 'POST', body: input })
     await refreshAll()

@@ -8,27 +8,28 @@ export const unitKey = (id: string) => `unit-${id}`
 
 /** Writes for customers, their yards and units; each refreshes what shows them. */
 export function useFleet() {
+  const refreshKeys = useRefreshKeys()
   async function addCustomer(input: CustomerCreateInput) {
     const row = await $fetch<{ id: string; name: string }>('/api/customers', { method: 'POST', body: input })
-    await refreshNuxtData(CUSTOMERS_KEY)
+    await refreshKeys(CUSTOMERS_KEY)
     return row
   }
   async function changeCustomer(id: string, patch: CustomerPatchInput) {
     await $fetch(`/api/customers/${id}`, { method: 'PATCH', body: patch })
-    await refreshNuxtData([CUSTOMERS_KEY, customerKey(id)])
+    await refreshKeys([CUSTOMERS_KEY, customerKey(id)])
   }
   async function addSite(customerId: string, input: SiteCreateInput) {
     await $fetch(`/api/customers/${customerId}/sites`, { method: 'POST', body: input })
-    await refreshNuxtData(customerKey(customerId))
+    await refreshKeys(customerKey(customerId))
   }
   async function addUnit(input: UnitCreateInput) {
     const row = await $fetch<{ id: string; unitNumber: string }>('/api/units', { method: 'POST', body: input })
-    await refreshNuxtData([UNITS_KEY, customerKey(input.customerId)])
+    await refreshKeys([UNITS_KEY, customerKey(input.customerId)])
     return row
   }
   async function changeUnit(id: string, patch: UnitPatchInput) {
     await $fetch(`/api/units/${id}`, { method: 'PATCH', body: patch })
-    await refreshNuxtData([UNITS_KEY, unitKey(id)])
+    await refreshKeys([UNITS_KEY, unitKey(id)])
   }
   return { addCustomer, changeCustomer, addSite, addUnit, changeUnit }
 }

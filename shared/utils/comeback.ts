@@ -1,6 +1,8 @@
 // Comebacks: the same fault code on the same unit again within a window (30 days by default)
 // after an earlier call. A shop counts these because they usually mean the first fix missed.
-// Pure, so the unit page, reports and tests all use one rule.
+// Pure and unit-tested; the unit page flags comebacks with it.
+
+import { faultCodeKey } from './faultMatch'
 
 export const COMEBACK_WINDOW_DAYS = 30
 const DAY_MS = 86_400_000
@@ -9,14 +11,12 @@ export interface ComebackFaultCode { code?: string | null; spn?: number | null; 
 export interface ComebackCall { id: string; at: Date | string | number; faultCodes: readonly ComebackFaultCode[] }
 export interface Comeback { callId: string; earlierCallId: string; code: string; days: number }
 
-/**
- * One key per fault code, so 'p0117 ' and 'P0117' match and a J1939 code is its SPN and FMI
- * together (the same SPN with another failure mode is another fault). Null when unusable.
- */
-export function faultCodeKey(fc: ComebackFaultCode): string | null {
-  if (typeof fc.code === 'string' && fc.code.trim() !== '') return fc.code.trim().toUpperCase()
-  if (Number.isInteger(fc.spn) && Number.isInteger(fc.fmi)) return `SPN ${fc.spn} FMI ${fc.fmi}`
-  return null
+// One key per fault code (shared with the diagnostics' history): 'p0117 ' and 'P0117' match, and
+// a J1939 code is its SPN and FMI together (the same SPN with another failure mode is another
+// fault). A code that cannot be read gives no key and is left out.
+function keyOf(fc: ComebackFaultCode): string | null {
+  try { return faultCodeKey(fc) }
+  catch { return null }
 }
 
 function timeOf(at: Date | string | number): number {
@@ -36,7 +36,7 @@ export function findComebacks(calls: readonly ComebackCall[], windowDays = COMEB
   const lastSeen = new Map<string, { id: string; t: number }>()
   const out: Comeback[] = []
   for (const { c, t } of sorted) {
-    const keys = new Set(c.faultCodes.map(faultCodeKey).filter((k): k is string => k !== null))
+    const keys = new Set(c.faultCodes.map(keyOf).filter((k): k is string => k !== null))
     for (const key of keys) {
       const prev = lastSeen.get(key)
       if (prev && prev.id !== c.id && prev.t < t && t - prev.t <= windowDays * DAY_MS) {

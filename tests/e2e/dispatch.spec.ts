@@ -1,5 +1,6 @@
 import { expect, test, type Locator, type Page } from '@playwright/test'
 import { PHONE, signIn } from './helpers'
+import { seedId } from '../../server/db/seed/ids'
 
 const DESK = { width: 1280, height: 800 }
 const MAIL_URL = process.env.WAYSIDE_MAIL_URL ?? 'http://127.0.0.1:2601'
@@ -207,14 +208,57 @@ test('screenshots of the dispatch screens at 1280×800', async ({ page }) => {
   await page.getByRole('button', { name: 'Start over' }).click()
   await page.screenshot({ path: 'tests/e2e/screenshots/dispatch-new-1280.png' })
 
-  // A finished call with the whole record, and the unit with a comeback. The billing test may have
-  // billed and paid this demo call already, so any finished status will do.
-  const found = await (await page.request.get('/api/calls?status=completed,invoiced,paid&q=Prairie%20Cold%20dock')).json()
-  await page.goto(`/calls/${found.items[0].id}`)
+  // A finished call with the whole record, and the unit with a comeback.
+  await page.goto(`/calls/${seedId('call:c6')}`)
   await expect(page.getByText('J. Amundsen')).toBeVisible()
   await page.screenshot({ path: 'tests/e2e/screenshots/call-1280.png', fullPage: true })
-  await page.goto('/units')
-  await page.getByRole('link', { name: 'IR-114' }).click()
+  await page.goto(`/units/${seedId('unit:2')}`)
   await expect(page.getByText(/comeback/i).first()).toBeVisible()
   await page.screenshot({ path: 'tests/e2e/screenshots/unit-1280.png', fullPage: true })
+})
+
+test('a customer and a unit are added through their forms, the VIN checked on the way', async ({ page }) => {
+  await signIn(page, 'dispatch@wayside.test')
+  await page.goto('/customers')
+  await page.getByRole('button', { name: 'Add customer' }).click()
+  const name = `Millrace Grain ${Date.now()}`
+  await page.getByLabel('Customer name').fill(name)
+  await page.getByLabel('Billing terms').selectOption('account')
+  await page.getByRole('button', { name: 'Add customer', exact: true }).last().click()
+  await expect(page.getByText('An account customer needs net days')).toBeVisible()
+  await page.getByLabel('Net days').fill('30')
+  await page.getByLabel('Billing e-mail').fill('ap@millrace-grain.example')
+  await page.locator('form').getByRole('button', { name: 'Add customer' }).click()
+  await expect(page.getByRole('heading', { level: 1, name })).toBeVisible()
+  await expect(page.getByText('On account, net 30 days')).toBeVisible()
+
+  await page.getByRole('button', { name: 'Add unit' }).click()
+  await page.getByLabel('Unit number').fill('MG-1')
+  await page.getByLabel('VIN').fill('1M8GDM9A5KP042788')
+  await page.getByRole('button', { name: 'Add unit', exact: true }).last().click()
+  await expect(page.getByText('Read the VIN again, or say why it is right as it is.')).toBeVisible()
+  await page.getByLabel('Keep this VIN because').fill('Stamped so on the frame rail')
+  await page.locator('form').getByRole('button', { name: 'Add unit' }).click()
+  await expect(page.getByRole('link', { name: 'MG-1' })).toBeVisible()
+  await page.getByRole('link', { name: 'MG-1' }).click()
+  await expect(page.getByText('kept because: Stamped so on the frame rail')).toBeVisible()
+})
+
+test('an admin sets the average road speed behind drive times', async ({ page }) => {
+  await signIn(page, 'admin@wayside.test')
+  await page.goto('/setup')
+  await page.getByRole('link', { name: 'Rates' }).click()
+  const speed = page.getByLabel('Average road speed (km/h), for drive times')
+  const before = await speed.inputValue()
+  await speed.fill('0')
+  await page.getByRole('button', { name: 'Save rates' }).click()
+  await expect(page.getByText('Average road speed cannot be below 5')).toBeVisible()
+  await speed.fill('65')
+  await page.getByRole('button', { name: 'Save rates' }).click()
+  await expect(page.getByText('New rates are in force from now.')).toBeVisible()
+  const { rates } = await (await page.request.get('/api/rates')).json()
+  expect(rates.averageRoadKph).toBe(65)
+  await speed.fill(before)
+  await page.getByRole('button', { name: 'Save rates' }).click()
+  await expect(page.getByText('New rates are in force from now.')).toBeVisible()
 })

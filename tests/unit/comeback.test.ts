@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { COMEBACK_WINDOW_DAYS, faultCodeKey, findComebacks } from '../../shared/utils/comeback'
+import { COMEBACK_WINDOW_DAYS, findComebacks } from '../../shared/utils/comeback'
 
 const DAY = 86_400_000
 const t0 = Date.parse('2026-03-01T08:00:00Z')
@@ -66,12 +66,9 @@ describe('findComebacks', () => {
   })
 })
 
-describe('faultCodeKey', () => {
-  it('normalizes J2012 text and joins SPN/FMI', () => {
-    // our own key format
-    expect(faultCodeKey({ code: ' p0117' })).toBe('P0117')
-    expect(faultCodeKey({ spn: 110, fmi: 0 })).toBe('SPN 110 FMI 0')
-    expect(faultCodeKey({ spn: 110 })).toBeNull()
-    expect(faultCodeKey({ code: '  ' })).toBeNull()
+describe('codes that cannot be read', () => {
+  it('are left out instead of matching each other', () => {
+    // our own rule: only a readable J2012 code or a full SPN/FMI pair can repeat
+    expect(findComebacks([call('a', 0, [{ code: 'XYZ' }, { spn: 110 }]), call('b', 1, [{ code: 'XYZ' }, { spn: 110 }])])).toEqual([])
   })
 })
