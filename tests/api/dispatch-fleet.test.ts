@@ -135,7 +135,9 @@ describe('units', () => {
     expect(c4.comebacks.map((x: any) => x.code)).toEqual(['P0117'])
     // Seed: unit 7's knock (c13, 45 days ago) is too old to make anything a comeback.
     const u7 = await dispatcher.get(`/api/units/${seedId('unit:7')}`)
-    expect(u7.body.calls.flatMap((c: any) => c.comebacks)).toEqual([])
+    const c13 = u7.body.calls.find((c: any) => c.id === seedId('call:c13'))
+    expect(c13.faultCodes.map((f: any) => f.description.label)).toEqual(['SPN 100 FMI 1'])
+    expect([c13.comebacks, c13.repeatedBy]).toEqual([[], []])
   })
 
   it('lets a mechanic read a unit only through a call of theirs, and only their calls on it', async () => {

@@ -1,6 +1,7 @@
 import { expect, test, type Locator, type Page } from '@playwright/test'
 import { PHONE, signIn } from './helpers'
 import { seedId } from '../../server/db/seed/ids'
+import { testPool } from '../support/db'
 
 const DESK = { width: 1280, height: 800 }
 const MAIL_URL = process.env.WAYSIDE_MAIL_URL ?? 'http://127.0.0.1:2601'
@@ -261,4 +262,31 @@ test('an admin sets the average road speed behind drive times', async ({ page })
   await speed.fill(before)
   await page.getByRole('button', { name: 'Save rates' }).click()
   await expect(page.getByText('New rates are in force from now.')).toBeVisible()
+})
+
+test('the office settles a change made on a phone and in the office from the same start', async ({ page }) => {
+  await signIn(page, 'dispatch@wayside.test')
+  // A call of this test's own, so no phone test meets its conflict.
+  const customers = await (await page.request.get('/api/customers?q=Bluestem')).json()
+  const made = await page.request.post('/api/calls', { headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Quarry gate', complaint: 'Gauge reads cold' } })
+  const callId = (await made.json()).id as string
+  await testPool().query("UPDATE calls SET story_cause = 'Thermostat stuck open' WHERE id = $1", [callId])
+  const call = { story_cause: 'Thermostat stuck open' }
+  // As sync-server records one: the phone's value, the record's value, and what both started from.
+  const { rows: [conflict] } = await testPool().query(
+    `INSERT INTO conflicts (call_id, entity, entity_id, field, base_value, device_value, server_value, reason, raised_by)
+     VALUES ($1, 'call', $1, 'storyCause', $2, $3, $4, 'storyCause: changed on the server since the device saw it', $5) RETURNING id`,
+    [callId, JSON.stringify(call.story_cause), JSON.stringify('Coolant sensor connector pin pushed back'), JSON.stringify(call.story_cause), seedId('user:mech1')],
+  )
+  await page.goto(`/calls/${callId}`)
+  const region = page.getByRole('region', { name: /Changes to settle/ })
+  await expect(region).toContainText('1 open')
+  await expect(region.getByText('Coolant sensor connector pin pushed back')).toBeVisible()
+  await page.screenshot({ path: 'tests/e2e/screenshots/call-conflict-1280.png' })
+  await region.getByLabel('Or write another value').fill('Connector pin 2 pushed back; re-pinned')
+  await region.getByRole('button', { name: 'Use this value' }).click()
+  await expect(page.getByRole('region', { name: /Changes to settle/ })).toContainText('0 open')
+  await expect(page.getByRole('region', { name: 'Story' }).getByText('Connector pin 2 pushed back; re-pinned')).toBeVisible()
+  const { rows: [after] } = await testPool().query('SELECT status, choice FROM conflicts WHERE id = $1', [conflict.id])
+  expect(after).toEqual({ status: 'resolved', choice: 'value' })
 })

@@ -307,8 +307,10 @@ test('signing out with unsynced work warns first, and keeps the work', async ({ 
   await page.getByRole('button', { name: 'Sign out' }).click()
   await page.getByRole('button', { name: 'Sign out anyway' }).click()
   await expect(page).toHaveURL(/\/login/)
-  await ctx.setOffline(false)
+  // Checked while still offline: signing out dropped nothing from the phone's queue. (Once back
+  // online the sign-out cannot be confirmed to the server first, so when the note lands is not fixed.)
   expect(await count('notes', 'call_id = $1 AND text = $2', [callId, text])).toBe(0)
+  await ctx.setOffline(false)
   await signIn(page, 'mech1@wayside.test')
   await expect.poll(() => count('notes', 'call_id = $1 AND text = $2', [callId, text]), { timeout: 30_000 }).toBe(1)
   await allSent(page)
