@@ -25,11 +25,25 @@ export NUXT_UPLOADS_DIR="$DATA/test-uploads-$SLOT"
 ensure_node_modules
 want e2e && ensure_chromium
 ensure_cluster_running
-say "fresh test database $TEST_DB"
-recreate_database "$TEST_DB"
 export NUXT_DATABASE_URL="postgres://wayside@127.0.0.1:$PGPORT/$TEST_DB"
 export WAYSIDE_PG_BIN="$PGBIN"
-(cd "$ROOT" && npx tsx server/db/migrate.ts && npx tsx server/db/seed/index.ts)
+
+# Each kind of test starts from the same freshly seeded database, so one kind's writes (the API
+# tests' conflicts, say) never change what another kind sees.
+fresh_database() {
+  say "fresh test database $TEST_DB"
+  recreate_database "$TEST_DB"
+  (cd "$ROOT" && npx tsx server/db/migrate.ts && npx tsx server/db/seed/index.ts)
+}
+SERVER_PID=""
+start_server() {
+  [ -n "$SERVER_PID" ] && { kill "$SERVER_PID" 2>/dev/null || true; wait "$SERVER_PID" 2>/dev/null || true; }
+  fresh_database
+  rm -rf "$NUXT_UPLOADS_DIR"
+  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 & SERVER_PID=$!
+  CHILD_PIDS+=("$SERVER_PID")
+  wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/test-server-$SLOT.log"; die "the test server did not start"; }
+}
 
 cd "$ROOT"
 failed=()
@@ -41,35 +55,18 @@ if want unit; then
   say "unit tests"
   npx vitest run --project unit || failed+=(unit)
 fi
-SERVER_PID=""
-start_test_server() {
-  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 & SERVER_PID=$!
-  CHILD_PIDS+=("$SERVER_PID")
-  wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/test-server-$SLOT.log"; die "the test server did not start"; }
-}
 if want api || want e2e; then
   build_if_needed
-  rm -rf "$NUXT_UPLOADS_DIR"
   : > "$DATA/test-server-$SLOT.log"
   node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
-  start_test_server
 fi
 if want api; then
+  start_server
   say "API tests"
   npx vitest run --project api || failed+=(api)
 fi
 if want e2e; then
-  if want api; then
-    # The browser tests start from the demo as seeded, not from what the API tests left behind
-    # (open conflicts on a demo mechanic's calls, reassigned calls): a fresh database and server.
-    say "fresh test database $TEST_DB for the browser tests"
-    kill "$SERVER_PID" 2>/dev/null || true
-    wait "$SERVER_PID" 2>/dev/null || true
-    recreate_database "$TEST_DB"
-    npx tsx server/db/migrate.ts && npx tsx server/db/seed/index.ts
-    rm -rf "$NUXT_UPLOADS_DIR"
-    start_test_server
-  fi
+  start_server
   say "browser tests"
   npx playwright test || failed+=(e2e)
 fi

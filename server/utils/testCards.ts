@@ -1,17 +1,23 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { z } from 'zod'
-import type { CardDefinition, TestCardView, testCardCreateSchema, testCardPatchSchema } from '#shared/schemas/testCards'
+import { cardDefinitionSchema, type CardDefinition, type TestCardView, type testCardCreateSchema, type testCardPatchSchema } from '#shared/schemas/testCards'
 
 type CardRow = typeof tables.testCards.$inferSelect
 type VersionRow = typeof tables.testCardVersions.$inferSelect
 
+// Stored definitions are checked on the way out too: a row written around the routes (a script,
+// an older format) is marked with what is wrong instead of reaching a phone that cannot run it.
 function view(card: CardRow, v: VersionRow): TestCardView {
-  return {
+  const parsed = cardDefinitionSchema.safeParse(v.definition)
+  const out: TestCardView = {
     id: card.id, slug: card.slug, title: card.title, componentType: card.componentType, active: card.active,
-    currentVersion: card.currentVersion, version: v.cardVersion, definition: v.definition as unknown as CardDefinition,
+    currentVersion: card.currentVersion, version: v.cardVersion,
+    definition: parsed.success ? parsed.data : (v.definition as unknown as CardDefinition),
     updatedAt: card.updatedAt.toISOString(),
   }
+  if (!parsed.success) out.problem = describeFieldErrors(fieldErrorsOf(parsed.error))
+  return out
 }
 
 /** The library at its latest versions; mechanics and office staff see only cards in use. */
@@ -22,7 +28,8 @@ export async function listTestCards(user: User, opts: { all: boolean }) {
     .innerJoin(testCardVersions, and(eq(testCardVersions.cardId, testCards.id), eq(testCardVersions.cardVersion, testCards.currentVersion)))
     .where(showAll ? undefined : eq(testCards.active, true))
     .orderBy(asc(testCards.title))
-  return { items: rows.map(r => view(r.card, r.v)) }
+  const items = rows.map(r => view(r.card, r.v))
+  return { items: showAll ? items : items.filter(c => !c.problem) }
 }
 
 /** One card at its latest version, or at `version` (runs keep the version they used). */

@@ -226,5 +226,7 @@ export interface TestCardView {
   version: number
   definition: CardDefinition
   updatedAt: string
+  /** Set when the stored definition does not pass the card schema; such a card is not run. */
+  problem?: string
   versions?: { version: number; createdAt: string; authorName: string | null }[]
 }

@@ -3,9 +3,12 @@ import { ApiClient, signedIn } from '../support/api'
 import { closeTestPool, count, testPool } from '../support/db'
 import { DEMO } from '../support/env'
 import { ownServerPort, startOwnServer, type OwnServer } from '../support/server'
-import { callRow, Device, makeCall, type TestOp } from '../support/sync'
+import { callRow, cleanupSyncData, Device, makeCall, type TestOp } from '../support/sync'
 
-afterAll(closeTestPool)
+afterAll(async () => {
+  await cleanupSyncData()
+  await closeTestPool()
+})
 
 let running: OwnServer | undefined
 afterEach(async () => { await running?.kill(); running = undefined })

@@ -1,11 +1,14 @@
 import { randomUUID } from 'node:crypto'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, onTestFinished } from 'vitest'
 import { signedIn } from '../support/api'
 import { closeTestPool, count, testPool } from '../support/db'
 import { DEMO } from '../support/env'
-import { callRow, Device, IDS, makeCall, makeTestCard, type TestOp } from '../support/sync'
+import { callRow, cleanupSyncData, Device, IDS, makeCall, makeTestCard, type TestOp } from '../support/sync'
 
-afterAll(closeTestPool)
+afterAll(async () => {
+  await cleanupSyncData()
+  await closeTestPool()
+})
 
 let mech1: Awaited<ReturnType<typeof signedIn>>
 let mech2: Awaited<ReturnType<typeof signedIn>>
@@ -359,6 +362,11 @@ describe('push: in-place updates, photos, sign-off, repeated creates, position',
       d.op('signOff', { callId, driverName: 'J. Amundsen', signature: sig }),
       d.op('signOff', { callId, driverName: 'Someone else', signature: sig }),
     ]
+    // Dispatch ranks mechanics by this position: put the demo's back afterwards.
+    const saved = (await testPool().query('SELECT last_lat, last_lon, last_position_at FROM users WHERE id = $1', [IDS.mech1])).rows[0]
+    onTestFinished(async () => {
+      await testPool().query('UPDATE users SET last_lat = $2, last_lon = $3, last_position_at = $4 WHERE id = $1', [IDS.mech1, saved.last_lat, saved.last_lon, saved.last_position_at])
+    })
     const at = new Date(Date.now() - 500).toISOString()
     const r = await d.push(ops, { position: { lat: 45.3, lon: -93.2, at } })
     expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'rejected'])

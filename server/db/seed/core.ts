@@ -185,8 +185,6 @@ async function seedCalls(db: Db) {
     { ...child('c11', 'fault'), spn: 3516, fmi: 18, state: 'active', count: 4, createdBy: mech2, clearedAt: new Date(now - 189.6 * 3600_000) },
     { ...child('c12', 'fault'), code: 'P0117', state: 'active', count: 2, createdBy: mech1, clearedAt: new Date(now - 597.9 * 3600_000) },
     { ...child('c13', 'fault'), spn: 100, fmi: 1, state: 'active', count: 1, createdBy: mech2 },
-    // The DEF fault of c10 back on the same unit 20 days later: a comeback.
-    { ...child('c3', 'fault'), spn: 3516, fmi: 18, state: 'active', count: 1, createdBy: mech1 },
   ]).onConflictDoNothing()
   await db.insert(t.readings).values([
     { ...child('c6', 'reading:alt'), label: 'Charging voltage at 1500 rpm', quantity: 'voltage', value: 12.4, unit: 'V', component: 'Alternator B+', conditions: 'running', spec: { min: 13.5, max: 14.5 }, verdict: 'low', createdBy: mech2 },

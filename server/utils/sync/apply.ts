@@ -1,7 +1,8 @@
 // Applies a push's fresh ops inside the push transaction. Creates are gathered per entity and
 // written with one multi-row INSERT each (flushed before any update, so an update sees the rows
-// created before it); updates and conflict settlements run one by one, each in a savepoint so a
-// row the database refuses rejects only that op.
+// created before it); updates and conflict settlements run one by one. The fast pass has no
+// savepoints; if the database refuses a row, the push runs again carefully, with a savepoint
+// around each insert and update, so only the refused op is rejected (see SyncApplier).
 import { eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { PgTable } from 'drizzle-orm/pg-core'
 import type { User } from '#auth-utils'
