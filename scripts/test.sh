@@ -27,16 +27,21 @@ want e2e && ensure_chromium
 ensure_cluster_running
 export NUXT_DATABASE_URL="postgres://wayside@127.0.0.1:$PGPORT/$TEST_DB"
 export WAYSIDE_PG_BIN="$PGBIN"
-fresh_test_database() {
+
+# Each kind of test starts from the same freshly seeded database, so one kind's writes (the API
+# tests' conflicts, say) never change what another kind sees.
+fresh_database() {
   say "fresh test database $TEST_DB"
   recreate_database "$TEST_DB"
   (cd "$ROOT" && npx tsx server/db/migrate.ts && npx tsx server/db/seed/index.ts)
 }
-fresh_test_database
-
 SERVER_PID=""
-start_test_server() {
-  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 & SERVER_PID=$!; CHILD_PIDS+=($SERVER_PID)
+start_server() {
+  [ -n "$SERVER_PID" ] && { kill "$SERVER_PID" 2>/dev/null || true; wait "$SERVER_PID" 2>/dev/null || true; }
+  fresh_database
+  rm -rf "$NUXT_UPLOADS_DIR"
+  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 & SERVER_PID=$!
+  CHILD_PIDS+=("$SERVER_PID")
   wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/test-server-$SLOT.log"; die "the test server did not start"; }
 }
 
@@ -52,24 +57,16 @@ if want unit; then
 fi
 if want api || want e2e; then
   build_if_needed
-  rm -rf "$NUXT_UPLOADS_DIR"
-  node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
   : > "$DATA/test-server-$SLOT.log"
-  start_test_server
+  node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
 fi
 if want api; then
+  start_server
   say "API tests"
   npx vitest run --project api || failed+=(api)
 fi
 if want e2e; then
-  # The browser tests start from the demo data alone, not from what the API tests left behind
-  # (their calls and open conflicts would show on the demo mechanics' phones).
-  if want api; then
-    kill "$SERVER_PID" 2>/dev/null || true; wait "$SERVER_PID" 2>/dev/null || true
-    fresh_test_database
-    rm -rf "$NUXT_UPLOADS_DIR"
-    start_test_server
-  fi
+  start_server
   say "browser tests"
   npx playwright test || failed+=(e2e)
 fi

@@ -12,6 +12,7 @@ const AFTER_WRITE_MS = 1500
 
 interface Engine {
   started: boolean
+  userId?: string
   attempt: number
   timer?: ReturnType<typeof setTimeout>
   running?: Promise<SyncOutcome | undefined>
@@ -57,7 +58,8 @@ export function useSync() {
     if (!import.meta.client) return undefined
     if (e.running) { e.again = true; return e.running }
     if (outbox.paused) return undefined
-    if (!navigator.onLine) { outbox.lastError = 'No signal: your work waits on the phone'; return undefined }
+    // No signal: nothing to try; the `online` event starts the next pass.
+    if (!navigator.onLine) return undefined
     if (e.timer) clearTimeout(e.timer)
     e.running = (async () => {
       const outcome = await pass()
@@ -86,14 +88,26 @@ export function useSync() {
     return run()
   }
 
-  async function start(userId: string) {
-    if (!import.meta.client || e.started) return
-    e.started = true
+  /** Who the engine syncs for; a sign-in as someone else (without a reload) claims the device again. */
+  async function claim(userId: string) {
+    e.userId = userId
     if ((await claimDevice(userId)) === 'foreign') {
       outbox.paused = 'owner'
       outbox.lastError = 'Changes made by another person wait on this phone. They sign in here to send them first.'
     }
-    void outbox.refresh()
+    else if (outbox.paused === 'owner' || outbox.paused === 'signin') { outbox.paused = null; outbox.lastError = null }
+    await outbox.refresh()
+  }
+
+  async function start(userId: string) {
+    if (!import.meta.client) return
+    if (e.started) {
+      // Back from the sign-in page within the same app: pick up where the 401 stopped.
+      if (e.userId !== userId || outbox.paused === 'signin') { await claim(userId); e.attempt = 0; void run() }
+      return
+    }
+    e.started = true
+    await claim(userId)
     const onOnline = () => { e.attempt = 0; void run() }
     const onVisible = () => {
       if (document.visibilityState !== 'visible') return

@@ -1,30 +1,16 @@
-// Travel and labor time from the call's clock events; never typed. Travel runs from
-// travel_start to arrive, labor from work_start to work_stop; an open span counts up to `now`.
+// Travel and labor on the phone, from the call's clock events and never typed: the same sums the
+// office bills with (clockTotals in shared/utils/billing.ts), plus whether a clock is running.
+import { clockTotals, type BillingClockEvent } from '#shared/utils/billing'
 
 export interface ClockMark { kind: string; at: string }
 
-function spans(marks: readonly ClockMark[], open: string, close: string[], now: number): number {
-  let total = 0
-  let from: number | null = null
-  for (const m of [...marks].sort((a, b) => a.at.localeCompare(b.at))) {
-    const t = Date.parse(m.at)
-    if (Number.isNaN(t)) continue
-    if (m.kind === open && from === null) from = t
-    else if (close.includes(m.kind) && from !== null) { total += Math.max(0, t - from); from = null }
-  }
-  if (from !== null) total += Math.max(0, now - from)
-  return total
-}
-
 export function fieldClockTotals(marks: readonly ClockMark[], now = Date.now()) {
-  const sorted = [...marks].sort((a, b) => a.at.localeCompare(b.at))
-  const lastWork = [...sorted].reverse().find(m => m.kind === 'work_start' || m.kind === 'work_stop' || m.kind === 'depart')
-  const lastTravel = [...sorted].reverse().find(m => m.kind === 'travel_start' || m.kind === 'arrive')
+  const valid = marks.filter(m => !Number.isNaN(Date.parse(m.at))).sort((a, b) => a.at.localeCompare(b.at))
+  const last = (kinds: string[]) => [...valid].reverse().find(m => kinds.includes(m.kind))?.kind
   return {
-    travelMs: spans(sorted, 'travel_start', ['arrive'], now),
-    laborMs: spans(sorted, 'work_start', ['work_stop', 'depart'], now),
-    working: lastWork?.kind === 'work_start',
-    travelling: lastTravel?.kind === 'travel_start',
+    ...clockTotals(valid as BillingClockEvent[], new Date(now)),
+    working: last(['work_start', 'work_stop', 'depart']) === 'work_start',
+    travelling: last(['travel_start', 'arrive']) === 'travel_start',
   }
 }
 

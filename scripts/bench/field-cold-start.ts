@@ -36,7 +36,7 @@ try {
   await page.getByLabel('Password').fill('wayside-demo')
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForFunction(() => !!navigator.serviceWorker?.controller, undefined, { timeout: 30_000 })
-  await page.getByTestId('sync-chip').getByText('All sent').waitFor({ timeout: 30_000 })
+  await page.getByRole('list', { name: 'Open calls' }).getByRole('link').first().waitFor({ timeout: 30_000 })
   await ctx.close()
 
   const cold: number[] = []

@@ -1,4 +1,7 @@
 import { z } from 'zod'
+import { optText, recordId, versionField } from './fields'
+import { customerCreateSchema } from './customers'
+import { unitDraftSchema } from './units'
 
 export const CALL_STATUSES = ['received', 'assigned', 'en_route', 'on_site', 'completed', 'invoiced', 'paid', 'cancelled'] as const
 export const CALL_OUTCOMES = ['repaired', 'towed', 'parts_ordered', 'no_fault_found'] as const
@@ -29,3 +32,120 @@ export const callListQuerySchema = z.object({
   pageSize: z.coerce.number({ message: 'Page size must be a number' }).int().min(1).max(200).default(50),
 })
 export type CallListQuery = z.input<typeof callListQuerySchema>
+
+// ── Taking and editing a call (dispatch fields) ─────────────────────────────────────────────
+
+/** Dash lamps a dispatcher asks the driver about; anything else is typed and kept as written. */
+export const LAMPS = ['check_engine', 'stop_engine', 'emissions', 'def', 'abs', 'charging', 'oil_pressure', 'coolant'] as const
+export const LAMP_LABELS: Record<(typeof LAMPS)[number], string> = {
+  check_engine: 'Check engine',
+  stop_engine: 'Stop engine',
+  emissions: 'Emissions (exhaust filter)',
+  def: 'DEF',
+  abs: 'ABS',
+  charging: 'Charging / battery',
+  oil_pressure: 'Oil pressure',
+  coolant: 'Coolant temperature',
+}
+export const DERATE_STATES = ['none', 'derated', 'countdown', 'shutdown'] as const
+export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
+  none: 'Runs normally',
+  derated: 'Derated (power or speed limited)',
+  countdown: 'Countdown to derate or shutdown',
+  shutdown: 'Shut down, will not run',
+}
+
+const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
+const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
+
+const dispatchFields = {
+  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)'),
+  lat: latField,
+  lon: lonField,
+  complaint: z.string({ message: "Write the driver's complaint" }).trim().min(1, "Write the driver's complaint").max(2000, 'Complaint is too long (at most 2000 characters)'),
+  lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters'), { message: 'Lamps must be a list' }).max(12, 'At most 12 lamps'),
+  derate: z.enum(DERATE_STATES, { message: 'Pick how the engine runs' }),
+  derateNote: optText(300, 'Derate note'),
+  loaded: z.boolean({ message: 'Loaded must be yes or no' }),
+  hazmat: z.boolean({ message: 'Hazmat must be yes or no' }),
+  safetyNotes: optText(1000, 'Safety notes'),
+  callerName: optText(120, 'Caller name'),
+  callerPhone: optText(40, 'Caller phone'),
+  poNumber: optText(60, 'PO number'),
+  authLimitCents: z.number({ message: 'Authorization limit must be an amount' }).int('Authorization limit must be whole cents')
+    .min(0, 'Authorization limit cannot be negative').max(100_000_000, 'Authorization limit is too large').nullable().optional(),
+}
+
+// A position is a pair; half of one would place the truck on the equator or the prime meridian.
+function positionRule(v: { lat?: number | null; lon?: number | null }, ctx: z.RefinementCtx) {
+  const hasLat = v.lat !== null && v.lat !== undefined
+  const hasLon = v.lon !== null && v.lon !== undefined
+  if (hasLat && !hasLon) ctx.addIssue({ code: 'custom', path: ['lon'], message: 'Give the longitude too, or clear the latitude' })
+  if (hasLon && !hasLat) ctx.addIssue({ code: 'custom', path: ['lat'], message: 'Give the latitude too, or clear the longitude' })
+}
+
+/**
+ * POST /api/calls. The customer and the unit are either picked (`customerId`, `unitId`) or taken
+ * inline (`newCustomer`, `newUnit`); all of it is written in one transaction. A `mechanicId`
+ * assigns the call at once.
+ */
+export const callCreateSchema = z.object({
+  customerId: recordId('the customer, or add a new one').optional(),
+  newCustomer: customerCreateSchema.optional(),
+  unitId: recordId('the unit').nullable().optional(),
+  newUnit: unitDraftSchema.optional(),
+  ...dispatchFields,
+  lamps: dispatchFields.lamps.default([]),
+  derate: dispatchFields.derate.default('none'),
+  loaded: dispatchFields.loaded.default(false),
+  hazmat: dispatchFields.hazmat.default(false),
+  mechanicId: recordId('a mechanic').optional(),
+  serviceTruckId: recordId('a service truck').nullable().optional(),
+}).superRefine((v, ctx) => {
+  if (!v.customerId && !v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
+  if (v.customerId && v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  if (v.unitId && v.newUnit) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'Pick a unit or add a new one, not both' })
+  if (v.newCustomer && v.unitId) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  positionRule(v, ctx)
+})
+
+/** PATCH /api/calls/[id]: dispatch fields only, with the version the editor started from. */
+export const callPatchSchema = z.object({
+  version: versionField,
+  customerId: recordId('the customer').optional(),
+  unitId: recordId('the unit').nullable().optional(),
+  locationText: dispatchFields.locationText.optional(),
+  lat: dispatchFields.lat,
+  lon: dispatchFields.lon,
+  complaint: dispatchFields.complaint.optional(),
+  lamps: dispatchFields.lamps.optional(),
+  derate: dispatchFields.derate.optional(),
+  derateNote: dispatchFields.derateNote,
+  loaded: dispatchFields.loaded.optional(),
+  hazmat: dispatchFields.hazmat.optional(),
+  safetyNotes: dispatchFields.safetyNotes,
+  callerName: dispatchFields.callerName,
+  callerPhone: dispatchFields.callerPhone,
+  poNumber: dispatchFields.poNumber,
+  authLimitCents: dispatchFields.authLimitCents,
+}).superRefine((v, ctx) => {
+  if (v.lat !== undefined || v.lon !== undefined) positionRule(v, ctx)
+})
+
+/** The dispatch fields a PATCH may change, in the order the call page lists them. */
+export const CALL_EDIT_FIELDS = ['customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat', 'safetyNotes', 'callerName', 'callerPhone', 'poNumber', 'authLimitCents'] as const
+export type CallEditField = (typeof CALL_EDIT_FIELDS)[number]
+
+export const callAssignSchema = z.object({
+  mechanicId: recordId('a mechanic'),
+  serviceTruckId: recordId('a service truck').nullable().optional(),
+})
+
+export const callCancelSchema = z.object({
+  reason: z.string({ message: 'Say why the call is cancelled' }).trim().min(3, 'Say why the call is cancelled').max(500, 'Reason is too long (at most 500 characters)'),
+  version: versionField.optional(),
+})
+
+export type CallCreateInput = z.input<typeof callCreateSchema>
+export type CallPatchInput = z.input<typeof callPatchSchema>
+export type CallAssignInput = z.input<typeof callAssignSchema>

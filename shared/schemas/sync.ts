@@ -44,7 +44,8 @@ const fieldsObject = z.custom<Record<string, unknown>>(
 )
 export const opSchema = z.object({
   opId: uuid('op id'),
-  clientId: uuid('client id'),
+  // Must equal the push's clientId (checked below), which is itself a checked UUID.
+  clientId: z.string(),
   seq: int(1, Number.MAX_SAFE_INTEGER),
   at: isoTime,
   schemaVersion: int(1, SYNC_SCHEMA_VERSION),

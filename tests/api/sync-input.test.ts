@@ -3,9 +3,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { signedIn } from '../support/api'
 import { closeTestPool, count } from '../support/db'
 import { DEMO } from '../support/env'
-import { Device, makeCall } from '../support/sync'
+import { cleanupSyncData, Device, makeCall } from '../support/sync'
 
-afterAll(closeTestPool)
+afterAll(async () => {
+  await cleanupSyncData()
+  await closeTestPool()
+})
 
 let mech1: Awaited<ReturnType<typeof signedIn>>
 let callId: string

@@ -3,9 +3,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { signedIn } from '../support/api'
 import { closeTestPool, testPool } from '../support/db'
 import { DEMO } from '../support/env'
-import { Device, IDS, jpegBytes, makeCall, sha256 } from '../support/sync'
+import { cleanupSyncData, Device, IDS, jpegBytes, makeCall, sha256 } from '../support/sync'
 
-afterAll(closeTestPool)
+afterAll(async () => {
+  await cleanupSyncData()
+  await closeTestPool()
+})
 
 let mech1: Awaited<ReturnType<typeof signedIn>>
 let mech2: Awaited<ReturnType<typeof signedIn>>

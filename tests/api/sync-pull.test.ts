@@ -3,9 +3,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { signedIn } from '../support/api'
 import { closeTestPool, testPool } from '../support/db'
 import { DEMO } from '../support/env'
-import { Device, IDS, idsOf, makeCall, pullUntil } from '../support/sync'
+import { cleanupSyncData, Device, IDS, idsOf, makeCall, makeTestCard, pullUntil } from '../support/sync'
 
-afterAll(closeTestPool)
+afterAll(async () => {
+  await cleanupSyncData()
+  await closeTestPool()
+})
 
 let mech1: Awaited<ReturnType<typeof signedIn>>
 let mech2: Awaited<ReturnType<typeof signedIn>>
@@ -18,6 +21,7 @@ describe('pull: scope', () => {
   it("gives a mechanic only their calls, those calls' records, units and customers without billing data, plus rates", async () => {
     const mine = await makeCall()
     const theirs = await makeCall({ mechanicId: IDS.mech2 })
+    const cardId = await makeTestCard()
     const d = new Device(mech1)
     await d.push([d.op('note', { callId: mine, text: 'mine' })])
     await new Device(mech2).push([])
@@ -37,7 +41,7 @@ describe('pull: scope', () => {
     expect(customer).toMatchObject({ name: 'Prairie Cold Haul' })
     for (const hidden of ['billingEmail', 'billingTerms', 'netDays', 'notes', 'taxExempt']) expect(customer).not.toHaveProperty(hidden)
     expect(changes.rates.length).toBeGreaterThan(0)
-    expect(Array.isArray(changes.testCards)).toBe(true)
+    expect(changes.testCards.find((c: any) => c.id === cardId)).toMatchObject({ currentVersion: 1, definition: { steps: [] } })
     expect(r.body.lastSeq).toBe(1)
     expect(r.body.cursor).toMatch(/^\d+$/)
     expect(r.body.calls).toBeUndefined()

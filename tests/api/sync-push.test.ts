@@ -1,11 +1,14 @@
 import { randomUUID } from 'node:crypto'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, onTestFinished } from 'vitest'
 import { signedIn } from '../support/api'
 import { closeTestPool, count, testPool } from '../support/db'
 import { DEMO } from '../support/env'
-import { callRow, Device, IDS, makeCall, makeTestCard, type TestOp } from '../support/sync'
+import { callRow, cleanupSyncData, Device, IDS, makeCall, makeTestCard, type TestOp } from '../support/sync'
 
-afterAll(closeTestPool)
+afterAll(async () => {
+  await cleanupSyncData()
+  await closeTestPool()
+})
 
 let mech1: Awaited<ReturnType<typeof signedIn>>
 let mech2: Awaited<ReturnType<typeof signedIn>>
@@ -179,6 +182,36 @@ describe('push: a row the database refuses', () => {
   })
 })
 
+describe('push: creates only', () => {
+  it('writes a test run and the readings taken on it in one push', async () => {
+    const callId = await makeCall()
+    const cardId = await makeTestCard()
+    const d = new Device(mech1)
+    const run = d.op('testRun', { callId, cardId, cardVersion: 1, steps: [] })
+    const ops = [run, d.op('reading', { ...reading(callId), testRunId: run.entityId }), d.op('reading', { ...reading(callId, 1e6), testRunId: run.entityId, spec: { nominal: 138.5, tolerancePct: 5 } })]
+    const r = await d.push(ops)
+    expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'applied'])
+    const rows = (await testPool().query('SELECT verdict FROM readings WHERE test_run_id = $1 ORDER BY value', [run.entityId])).rows
+    // 1e6 Ω against 138.5 Ω ± 5 %: high (the server's judge, shared/utils/spec.ts).
+    expect(rows.map(x => x.verdict)).toEqual([null, 'high'])
+  })
+
+  it('rejects only the refused create when the push has nothing but creates', async () => {
+    const callId = await makeCall()
+    const cardId = await makeTestCard()
+    const d = new Device(mech1)
+    const ops = [
+      d.op('note', { callId, text: 'kept' }),
+      d.op('testRun', { callId, cardId, cardVersion: 1, steps: [{ note: 'nul \u0000' }] }),
+      d.op('note', { callId, text: 'kept too' }),
+    ]
+    const r = await d.push(ops)
+    expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'rejected', 'applied'])
+    expect(r.body.results[1].reason).toMatch(/^steps: /)
+    expect(await countIds('notes', ops)).toBe(2)
+  })
+})
+
 describe('push: who may write what', () => {
   it("rejects a mechanic's ops on another mechanic's call as forbidden", async () => {
     const theirs = await makeCall({ mechanicId: IDS.mech2 })
@@ -329,6 +362,11 @@ describe('push: in-place updates, photos, sign-off, repeated creates, position',
       d.op('signOff', { callId, driverName: 'J. Amundsen', signature: sig }),
       d.op('signOff', { callId, driverName: 'Someone else', signature: sig }),
     ]
+    // Dispatch ranks mechanics by this position: put the demo's back afterwards.
+    const saved = (await testPool().query('SELECT last_lat, last_lon, last_position_at FROM users WHERE id = $1', [IDS.mech1])).rows[0]
+    onTestFinished(async () => {
+      await testPool().query('UPDATE users SET last_lat = $2, last_lon = $3, last_position_at = $4 WHERE id = $1', [IDS.mech1, saved.last_lat, saved.last_lon, saved.last_position_at])
+    })
     const at = new Date(Date.now() - 500).toISOString()
     const r = await d.push(ops, { position: { lat: 45.3, lon: -93.2, at } })
     expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'rejected'])

@@ -4,6 +4,13 @@ import { expect, test, type Page } from '@playwright/test'
 import { count, testPool } from '../support/db'
 import { PHONE, signIn, waitForServiceWorker } from './helpers'
 
+/** Nothing waits on the phone and no pass is running (open conflicts of other tests may remain). */
+async function allSent(page: Page, timeout = 30_000) {
+  const chip = page.getByTestId('sync-chip')
+  await expect(chip).toHaveAttribute('data-waiting', '0', { timeout })
+  await expect(chip).not.toHaveAttribute('data-state', /syncing|paused|rejected/, { timeout })
+}
+
 const shot = (page: Page, name: string) => page.screenshot({ path: `tests/e2e/screenshots/${name}.png`, fullPage: true })
 
 async function callIdByNumber(page: Page, label: RegExp) {
@@ -35,7 +42,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   let page = await ctx.newPage()
   await signIn(page, 'mech1@wayside.test')
   await waitForServiceWorker(page)
-  const callId = await callIdByNumber(page, /#3 · Ironwood/)
+  const callId = await callIdByNumber(page, /^#3 · Ironwood/)
   // One online visit of the call.
   await page.goto(`/m/calls/${callId}`)
   await expect(page.getByRole('heading', { level: 1, name: 'Call #3' })).toBeVisible()
@@ -55,7 +62,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await expect(page.getByText('No signal').first()).toBeVisible()
   await expect(page.getByText('Ironwood Freight Lines').first()).toBeVisible()
   // The unit's earlier call is on the phone too.
-  await expect(page.getByRole('heading', { name: /This unit before \(1\)/ })).toBeVisible()
+  await expect(page.getByText('Cause: DEF concentration 26 % by refractometer (diluted).')).toBeVisible()
 
   // Status steps; each writes its clock event.
   await page.getByRole('button', { name: 'Start driving' }).click()
@@ -162,7 +169,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
 
   // Back in signal: it syncs by itself.
   await ctx.setOffline(false)
-  await expect(page.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
+  await allSent(page)
   await expect(page.getByTestId('waiting-mark')).toHaveCount(0)
   await shot(page, 'field-call-synced-360')
 
@@ -186,19 +193,27 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   const reading = (await testPool().query("SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = 'DEF concentration'", [callId])).rows[0]
   expect(reading).toEqual({ value: 26.5, unit: '%', verdict: 'low' })
 
-  // The office reads the same record through its own pull, and the photos' bytes.
-  const office = await browser.newContext()
+  // The office finds every item on its call page, and the photos' bytes are the phone's.
+  const office = await browser.newContext({ viewport: { width: 1280, height: 900 } })
   const op = await office.newPage()
   await signIn(op, 'office@wayside.test')
-  const seen = await (await op.request.get('/api/sync/pull')).json()
-  const mine = (list: { callId: string }[]) => list.filter(r => r.callId === callId)
-  expect(seen.changes.calls.find((c: { id: string }) => c.id === callId)).toMatchObject({ status: 'completed', outcome: 'repaired', storyCorrection: 'Drained tank, refilled 30 L fresh DEF, cleared codes.' })
-  expect(mine(seen.changes.readings).map((r: { label: string }) => r.label)).toEqual(expect.arrayContaining(['Battery at rest', 'DEF concentration', 'DEF heater resistance']))
-  expect(mine(seen.changes.faultCodes).filter((f: { spn: number }) => f.spn === 110)).toMatchObject([{ spn: 110, fmi: 0, count: 2, state: 'active', source: 'typed' }])
-  expect(mine(seen.changes.notes).map((n: { text: string }) => n.text)).toContain('Drained the diluted DEF; yard tank suspected.')
-  expect(mine(seen.changes.photos).filter((p: { uploaded: boolean; caption: string | null }) => p.uploaded).length).toBeGreaterThanOrEqual(2)
-  expect(mine(seen.changes.partLines)).toContainEqual(expect.objectContaining({ partNumber: 'TR-DEF-10', quantity: 3 }))
-  expect(mine(seen.changes.signOffs)).toContainEqual(expect.objectContaining({ driverName: 'K. Okafor', signature: expect.stringMatching(/^data:image\/png;base64,/) }))
+  await op.goto(`/calls/${callId}`)
+  await expect(op.getByRole('heading', { level: 1, name: 'Call #3' })).toBeVisible()
+  const work = op.locator('section[aria-labelledby="work-heading"]')
+  await expect(work).toContainText('SPN 110 FMI 0')
+  for (const label of ['DEF concentration', 'Battery at rest', 'DEF heater resistance']) await expect(work).toContainText(label)
+  await expect(work).toContainText('26.5')
+  const notes = op.locator('section[aria-labelledby="notes-heading"]')
+  await expect(notes).toContainText('Drained the diluted DEF; yard tank suspected.')
+  await expect(notes.getByRole('img')).toHaveCount(2)
+  await expect(notes.getByRole('img', { name: 'DEF filler neck' })).toBeVisible()
+  const story = op.locator('section[aria-labelledby="story-heading"]')
+  await expect(story).toContainText('DEF diluted to 26.5 % by refractometer.')
+  await expect(story).toContainText('Drained tank, refilled 30 L fresh DEF, cleared codes.')
+  await expect(story).toContainText('Repaired at the roadside')
+  await expect(story.getByRole('img', { name: 'Signature of K. Okafor' })).toBeVisible()
+  await expect(op.locator('section[aria-labelledby="time-heading"]')).toContainText('TR-DEF-10')
+  await op.screenshot({ path: 'tests/e2e/screenshots/field-synced-office-call-1280.png', fullPage: true })
   const photoIds = (await testPool().query('SELECT id, sha256 FROM photos WHERE call_id = $1 AND created_at >= $2', [callId, started])).rows
   for (const p of photoIds) {
     const r = await op.request.get(`/api/photos/${p.id}`)
@@ -225,12 +240,12 @@ test('two tabs with work waiting come online together: one syncs at a time, no d
   const a = await ctx.newPage()
   await signIn(a, 'mech1@wayside.test')
   await waitForServiceWorker(a)
-  const callId = await callIdByNumber(a, /#4 · Lakeline/)
+  const callId = await callIdByNumber(a, /^#4 · Lakeline/)
   await a.goto(`/m/calls/${callId}`)
   const b = await ctx.newPage()
   await b.goto(`/m/calls/${callId}`)
   await expect(b.getByRole('heading', { level: 1, name: 'Call #4' })).toBeVisible()
-  await expect(a.getByTestId('sync-chip')).toContainText('All sent')
+  await allSent(a)
   const notesBefore = await count('notes', 'call_id = $1', [callId])
   const opsBefore = await count('sync_ops')
 
@@ -250,8 +265,8 @@ test('two tabs with work waiting come online together: one syncs at a time, no d
     p.on('requestfailed', (r) => { const s = open.get(r); if (s) s.end = Date.now() })
   }
   await ctx.setOffline(false)
-  await expect(a.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
-  await expect(b.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
+  await allSent(a)
+  await allSent(b)
   await expect.poll(() => count('notes', 'call_id = $1', [callId])).toBe(notesBefore + 4)
   // Exactly one stored op per change: nothing was applied twice.
   expect(await count('sync_ops')).toBe(opsBefore + 4)
@@ -269,11 +284,17 @@ test('signing out with unsynced work warns first, and keeps the work', async ({ 
   const page = await ctx.newPage()
   await signIn(page, 'mech1@wayside.test')
   await waitForServiceWorker(page)
-  const callId = await callIdByNumber(page, /#4 · Lakeline/)
+  const callId = await callIdByNumber(page, /^#4 · Lakeline/)
   await page.goto(`/m/calls/${callId}`)
   await ctx.setOffline(true)
   const text = `Waiting for the sign-out test ${Date.now()}`
   await addNote(page, text)
+  // The sync panel says what waits.
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Sync' }).click()
+  await expect(page.getByTestId('waiting-count')).toContainText('1 change waits to sync')
+  await expect(page.getByRole('region', { name: /Waiting to send/ })).toContainText(text.slice(0, 30))
+  await expect(page.getByText('No signal. Work is kept on the phone')).toBeVisible()
+  await page.screenshot({ path: 'tests/e2e/screenshots/field-sync-panel-360.png', fullPage: true })
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click()
   await page.getByRole('button', { name: 'Sign out' }).click()
   const warn = page.getByRole('alertdialog')
@@ -289,8 +310,8 @@ test('signing out with unsynced work warns first, and keeps the work', async ({ 
   await ctx.setOffline(false)
   expect(await count('notes', 'call_id = $1 AND text = $2', [callId, text])).toBe(0)
   await signIn(page, 'mech1@wayside.test')
-  await expect(page.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
-  expect(await count('notes', 'call_id = $1 AND text = $2', [callId, text])).toBe(1)
+  await expect.poll(() => count('notes', 'call_id = $1 AND text = $2', [callId, text]), { timeout: 30_000 }).toBe(1)
+  await allSent(page)
   // Nothing waits now: signing out asks nothing.
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click()
   await page.getByRole('button', { name: 'Sign out' }).click()
@@ -305,10 +326,10 @@ test('a field changed on two phones from the same start is settled on the phone'
   for (const p of pages) {
     await signIn(p, 'mech1@wayside.test')
     await waitForServiceWorker(p)
-    callId = await callIdByNumber(p, /#4 · Lakeline/)
+    callId = await callIdByNumber(p, /^#4 · Lakeline/)
     await p.goto(`/m/calls/${callId}`)
     await expect(p.getByRole('heading', { level: 1, name: 'Call #4' })).toBeVisible()
-    await expect(p.getByTestId('sync-chip')).toContainText('All sent')
+    await allSent(p)
   }
   const [a, b] = pages as [Page, Page]
   await Promise.all(phones.map(p => p.setOffline(true)))
@@ -319,13 +340,13 @@ test('a field changed on two phones from the same start is settled on the phone'
   }
   // Phone A gets signal first; phone B's change then meets A's on the server.
   await phones[0]!.setOffline(false)
-  await expect(a.getByTestId('sync-chip')).toContainText('All sent', { timeout: 30_000 })
+  await allSent(a)
   await phones[1]!.setOffline(false)
   const conflict = b.getByRole('article', { name: 'Conflict on Cause' })
   await expect(conflict).toBeVisible({ timeout: 30_000 })
   await expect(conflict.getByTestId('device-value')).toHaveText('Coolant sensor open circuit')
   await expect(conflict.getByTestId('server-value')).toHaveText('Thermostat stuck open')
-  await expect(b.getByTestId('sync-chip')).toContainText('1 to settle')
+  await expect(b.getByTestId('sync-chip')).toHaveAttribute('data-state', 'settle')
   await conflict.scrollIntoViewIfNeeded()
   await b.screenshot({ path: 'tests/e2e/screenshots/field-conflict-360.png' })
   expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'open'", [callId])).toBe(1)
@@ -338,4 +359,21 @@ test('a field changed on two phones from the same start is settled on the phone'
   expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'resolved' AND choice = 'value'", [callId])).toBe(1)
   await expect(b.getByLabel(/^Cause/)).toHaveValue('Thermostat stuck open; sensor reads true')
   await Promise.all(phones.map(p => p.close()))
+})
+
+test('with consent, the last known position goes with the next sync; the question is asked once', async ({ browser }) => {
+  const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true, geolocation: { latitude: 45.4123, longitude: -93.2345 }, permissions: ['geolocation'] })
+  const page = await ctx.newPage()
+  await signIn(page, 'mech2@wayside.test')
+  const ask = page.getByRole('dialog', { name: /Share where you are/ })
+  await expect(ask).toBeVisible()
+  await ask.getByRole('button', { name: 'Yes, share it when syncing' }).click()
+  await expect(ask).toHaveCount(0)
+  await page.getByRole('button', { name: 'Sync now' }).click()
+  await expect.poll(async () => (await testPool().query("SELECT last_lat, last_lon FROM users WHERE email = 'mech2@wayside.test'")).rows[0], { timeout: 30_000 })
+    .toEqual({ last_lat: 45.4123, last_lon: -93.2345 })
+  await page.reload()
+  await expect(page.getByRole('heading', { level: 1, name: 'My calls' })).toBeVisible()
+  await expect(page.getByRole('dialog', { name: /Share where you are/ })).toHaveCount(0)
+  await ctx.close()
 })

@@ -38,8 +38,9 @@ export async function startOwnServer(port: number, env: Record<string, string> =
     pid: proc.pid!,
     output: () => output,
     waitForOutput: (text: string, ms = 20_000) => until(`"${text}"`, () => output.includes(text), ms),
-    /** Resident memory of the process in KiB, from /proc (Linux). */
+    /** Resident memory of the process in KiB, now and at its peak, from /proc (Linux). */
     rssKb: () => Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${proc.pid}/status`, 'utf8'))?.[1]),
+    peakRssKb: () => Number(/VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${proc.pid}/status`, 'utf8'))?.[1]),
     async kill(signal: NodeJS.Signals = 'SIGKILL') {
       if (proc.exitCode === null) proc.kill(signal)
       await exited

@@ -70,9 +70,39 @@ export async function pullUntil(device: Device, cursor: string | undefined, done
 
 export const idsOf = (rows: { id: string }[] | undefined) => new Set((rows ?? []).map(r => r.id))
 
+// What this test file made, so cleanupSyncData() can take it away again: the browser tests run on
+// the same database afterwards and count the mechanics' calls, conflicts and test cards.
+const made = { calls: [] as string[], cards: [] as string[] }
+
+/** Deletes the calls and test cards this file made, with every record pushed onto them. */
+export async function cleanupSyncData() {
+  const client = await testPool().connect()
+  try {
+    await client.query('BEGIN')
+    const calls = made.calls, cards = made.cards
+    await client.query('DELETE FROM readings WHERE call_id = ANY($1) OR test_run_id IN (SELECT id FROM test_runs WHERE card_id = ANY($2))', [calls, cards])
+    for (const t of ['fault_codes', 'notes', 'photos', 'clock_events', 'part_lines', 'sign_offs', 'conflicts', 'call_events']) {
+      await client.query(`DELETE FROM ${t} WHERE call_id = ANY($1)`, [calls])
+    }
+    await client.query('DELETE FROM test_runs WHERE call_id = ANY($1) OR card_id = ANY($2)', [calls, cards])
+    await client.query('DELETE FROM calls WHERE id = ANY($1)', [calls])
+    await client.query('DELETE FROM test_card_versions WHERE card_id = ANY($1)', [cards])
+    await client.query('DELETE FROM test_cards WHERE id = ANY($1)', [cards])
+    await client.query('COMMIT')
+    made.calls = []
+    made.cards = []
+  }
+  catch (err) {
+    await client.query('ROLLBACK')
+    throw err
+  }
+  finally { client.release() }
+}
+
 /** A call of our own, assigned to `mechanicId` (as dispatch would: with an 'assigned' event). */
 export async function makeCall(opts: { mechanicId?: string | null; status?: string; storyCause?: string | null } = {}) {
   const id = randomUUID()
+  made.calls.push(id)
   const mechanicId = opts.mechanicId === undefined ? IDS.mech1 : opts.mechanicId
   const status = opts.status ?? (mechanicId ? 'assigned' : 'received')
   await testPool().query(
@@ -102,6 +132,7 @@ export function jpegBytes(extra = 0) {
 
 export async function makeTestCard() {
   const cardId = randomUUID()
+  made.cards.push(cardId)
   await testPool().query(`INSERT INTO test_cards (id, slug, title, component_type) VALUES ($1, $2, 'Sync test card', 'sensor')`, [cardId, `sync-test-${cardId}`])
   await testPool().query(`INSERT INTO test_card_versions (card_id, card_version, definition) VALUES ($1, 1, '{"steps": []}')`, [cardId])
   return cardId

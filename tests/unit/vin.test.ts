@@ -125,3 +125,33 @@ describe('validateVin and vinProblem', () => {
     expect(vinProblem('1M8GDM9AXKP042788')).toBeNull()
   })
 })
+
+describe('what the check digit can and cannot catch', () => {
+  const VIN_CHARS = '0123456789ABCDEFGHJKLMNPRSTUVWXYZ'.split('')
+  it('catches every single-character slip that changes the character value, at any weighted position', () => {
+    // arithmetic of 49 CFR 565: weights 1–10 and value differences 1–9 are never 0 mod 11 (11 is prime)
+    fc.assert(fc.property(
+      fc.array(fc.constantFrom(...VIN_CHARS), { minLength: 17, maxLength: 17 }),
+      fc.integer({ min: 0, max: 16 }).filter(i => i !== 8),
+      fc.constantFrom(...VIN_CHARS),
+      (chars, pos, replacement) => {
+        const good = chars.join('')
+        const withCheck = good.slice(0, 8) + vinCheckDigit(good) + good.slice(9)
+        const slipped = withCheck.slice(0, pos) + replacement + withCheck.slice(pos + 1)
+        if (refValue(replacement) === refValue(withCheck.charAt(pos))) return vinProblem(slipped) === null
+        return vinProblem(slipped)?.kind === 'check_digit'
+      },
+    ), { numRuns: 3000 })
+  })
+
+  it('cannot tell letters of equal value apart (A and J are both 1)', () => {
+    // 49 CFR 565 transliteration: A = J = 1, so swapping them keeps the check digit
+    expect(vinCheckDigit('1M8GDM9AXKP042788')).toBe(vinCheckDigit('1M8GDM9JXKP042788'))
+  })
+
+  it('gives X for a remainder of 10 and ignores position 9 itself', () => {
+    // 49 CFR 565: remainder 10 is written X; position 9 carries weight 0
+    expect(vinCheckDigit('1M8GDM9A0KP042788')).toBe('X')
+    expect(vinCheckDigit('1M8GDM9A7KP042788')).toBe('X')
+  })
+})

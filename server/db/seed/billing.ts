@@ -11,7 +11,7 @@ type Db = NodePgDatabase<typeof t>
 export async function seedBilling(db: Db) {
   const [rates] = await db.select().from(t.rates).where(eq(t.rates.id, seedId('rates:2026')))
   if (!rates) return
-  for (const [key, status] of [['c7', 'sent'], ['c8', 'paid']] as const) {
+  for (const [key, status] of [['c7', 'sent'], ['c8', 'paid'], ['c11', 'paid'], ['c12', 'paid'], ['c13', 'paid']] as const) {
     const invoiceId = seedId(`invoice:${key}`)
     const [existing] = await db.select({ id: t.invoices.id }).from(t.invoices).where(eq(t.invoices.id, invoiceId))
     if (existing) continue

@@ -18,6 +18,9 @@ export const DEMO_USERS = [
   { key: 'mech1', email: 'mech1@wayside.test', name: 'Marco Lindqvist', role: 'mechanic', lat: 45.512, lon: -92.981, truck: 'Truck 11' },
   { key: 'mech2', email: 'mech2@wayside.test', name: 'Priya Haldane', role: 'mechanic', lat: 45.301, lon: -93.402, truck: 'Truck 12' },
   { key: 'mech3', email: 'mech3@wayside.test', name: 'Tomasz Reyes', role: 'mechanic', lat: 45.078, lon: -93.115, truck: 'Truck 21', offDuty: true },
+  { key: 'mech4', email: 'mech4@wayside.test', name: 'Sunniva Adeyemi', role: 'mechanic', lat: 45.164, lon: -93.236, truck: 'Truck 22' },
+  // A new hire whose phone has not synced yet: no known position.
+  { key: 'mech5', email: 'mech5@wayside.test', name: 'Levi Castellanos', role: 'mechanic' },
 ] as const
 
 /** A VIN of our own making with a correct check digit (49 CFR 565). */
@@ -38,7 +41,7 @@ export async function seedCore(db: Db) {
 
   const trucks = [
     { name: 'Truck 11', plate: 'TR 4411', yard: 'north' }, { name: 'Truck 12', plate: 'TR 4412', yard: 'north' },
-    { name: 'Truck 21', plate: 'TR 4421', yard: 'south' },
+    { name: 'Truck 21', plate: 'TR 4421', yard: 'south' }, { name: 'Truck 22', plate: 'TR 4422', yard: 'south' },
   ]
   await db.insert(t.serviceTrucks).values(trucks.map(tr => ({ id: seedId(`truck:${tr.name}`), name: tr.name, plate: tr.plate, yardId: seedId(`yard:${tr.yard}`) }))).onConflictDoNothing()
 
@@ -133,6 +136,10 @@ async function seedCalls(db: Db) {
     { key: 'c8', status: 'paid', outcome: 'no_fault_found', customer: 'vossberg', unit: 18, mechanicId: mech2, locationText: 'Truck stop lot, Route 8 exit 31', lat: 45.401, lon: -93.219, complaint: 'Stop-engine lamp came on once', lamps: ['stop_engine'], receivedAt: at(6 * 24), assignedAt: at(143.9), enRouteAt: at(143.6), onSiteAt: at(143), completedAt: at(142), invoicedAt: at(120), paidAt: at(100), storyComplaint: 'Stop-engine lamp once, went out.', storyCause: 'Stored low oil level code; level at full mark, no leaks.', storyCorrection: 'Checked level and sender; cleared stored code; advised to watch.' },
     { key: 'c9', status: 'cancelled', customer: 'okonkwo', unit: 20, locationText: 'Millrace town square', lat: 45.241, lon: -93.322, complaint: 'Flat steer tire', lamps: [], receivedAt: at(26), cancelledAt: at(25.5), cancelReason: 'Driver found a tire shop nearby' },
     { key: 'c10', status: 'completed', outcome: 'repaired', customer: 'ironwood', unit: 2, mechanicId: mech1, locationText: 'Ironwood terminal, bay 2', lat: 45.522, lon: -92.944, complaint: 'DEF lamp on', lamps: ['def'], receivedAt: at(20 * 24), assignedAt: at(479), enRouteAt: at(478.8), onSiteAt: at(478), completedAt: at(476), storyComplaint: 'DEF lamp on.', storyCause: 'DEF concentration 26 % by refractometer (diluted).', storyCorrection: 'Drained and refilled with fresh DEF; concentration 32.4 %.' },
+    // Unit history: the DEF fault on unit 2 comes back 12 days after c10; the coolant sensor code on unit 14 (c4) repeats c12.
+    { key: 'c11', status: 'paid', outcome: 'repaired', customer: 'ironwood', unit: 2, mechanicId: mech2, locationText: 'Route 8 westbound, rest area at mile 37', lat: 45.366, lon: -93.152, complaint: 'DEF lamp back on, says derate in 60 minutes', lamps: ['def', 'check_engine'], derate: 'countdown', derateNote: '60 min to derate', loaded: true, poNumber: 'IFL-5390', authLimitCents: 120000, receivedAt: at(8 * 24), assignedAt: at(191.8), enRouteAt: at(191.6), onSiteAt: at(191), completedAt: at(189.5), invoicedAt: at(170), paidAt: at(100), storyComplaint: 'DEF lamp on again with a derate countdown.', storyCause: 'DEF quality sensor reads low although the fluid tests 32.5 %; sensor connector pin 3 corroded.', storyCorrection: 'Cleaned and sealed the connector, replaced the pigtail; cleared codes, countdown gone after a 15 km drive.' },
+    { key: 'c12', status: 'paid', outcome: 'repaired', customer: 'lakeline', unit: 14, mechanicId: mech1, locationText: 'Lakeline public works yard, bay 1', lat: 45.148, lon: -92.998, complaint: 'Temperature gauge stuck at cold', lamps: ['check_engine'], receivedAt: at(25 * 24), assignedAt: at(599.7), enRouteAt: at(599.5), onSiteAt: at(599), completedAt: at(597.8), invoicedAt: at(560), paidAt: at(400), storyComplaint: 'Gauge reads cold, check-engine on.', storyCause: 'Coolant temperature sensor open circuit: no reading across its pins.', storyCorrection: 'Replaced the coolant temperature sensor; reads 84 °C at operating temperature.' },
+    { key: 'c13', status: 'paid', outcome: 'towed', customer: 'prairie', unit: 7, mechanicId: mech2, locationText: 'Highway 12 eastbound near exit 22', lat: 45.318, lon: -93.292, complaint: 'Loud knock, oil pressure lamp', lamps: ['oil_pressure', 'stop_engine'], derate: 'shutdown', loaded: true, safetyNotes: 'Stopped in the right lane at night: wait for the patrol before leaving the truck', receivedAt: at(45 * 24), assignedAt: at(1079.8), enRouteAt: at(1079.6), onSiteAt: at(1079), completedAt: at(1078), invoicedAt: at(1000), paidAt: at(900), storyComplaint: 'Knock and low oil pressure.', storyCause: 'Oil pressure 0 kPa at idle on a mechanical gauge; internal engine damage suspected.', storyCorrection: 'Did not run the engine further; arranged a tow to the customer\'s shop.' },
   ]
   for (const c of list) {
     const { key, customer, unit, ...rest } = c
@@ -147,7 +154,7 @@ async function seedCalls(db: Db) {
     let prev: (typeof steps)[number][0] | 'received' = 'received'
     for (const [s, when] of steps) {
       if (!when) continue
-      events.push({ id: seedId(`event:${key}:${s}`), callId: seedId(`call:${key}`), kind: 'status', fromStatus: prev, toStatus: s, mechanicId: s === 'assigned' ? rest.mechanicId : null, at: when })
+      events.push({ id: seedId(`event:${key}:${s}`), callId: seedId(`call:${key}`), kind: s === 'assigned' ? 'assigned' : 'status', fromStatus: prev, toStatus: s, mechanicId: s === 'assigned' ? rest.mechanicId : null, at: when })
       prev = s
     }
     await db.insert(t.callEvents).values(events).onConflictDoNothing()
@@ -167,6 +174,7 @@ async function seedCalls(db: Db) {
   }
   await db.insert(t.clockEvents).values([
     ...clock('c6', 29.6, 0.6, 1.4, mech2), ...clock('c7', 71.7, 0.7, 0.9, mech1), ...clock('c8', 143.6, 0.6, 0.8, mech2), ...clock('c10', 478.8, 0.8, 1.9, mech1),
+    ...clock('c11', 191.6, 0.6, 1.4, mech2), ...clock('c12', 599.5, 0.5, 1.1, mech1), ...clock('c13', 1079.6, 0.6, 0.7, mech2),
   ]).onConflictDoNothing()
   await db.insert(t.faultCodes).values([
     { ...child('c6', 'fault'), spn: 168, fmi: 1, state: 'active', count: 3, createdBy: mech2, clearedAt: new Date(now - 27.6 * 3600_000) },
@@ -174,8 +182,9 @@ async function seedCalls(db: Db) {
     { ...child('c10', 'fault'), spn: 3516, fmi: 18, state: 'active', count: 2, createdBy: mech1, clearedAt: new Date(now - 476.1 * 3600_000) },
     { ...child('c5', 'fault'), spn: 3242, fmi: 4, state: 'active', count: 5, createdBy: mech2 },
     { ...child('c4', 'fault'), code: 'P0117', state: 'active', count: 1, createdBy: mech1 },
-    // The DEF fault of c10 back on the same unit 20 days later: a comeback.
-    { ...child('c3', 'fault'), spn: 3516, fmi: 18, state: 'active', count: 1, createdBy: mech1 },
+    { ...child('c11', 'fault'), spn: 3516, fmi: 18, state: 'active', count: 4, createdBy: mech2, clearedAt: new Date(now - 189.6 * 3600_000) },
+    { ...child('c12', 'fault'), code: 'P0117', state: 'active', count: 2, createdBy: mech1, clearedAt: new Date(now - 597.9 * 3600_000) },
+    { ...child('c13', 'fault'), spn: 100, fmi: 1, state: 'active', count: 1, createdBy: mech2 },
   ]).onConflictDoNothing()
   await db.insert(t.readings).values([
     { ...child('c6', 'reading:alt'), label: 'Charging voltage at 1500 rpm', quantity: 'voltage', value: 12.4, unit: 'V', component: 'Alternator B+', conditions: 'running', spec: { min: 13.5, max: 14.5 }, verdict: 'low', createdBy: mech2 },
@@ -187,6 +196,8 @@ async function seedCalls(db: Db) {
     { ...child('c7', 'part'), partNumber: 'TR-FUSE-30', description: 'Blade fuse 30 A (pack of 5)', quantity: 1, unitPriceCents: 650, serviceTruckId: seedId('truck:Truck 11'), createdBy: mech1 },
     { ...child('c7', 'part2'), partNumber: 'TR-CONN-6', description: 'Connector repair kit, 6-way sealed', quantity: 1, unitPriceCents: 3150, serviceTruckId: seedId('truck:Truck 11'), createdBy: mech1 },
     { ...child('c10', 'part'), partNumber: 'TR-DEF-10', description: 'DEF (AUS 32), 10 L jug', quantity: 3, unitPriceCents: 2400, serviceTruckId: seedId('truck:Truck 11'), createdBy: mech1 },
+    { ...child('c11', 'part'), partNumber: 'TR-CONN-6', description: 'Connector repair kit, 6-way sealed', quantity: 1, unitPriceCents: 3150, serviceTruckId: seedId('truck:Truck 12'), createdBy: mech2 },
+    { ...child('c12', 'part'), partNumber: 'TR-ECT-10K', description: 'Coolant temperature sensor, NTC type', quantity: 1, unitPriceCents: 6275, serviceTruckId: seedId('truck:Truck 11'), createdBy: mech1 },
   ]).onConflictDoNothing()
   await db.insert(t.notes).values([
     { ...child('c5', 'note'), text: 'Derated to 60 km/h per driver. Ramp is tight; parked with hazards on, devices placed.', createdBy: mech2 },

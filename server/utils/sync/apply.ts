@@ -1,8 +1,9 @@
 // Applies a push's fresh ops inside the push transaction. Creates are gathered per entity and
 // written with one multi-row INSERT each (flushed before any update, so an update sees the rows
-// created before it); updates and conflict settlements run one by one, each in a savepoint so a
-// row the database refuses rejects only that op.
-import { eq, inArray, sql } from 'drizzle-orm'
+// created before it); updates and conflict settlements run one by one. The fast pass has no
+// savepoints; if the database refuses a row, the push runs again carefully, with a savepoint
+// around each insert and update, so only the refused op is rejected (see SyncApplier).
+import { eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { PgTable } from 'drizzle-orm/pg-core'
 import type { User } from '#auth-utils'
 import {
@@ -14,7 +15,7 @@ import type { z } from 'zod'
 import type { Tx } from '../db'
 import { outcomeProblem, writeCallChanges, type CallRow } from './callWrite'
 import { resolveConflictInTx, SyncRuleError } from './conflicts'
-import { bulkInsert } from './bulk'
+import { bulkInsert, bulkInsertSql } from './bulk'
 import { mergeCallField, sameSyncValue, stableSyncJson } from './merge'
 import { isRetryableTxError, pgErrorCode } from './retry'
 
@@ -116,6 +117,8 @@ export class SyncApplier {
   private refs: Refs = { testRuns: new Map(), cardVersions: new Set(), trucks: new Set(), stock: new Map(), signedCalls: new Map() }
   private buffers = new Map<ChildEntity, Pending[]>()
   private sp = 0
+  /** Fast pass only: inserts left for the push's closing statement. */
+  deferred: SQL[] = []
 
   /**
    * careful = false: no savepoints, the fast path; a row the database refuses aborts the push,
@@ -141,8 +144,32 @@ export class SyncApplier {
           : this.resolution(p.data, p.hasValue))
       }
     }
-    await this.flush()
+    if (this.careful) await this.flush()
+    else this.deferred = this.deferFlush()
     return this.results
+  }
+
+  /**
+   * Fast pass: the creates left at the end become plain INSERTs the push sends together with
+   * its stored results, in one statement. Any clash (an id that exists already) or refusal fails
+   * that statement, and the careful pass then compares and rejects op by op.
+   */
+  private deferFlush(): SQL[] {
+    const out: SQL[] = []
+    for (const entity of FLUSH_ORDER) {
+      const pending = this.buffers.get(entity)
+      if (!pending?.length) continue
+      this.buffers.delete(entity)
+      const first = new Map<string, Pending>()
+      for (const p of pending) {
+        const f = first.get(p.row.id)
+        if (!f) { first.set(p.row.id, p); this.results[p.index] = { status: 'applied', version: 1 }; continue }
+        const same = Object.keys(p.row).every(k => NOT_CONTENT.has(k) || sameSyncValue(p.row[k], f.row[k]))
+        this.results[p.index] = same ? { status: 'applied', version: 1 } : rejected(`entityId: a different ${ENTITY_WORDS[entity]} already has this id`)
+      }
+      out.push(bulkInsertSql(TABLE[entity], [...first.values()].map(p => p.row), { returning: false, skipClashes: false }))
+    }
+    return out
   }
 
   // ── Loading ─────────────────────────────────────────────────────────────────────────────
@@ -197,11 +224,11 @@ export class SyncApplier {
     await Promise.all(jobs)
   }
 
-  private async lockCall(id: string): Promise<CallRow | undefined> {
+  /** The call of a record an op changes in place; read, not locked (the record's row is). */
+  private async callOf(id: string): Promise<CallRow | undefined> {
     const known = this.calls.get(id)
     if (known) return known
-    const [row] = await this.tx.select().from(tables.calls).where(eq(tables.calls.id, id)).for('no key update')
-    if (row) this.calls.set(row.id, row)
+    const [row] = await this.tx.select().from(tables.calls).where(eq(tables.calls.id, id))
     return row
   }
 
@@ -399,7 +426,7 @@ export class SyncApplier {
     const table = TABLE[entity]
     const [row] = await this.tx.select({ callId: table.callId }).from(table).where(eq(table.id, op.entityId)).for('update')
     if (!row) return rejected(`entityId: no such ${ENTITY_WORDS[entity]}`)
-    const problem = this.accessProblem(await this.lockCall(row.callId as string))
+    const problem = this.accessProblem(await this.callOf(row.callId as string))
     if (problem) return rejected(problem === FORBIDDEN ? FORBIDDEN : 'entityId: no such call')
     const set: Record<string, unknown> = { ...changes }
     for (const k of ['clearedAt', 'finishedAt']) if (k in set) set[k] = toDate(set[k])
@@ -465,6 +492,13 @@ function jsonb(v: unknown) {
   return sql`${JSON.stringify(v ?? null)}::jsonb`
 }
 
+/** Applies the ops; in the fast pass some inserts come back in `deferred` for the caller to run. */
 export async function applySyncOps(tx: Tx, user: User, ops: Op[], limits: { photoMaxBytes: number }, careful = false) {
-  return new SyncApplier(tx, user, ops, limits, careful).run()
+  const applier = new SyncApplier(tx, user, ops, limits, careful)
+  const outcomes = await applier.run()
+  return { outcomes, deferred: applier.deferred }
+}
+
+export function isSyncDataError(err: unknown) {
+  return isDataError(err)
 }

@@ -6,8 +6,11 @@ import { getTableColumns, sql, type SQL } from 'drizzle-orm'
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import type { Tx } from '../db'
 
-/** The INSERT for `rows` (all with the same keys, named as the table's properties); clashing rows are skipped. */
-export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], opts: { returning?: boolean } = {}): SQL {
+/**
+ * The INSERT for `rows` (all with the same keys, named as the table's properties). Rows that clash
+ * with an existing one are skipped, unless skipClashes is false (then the statement fails).
+ */
+export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], opts: { returning?: boolean; skipClashes?: boolean } = {}): SQL {
   const columns = getTableColumns(table) as Record<string, PgColumn>
   const keys = Object.keys(rows[0] ?? {})
   const names = keys.map((key) => {
@@ -21,8 +24,9 @@ export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], o
     return o
   })
   const list = sql.join(names.map(n => sql.identifier(n)), sql`, `)
+  const clashes = opts.skipClashes === false ? sql`` : sql` ON CONFLICT DO NOTHING`
   const returning = opts.returning === false ? sql`` : sql` RETURNING id`
-  return sql`INSERT INTO ${table} (${list}) SELECT ${list} FROM json_populate_recordset(NULL::${table}, ${JSON.stringify(records)}::json) ON CONFLICT DO NOTHING${returning}`
+  return sql`INSERT INTO ${table} (${list}) SELECT ${list} FROM json_populate_recordset(NULL::${table}, ${JSON.stringify(records)}::json)${clashes}${returning}`
 }
 
 /** Inserts `rows`, skipping those that clash with an existing row, and answers the ids written. */

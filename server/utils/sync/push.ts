@@ -1,10 +1,10 @@
 // POST /api/sync/push: one transaction per push. The sync_clients row is locked first, so two
 // pushes from one device run one after the other and the second finds the first's ops already
 // stored (duplicates). Ops, their stored results and the client's last seq commit together.
-import { and, eq, inArray, sql } from 'drizzle-orm'
+import { and, eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { PushBody, PushResult } from '#shared/schemas/sync'
-import { applySyncOps, SyncCarefulPass, type OpOutcome } from './apply'
+import { applySyncOps, isSyncDataError, SyncCarefulPass, type OpOutcome } from './apply'
 import { bulkInsertSql } from './bulk'
 import { pgErrorCode, withTxRetry } from './retry'
 import { syncTestInjectSerializationFailure, syncTestPause } from './testHooks'
@@ -79,7 +79,8 @@ function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, care
     }
 
     let outcomes: OpOutcome[] = []
-    if (fresh.length) outcomes = await applySyncOps(tx, user, fresh, { photoMaxBytes }, careful)
+    let deferred: SQL[] = []
+    if (fresh.length) ({ outcomes, deferred } = await applySyncOps(tx, user, fresh, { photoMaxBytes }, careful))
     const lastSeq = fresh.length ? fresh[fresh.length - 1]!.seq : client.lastSeq
     const advance = sql`UPDATE sync_clients SET last_seq = ${lastSeq}, last_seen_at = now(), user_agent = coalesce(${userAgent}, user_agent) WHERE id = ${client.id}`
     if (fresh.length) {
@@ -88,7 +89,14 @@ function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, care
         opId: op.opId, clientId: client.id, seq: op.seq, entity: op.entity, entityId: op.entityId, action: op.action,
         status: outcomes[i]!.status, version: outcomes[i]!.version ?? null, reason: outcomes[i]!.reason ?? null,
       }))
-      await tx.execute(sql`WITH stored AS (${bulkInsertSql(syncOps, opRows, { returning: false })}) ${advance}`)
+      // The fast pass's last inserts, the ops' stored results and the new last seq: one statement.
+      const parts = [...deferred, bulkInsertSql(syncOps, opRows, { returning: false })].map((q, i) => sql`${sql.raw(`w${i}`)} AS (${q})`)
+      try {
+        await tx.execute(sql`WITH ${sql.join(parts, sql`, `)} ${advance}`)
+      }
+      catch (err) {
+        throw !careful && isSyncDataError(err) ? new SyncCarefulPass(err) : err
+      }
       fresh.forEach((op, i) => {
         const o = outcomes[i]!
         const r: Result = { opId: op.opId, seq: op.seq, status: o.status }

@@ -1,0 +1,9 @@
+// Answers of our own API as the browser receives them (JSON: dates become text), inferred from
+// the server routes so the office screens and the routes cannot drift apart.
+import type { InternalApi, Serialize, Simplify } from 'nitropack/types'
+
+type Answer<Route extends keyof InternalApi, M extends keyof InternalApi[Route]> = Simplify<Serialize<Awaited<InternalApi[Route][M]>>>
+
+export type CallRecordView = Answer<'/api/calls/:id', 'get'>
+export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
+export type UnitView = Answer<'/api/units/:id', 'get'>

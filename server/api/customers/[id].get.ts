@@ -1,0 +1,9 @@
+import { idParamsSchema } from '#shared/schemas/users'
+
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'dispatcher', 'office', 'admin')
+  const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
+  const customer = await getCustomer(id)
+  if (!customer) throw createError({ status: 404, statusText: 'Customer not found' })
+  return customer
+})

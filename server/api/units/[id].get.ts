@@ -1,0 +1,9 @@
+import { idParamsSchema } from '#shared/schemas/users'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
+  const unit = await getUnitWithHistory(id, user)
+  if (!unit) throw createError({ status: 404, statusText: 'Unit not found' })
+  return unit
+})

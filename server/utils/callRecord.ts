@@ -1,0 +1,87 @@
+// The whole record of one call, as the office reads it (GET /api/calls/[id]).
+import { asc, eq, inArray } from 'drizzle-orm'
+import type { JudgeSpec } from '#shared/utils/spec'
+import type { BillingClockEvent } from '#shared/utils/billing'
+
+function specText(spec: Record<string, unknown> | null, unit: string) {
+  if (!spec) return null
+  try { return describeSpec(spec as JudgeSpec, unit) }
+  catch { return null }
+}
+
+/** Travel and labor from the clock (shared/utils/billing.ts), and whether a span is still open. */
+function clockTime(events: { kind: BillingClockEvent['kind']; at: Date }[]) {
+  const upToNow = clockTotals(events, new Date())
+  const latest = new Date(Math.max(0, ...events.map(e => e.at.getTime())))
+  const closed = clockTotals(events, latest)
+  return {
+    travelMinutes: upToNow.travelMs / 60_000, laborMinutes: upToNow.laborMs / 60_000,
+    travelRunning: upToNow.travelMs > closed.travelMs, workRunning: upToNow.laborMs > closed.laborMs,
+  }
+}
+
+type ConflictValue = string | number | boolean | null | unknown[] | Record<string, unknown>
+
+export async function getCallRecord(id: string) {
+  const db = useDb()
+  const { calls, users, testCards } = tables
+  const call = await db.query.calls.findFirst({
+    where: eq(calls.id, id),
+    with: {
+      customer: true,
+      unit: true,
+      serviceTruck: { columns: { id: true, name: true, plate: true } },
+      faultCodes: { orderBy: t => [asc(t.createdAt)] },
+      readings: { orderBy: t => [asc(t.createdAt)] },
+      testRuns: { orderBy: t => [asc(t.createdAt)] },
+      notes: { orderBy: t => [asc(t.createdAt)] },
+      photos: { orderBy: t => [asc(t.createdAt)] },
+      clockEvents: { orderBy: t => [asc(t.createdAt)] },
+      partLines: { orderBy: t => [asc(t.createdAt)] },
+      signOffs: true,
+      events: { orderBy: t => [asc(t.at), asc(t.createdAt)] },
+      conflicts: { orderBy: t => [asc(t.createdAt)] },
+    },
+  })
+  if (!call) return null
+
+  // Names of everyone the record mentions, in one query.
+  const personIds = new Set<string>()
+  for (const id of [call.mechanicId, call.createdBy]) if (id) personIds.add(id)
+  for (const e of call.events) { if (e.byUserId) personIds.add(e.byUserId); if (e.mechanicId) personIds.add(e.mechanicId) }
+  for (const c of call.conflicts) { if (c.raisedBy) personIds.add(c.raisedBy); if (c.resolvedBy) personIds.add(c.resolvedBy) }
+  const people = personIds.size
+    ? await db.select({ id: users.id, name: users.name, email: users.email, phone: users.phone, role: users.role }).from(users).where(inArray(users.id, [...personIds]))
+    : []
+  const person = (pid: string | null) => (pid ? people.find(p => p.id === pid) ?? null : null)
+  const cardIds = [...new Set(call.testRuns.map(r => r.cardId))]
+  const cards = cardIds.length ? await db.select({ id: testCards.id, title: testCards.title, slug: testCards.slug }).from(testCards).where(inArray(testCards.id, cardIds)) : []
+
+  const clockAt = (e: { deviceAt: Date | null; createdAt: Date }) => e.deviceAt ?? e.createdAt
+  const { events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit, ...rest } = call
+  return {
+    ...withoutXid(rest),
+    customer: withoutXid(customer),
+    unit: unit ? withoutXid(unit) : null,
+    mechanic: person(call.mechanicId),
+    createdByPerson: person(call.createdBy),
+    faultCodes: faultCodes.map(f => ({ ...withoutXid(f), description: describeFaultCodeSafe(f) })),
+    readings: readings.map(r => ({ ...withoutXid(r), specText: specText(r.spec, r.unit) })),
+    testRuns: testRuns.map(r => ({ ...withoutXid(r), card: cards.find(c => c.id === r.cardId) ?? null })),
+    notes: notes.map(withoutXid),
+    photos: photos.map(p => ({ ...withoutXid(p), url: `/api/photos/${p.id}`, pending: !p.uploadedAt })),
+    clockEvents: clockEvents.map(e => ({ ...withoutXid(e), at: clockAt(e) })).sort((a, b) => a.at.getTime() - b.at.getTime()),
+    time: clockTime(clockEvents.map(e => ({ kind: e.kind, at: clockAt(e) }))),
+    partLines: partLines.map(withoutXid),
+    story: { complaint: call.storyComplaint, cause: call.storyCause, correction: call.storyCorrection },
+    signOff: signOffs[0] ? withoutXid(signOffs[0]) : null,
+    conflicts: conflicts.map(c => ({
+      ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy),
+      // jsonb values, typed as JSON so the answer type keeps them.
+      baseValue: c.baseValue as ConflictValue, deviceValue: c.deviceValue as ConflictValue, serverValue: c.serverValue as ConflictValue, resolvedValue: c.resolvedValue as ConflictValue,
+    })),
+    events: events.map(e => ({ ...withoutXid(e), by: person(e.byUserId), mechanic: person(e.mechanicId) })),
+  }
+}
+
+export type CallRecord = NonNullable<Awaited<ReturnType<typeof getCallRecord>>>
