@@ -1,14 +1,7 @@
 // Wayside: one Nuxt app for the mechanic's phone and the office's desktop.
 export default defineNuxtConfig({
-  compatibilityDate: '2026-11-01',
+  modules: ['@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt'],
   devtools: { enabled: false },
-  telemetry: false,
-  modules: ['@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt'],
-  css: ['~/assets/css/main.css'],
-  typescript: {
-    strict: true,
-    tsConfig: { compilerOptions: { noUncheckedIndexedAccess: true } },
-  },
   app: {
     head: {
       htmlAttrs: { lang: 'en' },
@@ -21,6 +14,7 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', href: '/favicon.svg', type: 'image/svg+xml' }],
     },
   },
+  css: ['~/assets/css/main.css'],
   runtimeConfig: {
     // Every value can be set by NUXT_<NAME> at run time (see README, Configuration).
     databaseUrl: 'postgres://wayside@127.0.0.1:54329/wayside',
@@ -49,9 +43,6 @@ export default defineNuxtConfig({
       appName: 'Wayside',
     },
   },
-  nitro: {
-    prerender: { routes: ['/shell'] },
-  },
   routeRules: {
     // The offline shell: rendered ahead of time, client-only, precached by the service worker.
     '/shell': { ssr: false, prerender: true },
@@ -60,6 +51,17 @@ export default defineNuxtConfig({
     // With payload extraction on, the offline shell asks for an uncached _payload.json.
     payloadExtraction: false,
   },
+  compatibilityDate: '2026-11-01',
+  nitro: {
+    prerender: { routes: ['/shell'] },
+  },
+  typescript: {
+    strict: true,
+    tsConfig: { compilerOptions: { noUncheckedIndexedAccess: true } },
+  },
+  telemetry: false,
+  // Lint with Nuxt's own config and its stylistic rules (npm run lint; part of npm test).
+  eslint: { config: { stylistic: true } },
   pwa: {
     registerType: 'prompt',
     injectRegister: false,

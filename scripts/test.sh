@@ -1,11 +1,11 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a fresh test database, then the type check,
-# unit, API and browser tests. `npm test -- unit api` runs only the kinds named.
+# unit, API and browser tests, after the lint. `npm test -- unit api` runs only the kinds named.
 source "$(dirname "$0")/lib.sh"
 trap 'cleanup_children' EXIT
 trap 'exit 130' INT TERM
 
-KINDS=("$@"); [ ${#KINDS[@]} -gt 0 ] || KINDS=(typecheck unit api e2e)
+KINDS=("$@"); [ ${#KINDS[@]} -gt 0 ] || KINDS=(lint typecheck unit api e2e)
 want() { local k; for k in "${KINDS[@]}"; do [ "$k" = "$1" ] && return 0; done; return 1; }
 
 # A slot keeps parallel test runs on one machine apart (ports and database).
@@ -47,6 +47,10 @@ start_server() {
 
 cd "$ROOT"
 failed=()
+if want lint; then
+  say "lint"
+  npx eslint . || failed+=(lint)
+fi
 if want typecheck; then
   say "type check"
   npx nuxt typecheck || failed+=(typecheck)

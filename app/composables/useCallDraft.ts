@@ -4,13 +4,31 @@ import type { CallCreateInput } from '#shared/schemas/calls'
 import type { CustomerDraft, UnitDraft } from '~/utils/fleetDrafts'
 
 export type CallDraft = {
-  customerMode: 'pick' | 'new'; customerId: string; customerQuery: string; newCustomer: CustomerDraft
-  unitMode: 'pick' | 'new'; unitId: string; unitQuery: string; newUnit: UnitDraft
-  callerName: string; callerPhone: string
-  siteId: string; locationText: string; lat: string; lon: string
-  complaint: string; lamps: string[]; otherLamps: string; derate: 'none' | 'derated' | 'countdown' | 'shutdown'; derateNote: string
-  loaded: boolean; hazmat: boolean; safetyNotes: string
-  poNumber: string; authLimit: string; mechanicId: string
+  customerMode: 'pick' | 'new'
+  customerId: string
+  customerQuery: string
+  newCustomer: CustomerDraft
+  unitMode: 'pick' | 'new'
+  unitId: string
+  unitQuery: string
+  newUnit: UnitDraft
+  callerName: string
+  callerPhone: string
+  siteId: string
+  locationText: string
+  lat: string
+  lon: string
+  complaint: string
+  lamps: string[]
+  otherLamps: string
+  derate: 'none' | 'derated' | 'countdown' | 'shutdown'
+  derateNote: string
+  loaded: boolean
+  hazmat: boolean
+  safetyNotes: string
+  poNumber: string
+  authLimit: string
+  mechanicId: string
 }
 
 export const blankCallDraft = (): CallDraft => ({
@@ -64,7 +82,7 @@ export function useCallDraft(userId: () => string | undefined) {
     try {
       const raw = localStorage.getItem(key())
       if (raw) {
-        const saved = JSON.parse(raw) as { savedAt: string; draft: Partial<CallDraft> }
+        const saved = JSON.parse(raw) as { savedAt: string, draft: Partial<CallDraft> }
         draft.value = { ...blankCallDraft(), ...saved.draft }
         if (!isBlankDraft(draft.value)) restoredAt.value = saved.savedAt
       }

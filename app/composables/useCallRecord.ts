@@ -8,7 +8,7 @@ export function useCallActions(id: () => string) {
   const refreshKeys = useRefreshKeys()
   const refreshAll = () => refreshKeys([callRecordKey(id()), suggestionsKey(id()), DISPATCH_KEY])
   async function assign(input: CallAssignInput) {
-    const res = await $fetch<{ mail: { sent: boolean; reason?: string } | null }>(`/api/calls/${id()}/assign`, { method: 'POST', body: input })
+    const res = await $fetch<{ mail: { sent: boolean, reason?: string } | null }>(`/api/calls/${id()}/assign`, { method: 'POST', body: input })
     await refreshAll()
     return res
   }
@@ -20,7 +20,7 @@ export function useCallActions(id: () => string) {
     await $fetch(`/api/calls/${id()}/cancel`, { method: 'POST', body: { reason, version } })
     await refreshAll()
   }
-  async function resolveConflict(conflictId: string, body: { choice: 'device' | 'server' | 'value'; value?: unknown }) {
+  async function resolveConflict(conflictId: string, body: { choice: 'device' | 'server' | 'value', value?: unknown }) {
     await $fetch(`/api/conflicts/${conflictId}/resolve`, { method: 'POST', body })
     await refreshAll()
   }

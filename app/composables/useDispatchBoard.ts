@@ -5,10 +5,21 @@ export const DISPATCH_KEY = 'dispatch-open'
 export const DISPATCH_POLL_MS = 10_000
 
 export type BoardCall = {
-  id: string; number: number; status: CallStatus; receivedAt: string; statusChangedAt: string; locationText: string; complaint: string
-  derate: 'none' | 'derated' | 'countdown' | 'shutdown'; hazmat: boolean; loaded: boolean; lamps: string[]; poNumber: string | null
-  customer: { id: string; name: string }; unit: { id: string; unitNumber: string; yearMakeModel: string | null } | null
-  mechanic: { id: string; name: string } | null
+  id: string
+  number: number
+  status: CallStatus
+  receivedAt: string
+  statusChangedAt: string
+  locationText: string
+  complaint: string
+  derate: 'none' | 'derated' | 'countdown' | 'shutdown'
+  hazmat: boolean
+  loaded: boolean
+  lamps: string[]
+  poNumber: string | null
+  customer: { id: string, name: string }
+  unit: { id: string, unitNumber: string, yearMakeModel: string | null } | null
+  mechanic: { id: string, name: string } | null
 }
 
 /**
@@ -16,7 +27,7 @@ export type BoardCall = {
  * comes back. Hooks are set before anything is awaited; the page awaits `ready`.
  */
 export function useDispatchBoard() {
-  const fetched = useFetch<{ items: BoardCall[]; total: number }>('/api/calls', {
+  const fetched = useFetch<{ items: BoardCall[], total: number }>('/api/calls', {
     key: DISPATCH_KEY, query: { open: 'true', pageSize: 200, sort: 'receivedAt', dir: 'asc' },
   })
   const lastLoaded = ref(Date.now())
@@ -32,7 +43,7 @@ export function useDispatchBoard() {
   return { data: fetched.data, error: fetched.error, refresh: fetched.refresh, status: fetched.status, lastLoaded, ready: fetched }
 }
 
-export type BoardFilter = { status: CallStatus | ''; mechanicId: string; customerId: string }
+export type BoardFilter = { status: CallStatus | '', mechanicId: string, customerId: string }
 
 export function matchesFilter(c: BoardCall, f: BoardFilter) {
   if (f.status && c.status !== f.status) return false

@@ -10,7 +10,7 @@ export const unitKey = (id: string) => `unit-${id}`
 export function useFleet() {
   const refreshKeys = useRefreshKeys()
   async function addCustomer(input: CustomerCreateInput) {
-    const row = await $fetch<{ id: string; name: string }>('/api/customers', { method: 'POST', body: input })
+    const row = await $fetch<{ id: string, name: string }>('/api/customers', { method: 'POST', body: input })
     await refreshKeys(CUSTOMERS_KEY)
     return row
   }
@@ -23,7 +23,7 @@ export function useFleet() {
     await refreshKeys(customerKey(customerId))
   }
   async function addUnit(input: UnitCreateInput) {
-    const row = await $fetch<{ id: string; unitNumber: string }>('/api/units', { method: 'POST', body: input })
+    const row = await $fetch<{ id: string, unitNumber: string }>('/api/units', { method: 'POST', body: input })
     await refreshKeys([UNITS_KEY, customerKey(input.customerId)])
     return row
   }

@@ -97,7 +97,7 @@ export const useFieldStore = defineStore('field', () => {
   }
 
   /** Adds an append-only record to a call; returns its id. */
-  async function addRecord(entity: AddableEntity, record: Record<string, unknown> & { callId: string; id?: string }): Promise<string> {
+  async function addRecord(entity: AddableEntity, record: Record<string, unknown> & { callId: string, id?: string }): Promise<string> {
     if (!(entity in RECORD_COLLECTION)) throw new Error(`Unknown record kind ${entity}`)
     const { id: given, ...fields } = record
     const id = given ?? crypto.randomUUID()
@@ -129,7 +129,7 @@ export const useFieldStore = defineStore('field', () => {
    * A call change and records that belong with it (a status step and its clock event) in one
    * transaction, so one never syncs without the other.
    */
-  async function writeCall(callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity; record: Record<string, unknown> }[]) {
+  async function writeCall(callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[]) {
     const bundle = await readBundle(callId)
     if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
     const list: LocalChange[] = []
@@ -150,7 +150,7 @@ export const useFieldStore = defineStore('field', () => {
    * A photo: its record op and its bytes (with their SHA-256) queued in one transaction. The
    * bytes go up on their own queue once the server applied the record.
    */
-  async function addPhoto(callId: string, photo: { bytes: ArrayBuffer; contentType: string; caption?: string; thumb?: string }): Promise<string> {
+  async function addPhoto(callId: string, photo: { bytes: ArrayBuffer, contentType: string, caption?: string, thumb?: string }): Promise<string> {
     const id = crypto.randomUUID()
     const sha256 = await sha256Hex(photo.bytes)
     const fields: Record<string, unknown> = { callId, contentType: photo.contentType, sizeBytes: photo.bytes.byteLength, sha256 }

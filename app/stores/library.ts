@@ -21,7 +21,7 @@ export const useLibraryStore = defineStore('library', () => {
   const offline = ref(false)
 
   async function loadCached() {
-    const cached = await get<{ items: TestCardView[]; fetchedAt: string }>(LIST_KEY, deviceStore('library'))
+    const cached = await get<{ items: TestCardView[], fetchedAt: string }>(LIST_KEY, deviceStore('library'))
     if (cached) { cards.value = cached.items; fetchedAt.value = cached.fetchedAt }
     loaded.value = true
   }

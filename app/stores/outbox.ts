@@ -10,18 +10,18 @@ import { expectedSeqOf, parseAnswer, photoPutAnswerSchema, pullAnswerSchema, pus
 
 export const PUSH_BATCH = 500
 export type SyncFetch = (url: string, init?: RequestInit) => Promise<Response>
-export type SyncPosition = { lat: number; lon: number; at: string }
+export type SyncPosition = { lat: number, lon: number, at: string }
 export type SyncFailure = 'offline' | 'signin' | 'update' | 'invalid' | 'server'
-export type SyncOutcome = { ok: true; changedCalls: string[] } | { ok: false; kind: SyncFailure; message: string; retryAfterMs?: number }
-export type PhotoWaiting = { id: string; callId: string; size: number; opApplied: boolean; tries: number; lastError?: string }
+export type SyncOutcome = { ok: true, changedCalls: string[] } | { ok: false, kind: SyncFailure, message: string, retryAfterMs?: number }
+export type PhotoWaiting = { id: string, callId: string, size: number, opApplied: boolean, tries: number, lastError?: string }
 
-const JSON_HEADERS = { 'X-Wayside': '1', 'Content-Type': 'application/json', Accept: 'application/json' }
+const JSON_HEADERS = { 'X-Wayside': '1', 'Content-Type': 'application/json', 'Accept': 'application/json' }
 
 class SyncStop extends Error {
   constructor(readonly kind: SyncFailure, message: string, readonly retryAfterMs?: number) { super(message) }
 }
 
-async function request(doFetch: SyncFetch, url: string, init: RequestInit): Promise<{ res: Response; text: string }> {
+async function request(doFetch: SyncFetch, url: string, init: RequestInit): Promise<{ res: Response, text: string }> {
   let res: Response
   try { res = await doFetch(url, { credentials: 'same-origin', cache: 'no-store', ...init }) }
   catch { throw new SyncStop('offline', 'No connection to Wayside') }
@@ -114,7 +114,7 @@ export const useOutboxStore = defineStore('outbox', () => {
     for (const p of (await readPhotoQueue()).filter(x => x.opApplied)) {
       const { res, text } = await request(doFetch, `/api/photos/${p.id}`, {
         method: 'PUT', body: p.bytes,
-        headers: { 'X-Wayside': '1', 'Content-Type': p.contentType, 'X-Content-Sha256': p.sha256, Accept: 'application/json' },
+        headers: { 'X-Wayside': '1', 'Content-Type': p.contentType, 'X-Content-Sha256': p.sha256, 'Accept': 'application/json' },
       })
       const answer = res.ok ? parseAnswer(photoPutAnswerSchema, text) : undefined
       if (answer && answer.sha256.toLowerCase() === p.sha256.toLowerCase()) await photoConfirmed(p.id, p.sha256)
@@ -157,7 +157,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   /** One whole pass: push, photos, pull. Never throws; says what happened. */
-  async function runOnce(opts: { fetch?: SyncFetch; position?: SyncPosition } = {}): Promise<SyncOutcome> {
+  async function runOnce(opts: { fetch?: SyncFetch, position?: SyncPosition } = {}): Promise<SyncOutcome> {
     const doFetch = opts.fetch ?? ((url, init) => globalThis.fetch(url, init))
     syncing.value = true
     lastAttemptAt.value = new Date().toISOString()

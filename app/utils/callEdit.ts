@@ -2,14 +2,39 @@
 import type { CallPatchInput } from '#shared/schemas/calls'
 
 export type CallEditDraft = {
-  unitId: string; locationText: string; lat: string; lon: string; complaint: string; lamps: string[]; otherLamps: string
-  derate: 'none' | 'derated' | 'countdown' | 'shutdown'; derateNote: string; loaded: boolean; hazmat: boolean; safetyNotes: string
-  callerName: string; callerPhone: string; poNumber: string; authLimit: string
+  unitId: string
+  locationText: string
+  lat: string
+  lon: string
+  complaint: string
+  lamps: string[]
+  otherLamps: string
+  derate: 'none' | 'derated' | 'countdown' | 'shutdown'
+  derateNote: string
+  loaded: boolean
+  hazmat: boolean
+  safetyNotes: string
+  callerName: string
+  callerPhone: string
+  poNumber: string
+  authLimit: string
 }
 type CallFields = {
-  unitId: string | null; locationText: string; lat: number | null; lon: number | null; complaint: string; lamps: string[]
-  derate: CallEditDraft['derate']; derateNote: string | null; loaded: boolean; hazmat: boolean; safetyNotes: string | null
-  callerName: string | null; callerPhone: string | null; poNumber: string | null; authLimitCents: number | null
+  unitId: string | null
+  locationText: string
+  lat: number | null
+  lon: number | null
+  complaint: string
+  lamps: string[]
+  derate: CallEditDraft['derate']
+  derateNote: string | null
+  loaded: boolean
+  hazmat: boolean
+  safetyNotes: string | null
+  callerName: string | null
+  callerPhone: string | null
+  poNumber: string | null
+  authLimitCents: number | null
 }
 const KNOWN_LAMPS = ['check_engine', 'stop_engine', 'emissions', 'def', 'abs', 'charging', 'oil_pressure', 'coolant']
 

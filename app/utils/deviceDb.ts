@@ -50,7 +50,11 @@ export async function deviceTx<T>(stores: DeviceStoreName[], mode: IDBTransactio
       done.catch(() => {}) // observed below; avoids an unhandled rejection when fn throws first
       let result: T
       try { result = await fn(tx) }
-      catch (err) { try { tx.abort() } catch {} throw err }
+      catch (err) {
+        try { tx.abort() }
+        catch { /* already finished */ }
+        throw err
+      }
       await done
       return result
     }

@@ -2,7 +2,7 @@
 // office bills with (clockTotals in shared/utils/billing.ts), plus whether a clock is running.
 import { clockTotals, type BillingClockEvent } from '#shared/utils/billing'
 
-export interface ClockMark { kind: string; at: string }
+export interface ClockMark { kind: string, at: string }
 
 export function fieldClockTotals(marks: readonly ClockMark[], now = Date.now()) {
   const valid = marks.filter(m => !Number.isNaN(Date.parse(m.at))).sort((a, b) => a.at.localeCompare(b.at))

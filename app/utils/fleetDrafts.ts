@@ -3,12 +3,25 @@ import type { CustomerCreateInput } from '#shared/schemas/customers'
 import type { UnitDraftInput } from '#shared/schemas/units'
 
 export type CustomerDraft = {
-  name: string; kind: 'fleet' | 'owner_operator'; billingTerms: 'card' | 'account'; netDays: string
-  billingEmail: string; phone: string; taxExempt: boolean; notes: string
+  name: string
+  kind: 'fleet' | 'owner_operator'
+  billingTerms: 'card' | 'account'
+  netDays: string
+  billingEmail: string
+  phone: string
+  taxExempt: boolean
+  notes: string
 }
 export type UnitDraft = {
-  unitNumber: string; vin: string; vinOverrideReason: string; yearMakeModel: string; engine: string
-  odometer: string; odometerUnit: 'km' | 'mi'; engineHours: string; notes: string
+  unitNumber: string
+  vin: string
+  vinOverrideReason: string
+  yearMakeModel: string
+  engine: string
+  odometer: string
+  odometerUnit: 'km' | 'mi'
+  engineHours: string
+  notes: string
 }
 
 export const blankCustomer = (name = ''): CustomerDraft => ({ name, kind: 'fleet', billingTerms: 'card', netDays: '', billingEmail: '', phone: '', taxExempt: false, notes: '' })
@@ -21,14 +34,14 @@ export function unitInput(d: UnitDraft): UnitDraftInput {
   return { ...d, odometer: numberFromText(d.odometer), engineHours: numberFromText(d.engineHours) }
 }
 
-type CustomerRow = { name: string; kind: string; billingTerms: 'card' | 'account'; netDays: number | null; billingEmail: string | null; phone: string | null; taxExempt: boolean; notes: string | null }
+type CustomerRow = { name: string, kind: string, billingTerms: 'card' | 'account', netDays: number | null, billingEmail: string | null, phone: string | null, taxExempt: boolean, notes: string | null }
 export function customerDraftOf(c: CustomerRow): CustomerDraft {
   return {
     name: c.name, kind: c.kind === 'owner_operator' ? 'owner_operator' : 'fleet', billingTerms: c.billingTerms, netDays: c.netDays === null ? '' : String(c.netDays),
     billingEmail: c.billingEmail ?? '', phone: c.phone ?? '', taxExempt: c.taxExempt, notes: c.notes ?? '',
   }
 }
-type UnitRow = { unitNumber: string; vin: string | null; vinOverrideReason: string | null; yearMakeModel: string | null; engine: string | null; odometer: number | null; odometerUnit: string; engineHours: number | null; notes: string | null }
+type UnitRow = { unitNumber: string, vin: string | null, vinOverrideReason: string | null, yearMakeModel: string | null, engine: string | null, odometer: number | null, odometerUnit: string, engineHours: number | null, notes: string | null }
 export function unitDraftOf(u: UnitRow): UnitDraft {
   return {
     unitNumber: u.unitNumber, vin: u.vin ?? '', vinOverrideReason: u.vinOverrideReason ?? '', yearMakeModel: u.yearMakeModel ?? '', engine: u.engine ?? '',

@@ -1,7 +1,7 @@
 import type { Role } from '#shared/utils/roles'
 import type { IconName } from '~/components/app/AppIcon.vue'
 
-export type NavItem = { to: string; label: string; icon: IconName; roles: Role[] }
+export type NavItem = { to: string, label: string, icon: IconName, roles: Role[] }
 
 /** The links in the app bar; each role sees only its own. */
 export const NAV_ITEMS: NavItem[] = [

@@ -99,7 +99,7 @@ export async function discardRejected(seq: number): Promise<void> {
     const calls = tx.objectStore('calls')
     const b = await promisifyRequest<CallBundle | undefined>(calls.get(e.callId))
     if (b && e.action === 'create' && e.entity in RECORD_COLLECTION) {
-      delete b.records[RECORD_COLLECTION[e.entity as RecordEntity]][e.entityId]
+      Reflect.deleteProperty(b.records[RECORD_COLLECTION[e.entity as RecordEntity]], e.entityId)
       calls.put(b, b.id)
     }
     else if (b && e.action === 'update' && e.base) {
@@ -135,7 +135,7 @@ export async function photoFailed(id: string, error: string): Promise<void> {
   })
 }
 
-type Library = { units?: Record<string, DeviceRow>; customers?: Record<string, DeviceRow> }
+type Library = { units?: Record<string, DeviceRow>, customers?: Record<string, DeviceRow> }
 
 /** Applies one pull answer; returns the ids of calls that changed. */
 export async function applyPull(answer: PullAnswer): Promise<string[]> {

@@ -13,11 +13,11 @@ export type CaughtMessage = {
   subject: string
   text: string
   html: string
-  attachments: { filename: string; contentType: string; size: number }[]
+  attachments: { filename: string, contentType: string, size: number }[]
   receivedAt: string
 }
 
-export async function startMailCatcher(opts: { smtpPort: number; httpPort: number; dir?: string }) {
+export async function startMailCatcher(opts: { smtpPort: number, httpPort: number, dir?: string }) {
   const messages: CaughtMessage[] = []
   let nextId = 1
   if (opts.dir) mkdirSync(opts.dir, { recursive: true })

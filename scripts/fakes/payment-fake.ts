@@ -4,18 +4,18 @@ import { createServer, type IncomingMessage } from 'node:http'
 import { randomBytes } from 'node:crypto'
 import Stripe from 'stripe'
 
-type Intent = Record<string, unknown> & { id: string; status: string; amount: number; metadata: Record<string, string> }
+type Intent = Record<string, unknown> & { id: string, status: string, amount: number, metadata: Record<string, string> }
 
 function readForm(req: IncomingMessage): Promise<URLSearchParams> {
   return new Promise((resolve, reject) => {
     let body = ''
-    req.on('data', c => { body += c; if (body.length > 100_000) req.destroy() })
+    req.on('data', (c) => { body += c; if (body.length > 100_000) req.destroy() })
     req.on('end', () => resolve(new URLSearchParams(body)))
     req.on('error', reject)
   })
 }
 
-export async function startPaymentFake(opts: { port: number; webhookUrl?: string; webhookSecret: string }) {
+export async function startPaymentFake(opts: { port: number, webhookUrl?: string, webhookSecret: string }) {
   const intents = new Map<string, Intent>()
   const signer = new Stripe('sk_test_signer', { telemetry: false })
 

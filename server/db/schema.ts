@@ -510,7 +510,8 @@ export const unitsRelations = relations(units, ({ one, many }) => ({
   customer: one(customers, { fields: [units.customerId], references: [customers.id] }),
   calls: many(calls),
 }))
-const childOfCall = <T extends { callId: any }>(table: any) => relations(table, ({ one }) => ({
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- every child table has a callId column
+const childOfCall = (table: any) => relations(table, ({ one }) => ({
   call: one(calls, { fields: [table.callId], references: [calls.id] }),
 }))
 export const faultCodesRelations = childOfCall(faultCodes)

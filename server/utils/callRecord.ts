@@ -10,7 +10,7 @@ function specText(spec: Record<string, unknown> | null, unit: string) {
 }
 
 /** Travel and labor from the clock (shared/utils/billing.ts), and whether a span is still open. */
-function clockTime(events: { kind: BillingClockEvent['kind']; at: Date }[]) {
+function clockTime(events: { kind: BillingClockEvent['kind'], at: Date }[]) {
   const upToNow = clockTotals(events, new Date())
   const latest = new Date(Math.max(0, ...events.map(e => e.at.getTime())))
   const closed = clockTotals(events, latest)
@@ -57,7 +57,7 @@ export async function getCallRecord(id: string) {
   const cardIds = [...new Set(call.testRuns.map(r => r.cardId))]
   const cards = cardIds.length ? await db.select({ id: testCards.id, title: testCards.title, slug: testCards.slug }).from(testCards).where(inArray(testCards.id, cardIds)) : []
 
-  const clockAt = (e: { deviceAt: Date | null; createdAt: Date }) => e.deviceAt ?? e.createdAt
+  const clockAt = (e: { deviceAt: Date | null, createdAt: Date }) => e.deviceAt ?? e.createdAt
   const { events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit, ...rest } = call
   return {
     ...withoutXid(rest),

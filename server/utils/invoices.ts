@@ -92,7 +92,7 @@ export async function listInvoices(q: z.output<typeof invoiceListQuerySchema>) {
 }
 
 /** Marks an invoice paid once, with its call; repeated deliveries change nothing. */
-export async function settleInvoice(tx: Tx, invoiceId: string, payment: { method: 'card' | 'account'; amountCents: number; providerRef: string | null; byUserId?: string }) {
+export async function settleInvoice(tx: Tx, invoiceId: string, payment: { method: 'card' | 'account', amountCents: number, providerRef: string | null, byUserId?: string }) {
   if (payment.providerRef) {
     const inserted = await tx.insert(tables.payments).values({ invoiceId, method: payment.method, amountCents: payment.amountCents, providerRef: payment.providerRef, status: 'succeeded' })
       .onConflictDoNothing({ target: tables.payments.providerRef }).returning({ id: tables.payments.id })

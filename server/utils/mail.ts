@@ -20,7 +20,7 @@ export type OutgoingMail = {
   subject: string
   text: string
   html?: string
-  attachments?: { filename: string; content: Buffer; contentType: string }[]
+  attachments?: { filename: string, content: Buffer, contentType: string }[]
   kind: string
   relatedId?: string
 }

@@ -7,6 +7,7 @@ class InputError extends Error {
     super(describeFieldErrors(fields))
     this.fields = fields
   }
+
   toJSON() { return { fields: this.fields } }
 }
 

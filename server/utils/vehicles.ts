@@ -69,7 +69,7 @@ export async function getUnitWithHistory(id: string, user: User) {
 }
 
 /** describeFaultCode for stored rows: a malformed code from a device is shown as typed, not a 500. */
-export function describeFaultCodeSafe(f: { code: string | null; spn: number | null; fmi: number | null }) {
+export function describeFaultCodeSafe(f: { code: string | null, spn: number | null, fmi: number | null }) {
   try { return describeFaultCode(f) }
   catch (err) { return { label: f.code ?? `SPN ${f.spn} FMI ${f.fmi}`, problem: (err as Error).message } }
 }

@@ -62,7 +62,7 @@ const dispatchFields = {
   locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)'),
   lat: latField,
   lon: lonField,
-  complaint: z.string({ message: "Write the driver's complaint" }).trim().min(1, "Write the driver's complaint").max(2000, 'Complaint is too long (at most 2000 characters)'),
+  complaint: z.string({ message: 'Write the driver\'s complaint' }).trim().min(1, 'Write the driver\'s complaint').max(2000, 'Complaint is too long (at most 2000 characters)'),
   lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters'), { message: 'Lamps must be a list' }).max(12, 'At most 12 lamps'),
   derate: z.enum(DERATE_STATES, { message: 'Pick how the engine runs' }),
   derateNote: optText(300, 'Derate note'),
@@ -77,7 +77,7 @@ const dispatchFields = {
 }
 
 // A position is a pair; half of one would place the truck on the equator or the prime meridian.
-function positionRule(v: { lat?: number | null; lon?: number | null }, ctx: z.RefinementCtx) {
+function positionRule(v: { lat?: number | null, lon?: number | null }, ctx: z.RefinementCtx) {
   const hasLat = v.lat !== null && v.lat !== undefined
   const hasLon = v.lon !== null && v.lon !== undefined
   if (hasLat && !hasLon) ctx.addIssue({ code: 'custom', path: ['lon'], message: 'Give the longitude too, or clear the latitude' })

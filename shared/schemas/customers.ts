@@ -21,7 +21,7 @@ const customerFields = {
 }
 
 // An account customer pays within net days; a card customer pays at the time, so no net days.
-function termsRule(v: { billingTerms?: string; netDays?: number | null }, ctx: z.RefinementCtx) {
+function termsRule(v: { billingTerms?: string, netDays?: number | null }, ctx: z.RefinementCtx) {
   if (v.billingTerms === 'account' && (v.netDays === null || v.netDays === undefined)) {
     ctx.addIssue({ code: 'custom', path: ['netDays'], message: 'An account customer needs net days (0 for due on receipt)' })
   }

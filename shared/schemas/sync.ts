@@ -191,13 +191,13 @@ export const testRunCreateSchema = z.object({
 
 export const signOffCreateSchema = z.object({
   callId,
-  driverName: required(120, "the driver's name"),
+  driverName: required(120, 'the driver\'s name'),
   signature: z.string()
     .max(SIGNATURE_MAX_CHARS, 'The signature image is too large')
     .regex(/^data:image\/(png|jpeg|webp|svg\+xml);base64,[A-Za-z0-9+/]+={0,2}$/, 'Expected the drawn signature as an image data URL'),
 })
 
-const needsValue = (v: { choice: string; value?: unknown }, ctx: z.RefinementCtx) => {
+const needsValue = (v: { choice: string, value?: unknown }, ctx: z.RefinementCtx) => {
   if (v.choice === 'value' && !('value' in v)) ctx.addIssue({ code: 'custom', path: ['value'], message: 'Give the value to keep' })
 }
 const conflictChoice = {

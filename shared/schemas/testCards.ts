@@ -41,7 +41,7 @@ const tolerance = {
   tolerance: num('Tolerance').nonnegative('Tolerance cannot be negative').optional(),
   tolerancePct: num('Tolerance %').nonnegative('Tolerance % cannot be negative').max(100, 'Tolerance % must be 100 or less').optional(),
 }
-type Tol = { tolerance?: number; tolerancePct?: number }
+type Tol = { tolerance?: number, tolerancePct?: number }
 function oneTolerance(s: Tol, ctx: z.RefinementCtx) {
   if ((s.tolerance === undefined) === (s.tolerancePct === undefined)) {
     ctx.addIssue({ code: 'custom', path: ['tolerance'], message: 'Give either a tolerance or a tolerance %, not both or neither' })
@@ -139,7 +139,7 @@ export const cardDefinitionSchema = z.object({
 export type CardDefinition = z.infer<typeof cardDefinitionSchema>
 export type CardDefinitionInput = z.input<typeof cardDefinitionSchema>
 
-function checkCardGraph(card: { steps: CardStep[]; conclusions: CardConclusion[] }, ctx: z.RefinementCtx) {
+function checkCardGraph(card: { steps: CardStep[], conclusions: CardConclusion[] }, ctx: z.RefinementCtx) {
   const stepIds = new Map<string, number>()
   card.steps.forEach((s, i) => {
     if (stepIds.has(s.id)) ctx.addIssue({ code: 'custom', path: ['steps', i, 'id'], message: `Step id "${s.id}" is used twice` })
@@ -228,5 +228,5 @@ export interface TestCardView {
   updatedAt: string
   /** Set when the stored definition does not pass the card schema; such a card is not run. */
   problem?: string
-  versions?: { version: number; createdAt: string; authorName: string | null }[]
+  versions?: { version: number, createdAt: string, authorName: string | null }[]
 }

@@ -8,7 +8,7 @@ const vinField = z.string({ message: 'VIN must be text' }).trim().toUpperCase().
   .nullable().optional().transform(v => (v === '' ? null : v))
 
 const unitFields = {
-  unitNumber: z.string({ message: "Enter the customer's unit number" }).trim().min(1, "Enter the customer's unit number").max(40, 'Unit number is too long (at most 40 characters)'),
+  unitNumber: z.string({ message: 'Enter the customer\'s unit number' }).trim().min(1, 'Enter the customer\'s unit number').max(40, 'Unit number is too long (at most 40 characters)'),
   vin: vinField,
   vinOverrideReason: optText(300, 'The reason'),
   yearMakeModel: optText(120, 'Year, make and model'),
@@ -24,7 +24,7 @@ const unitFields = {
  * check digit is a warning the dispatcher may keep by saying why (older and non-North-American
  * VINs often carry none). A reason given for a VIN that checks out is dropped.
  */
-function vinRule(v: { vin?: string | null; vinOverrideReason?: string | null }, ctx: z.RefinementCtx) {
+function vinRule(v: { vin?: string | null, vinOverrideReason?: string | null }, ctx: z.RefinementCtx) {
   if (!v.vin) return
   const p = vinProblem(v.vin)
   if (!p) return
@@ -33,7 +33,7 @@ function vinRule(v: { vin?: string | null; vinOverrideReason?: string | null }, 
     ctx.addIssue({ code: 'custom', path: ['vin'], message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"` })
   }
 }
-function dropNeedlessReason<T extends { vin?: string | null; vinOverrideReason?: string | null }>(v: T): T {
+function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?: string | null }>(v: T): T {
   if (v.vin !== undefined && (!v.vin || vinProblem(v.vin)?.kind !== 'check_digit')) return { ...v, vinOverrideReason: null }
   return v
 }

@@ -14,11 +14,11 @@ export type BillingRates = {
 }
 
 export type ClockKind = 'travel_start' | 'arrive' | 'work_start' | 'work_stop' | 'depart'
-export type BillingClockEvent = { kind: ClockKind; at: string | Date }
-export type BillingPart = { partNumber: string; description: string; quantity: number; unitPriceCents: number; coreChargeCents: number }
+export type BillingClockEvent = { kind: ClockKind, at: string | Date }
+export type BillingPart = { partNumber: string, description: string, quantity: number, unitPriceCents: number, coreChargeCents: number }
 export type InvoiceLineKind = 'labor' | 'travel' | 'minimum' | 'part' | 'core' | 'fee'
-export type PricedLine = { kind: InvoiceLineKind; description: string; quantity: number; unitCents: number; amountCents: number; taxable: boolean }
-export type PricedInvoice = { lines: PricedLine[]; subtotalCents: number; taxCents: number; totalCents: number }
+export type PricedLine = { kind: InvoiceLineKind, description: string, quantity: number, unitCents: number, amountCents: number, taxable: boolean }
+export type PricedInvoice = { lines: PricedLine[], subtotalCents: number, taxCents: number, totalCents: number }
 
 const MS_PER_TENTH = 6 * 60 * 1000
 
@@ -38,7 +38,7 @@ export function laborTenthsFromMs(ms: number): number {
  * arrive; labor from each work_start to the next work_stop. An open span (no stop yet) counts up
  * to `now`, so a running clock shows what has accrued so far.
  */
-export function clockTotals(events: BillingClockEvent[], now: Date = new Date()): { travelMs: number; laborMs: number } {
+export function clockTotals(events: BillingClockEvent[], now: Date = new Date()): { travelMs: number, laborMs: number } {
   const sorted = events.map(e => ({ kind: e.kind, t: new Date(e.at).getTime() }))
   for (const e of sorted) if (!Number.isFinite(e.t)) throw new RangeError(`clock event ${e.kind} has no valid time`)
   sorted.sort((a, b) => a.t - b.t)

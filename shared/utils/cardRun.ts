@@ -20,7 +20,7 @@ export interface RunStepResult {
   measure: CardStep['measure']
   at: string
   /** What the mechanic typed and in which unit ('OL' for an open circuit). */
-  entered?: { value: number | 'OL'; unit: MeasureUnit }
+  entered?: { value: number | 'OL', unit: MeasureUnit }
   /** The reading in the base unit (Ω, V, °C, kPa, %); Infinity for OL. */
   value?: number
   unit?: MeasureUnit
@@ -50,10 +50,10 @@ export interface CardRun {
   conclusionId?: string
   finishedAt?: string
   /** Save progress: the run record first, then each reading, so a retry never doubles one. */
-  saved: { run: boolean; readings: string[] }
+  saved: { run: boolean, readings: string[] }
 }
 
-export function startRun(input: { id: string; callId: string; card: { id: string; version: number; definition: CardDefinition }; ambientC?: number; at: string }): CardRun {
+export function startRun(input: { id: string, callId: string, card: { id: string, version: number, definition: CardDefinition }, ambientC?: number, at: string }): CardRun {
   const def = input.card.definition
   const first = def.steps[0]
   if (!first) throw new RangeError('This card has no steps')
@@ -74,7 +74,7 @@ export function conclusionOf(run: Pick<CardRun, 'definition'>, id: string | null
 export const currentStep = (run: CardRun) => stepOf(run, run.currentStepId)
 
 /** Where a target leads, in words: the next step's title or the conclusion's text. */
-export function targetText(run: Pick<CardRun, 'definition'>, target: string): { kind: 'step' | 'conclusion'; text: string } {
+export function targetText(run: Pick<CardRun, 'definition'>, target: string): { kind: 'step' | 'conclusion', text: string } {
   const s = stepOf(run, target)
   if (s) return { kind: 'step', text: s.title }
   const c = conclusionOf(run, target)
@@ -104,7 +104,7 @@ function activeStep(run: CardRun): CardStep {
  * Records a reading on the current step. `value` is as typed in `unit` (the mechanic's
  * preference), or 'OL' for an open circuit on a resistance step.
  */
-export function recordReading(run: CardRun, input: { value: number | 'OL'; unit: MeasureUnit; readingId: string; at: string; temperatureUnit?: 'degC' | 'degF' }): CardRun {
+export function recordReading(run: CardRun, input: { value: number | 'OL', unit: MeasureUnit, readingId: string, at: string, temperatureUnit?: 'degC' | 'degF' }): CardRun {
   const step = activeStep(run)
   if (!(NUMERIC_MEASURES as readonly string[]).includes(step.measure)) throw new RangeError('This step takes an answer, not a reading')
   const quantity = step.measure as NumericMeasure
@@ -125,7 +125,7 @@ export function recordReading(run: CardRun, input: { value: number | 'OL'; unit:
 }
 
 /** Records a yes/no or pick-one answer on the current step. */
-export function recordAnswer(run: CardRun, input: { answer: string; at: string }): CardRun {
+export function recordAnswer(run: CardRun, input: { answer: string, at: string }): CardRun {
   const step = activeStep(run)
   const j = judgeAnswer(step, input.answer)
   return advance(run, {
@@ -154,7 +154,7 @@ export function specPreview(run: CardRun, step: CardStep, unit: MeasureUnit, tem
 export function runRecord(run: CardRun) {
   if (!run.conclusionId) throw new RangeError('The run has not reached a conclusion yet')
   const c = conclusionOf(run, run.conclusionId)!
-  const rec: Record<string, unknown> & { callId: string; id: string } = {
+  const rec: Record<string, unknown> & { callId: string, id: string } = {
     id: run.id, callId: run.callId, cardId: run.cardId, cardVersion: run.cardVersion,
     steps: run.results.map(r => ({ ...r, value: r.value === Infinity ? OL_OHMS : r.value })),
     conclusion: c.text,
@@ -168,7 +168,7 @@ export function runRecord(run: CardRun) {
 export function runReadingRecords(run: CardRun) {
   return run.results.filter(r => r.value !== undefined && r.readingId).map((r) => {
     const step = stepOf(run, r.stepId)
-    const rec: Record<string, unknown> & { callId: string; id: string } = {
+    const rec: Record<string, unknown> & { callId: string, id: string } = {
       id: r.readingId!, callId: run.callId, testRunId: run.id, stepId: r.stepId, label: r.title,
       quantity: r.measure, value: r.value === Infinity ? OL_OHMS : r.value!, unit: r.unit!, spec: { ...r.spec, text: r.specText }, verdict: r.verdict,
     }

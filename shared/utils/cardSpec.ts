@@ -37,7 +37,7 @@ export function checkAmbient(ambientC: number | undefined): number {
   return ambientC
 }
 
-function tol(spec: { tolerance?: number; tolerancePct?: number }): Pick<JudgeSpec, 'tolerance' | 'tolerancePct'> {
+function tol(spec: { tolerance?: number, tolerancePct?: number }): Pick<JudgeSpec, 'tolerance' | 'tolerancePct'> {
   return spec.tolerancePct !== undefined ? { tolerancePct: spec.tolerancePct } : { tolerance: spec.tolerance ?? 0 }
 }
 
@@ -130,7 +130,7 @@ export interface VerdictExplanation {
 const VERDICT_WORDS: Record<JudgeVerdict, string> = { pass: 'pass', low: 'low', high: 'high' }
 
 /** How a step's spec reads in the display unit: 'a Pt200 at 12 °C should read 209.4 Ω ± 2 %' or 'spec 4.8–5.2 V'. */
-export function describeCardSpec(spec: CardSpec, opts: { quantity: NumericMeasure; ambientC?: number; unit?: MeasureUnit; temperatureUnit?: 'degC' | 'degF' }) {
+export function describeCardSpec(spec: CardSpec, opts: { quantity: NumericMeasure, ambientC?: number, unit?: MeasureUnit, temperatureUnit?: 'degC' | 'degF' }) {
   if (!(opts.quantity in BASE_UNIT_OF)) throw new RangeError(`Unknown quantity "${String(opts.quantity)}"`)
   const unit = displayUnitFor(opts.quantity, opts.unit)
   const resolved = resolveCardSpec(spec, opts.ambientC)
@@ -170,7 +170,7 @@ export function explainVerdict(input: {
 }
 
 /** Verdict on a yes/no or pick-one step: pass when the answer is one the card marks as passing. */
-export function judgeAnswer(step: Pick<CardStep, 'measure' | 'passAnswer' | 'options' | 'passOptions'>, answer: string): { verdict: 'pass' | 'fail'; text: string } {
+export function judgeAnswer(step: Pick<CardStep, 'measure' | 'passAnswer' | 'options' | 'passOptions'>, answer: string): { verdict: 'pass' | 'fail', text: string } {
   if (step.measure === 'yes_no') {
     if (answer !== 'yes' && answer !== 'no') throw new RangeError(`Answer yes or no, got "${answer}"`)
     const ok = answer === step.passAnswer

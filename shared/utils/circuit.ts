@@ -4,15 +4,15 @@
 
 import { judge, describeSpec, type JudgeSpec } from './spec'
 
-export type CircuitVerdict =
-  | 'ok'
-  | 'no_reference'
-  | 'low_reference'
-  | 'high_reference'
-  | 'bad_ground'
-  | 'sensor_open'
-  | 'sensor_shorted'
-  | 'sensor_out_of_spec'
+export type CircuitVerdict
+  = | 'ok'
+    | 'no_reference'
+    | 'low_reference'
+    | 'high_reference'
+    | 'bad_ground'
+    | 'sensor_open'
+    | 'sensor_shorted'
+    | 'sensor_out_of_spec'
 
 export interface SensorCircuitReadings {
   /** Reference voltage at the harness connector, key on engine off. */
@@ -66,7 +66,7 @@ function fmtOhm(v: number): string {
 }
 
 /** Classify a sensor circuit from whatever was measured; findings say what each number means. */
-export function classifySensorCircuit(readings: SensorCircuitReadings): { verdict: CircuitVerdict; findings: string[] } {
+export function classifySensorCircuit(readings: SensorCircuitReadings): { verdict: CircuitVerdict, findings: string[] } {
   if (!readings || typeof readings !== 'object') throw new RangeError('Readings must be an object')
   const r = readings
   const findings: string[] = []
@@ -93,13 +93,16 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
     if (ref < absent) {
       faults.push('no_reference')
       findings.push(`Reference reads ${fmtV(ref)}, under ${fmtV(absent)}: no reference from the module (open wire or module not powered)`)
-    } else if (ref < lo) {
+    }
+    else if (ref < lo) {
       faults.push('low_reference')
       findings.push(`Reference reads ${fmtV(ref)}, below the ${fmtV(lo)} minimum: reference pulled down (shorted sensor on a shared reference, or resistance in the wire)`)
-    } else if (ref > hi) {
+    }
+    else if (ref > hi) {
       faults.push('high_reference')
       findings.push(`Reference reads ${fmtV(ref)}, above the ${fmtV(hi)} maximum: possible short to a higher voltage`)
-    } else {
+    }
+    else {
       findings.push(`Reference reads ${fmtV(ref)}, within ${fmtV(lo)}–${fmtV(hi)}: good`)
     }
   }
@@ -109,7 +112,8 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
     if (g > L.groundMaxOhms) {
       faults.push('bad_ground')
       findings.push(`Ground path reads ${fmtOhm(g)}, over the ${L.groundMaxOhms} Ω limit: poor sensor ground`)
-    } else findings.push(`Ground path reads ${fmtOhm(g)}, within the ${L.groundMaxOhms} Ω limit: good`)
+    }
+    else findings.push(`Ground path reads ${fmtOhm(g)}, within the ${L.groundMaxOhms} Ω limit: good`)
   }
   if (hasGndDrop) {
     // Sign only tells lead orientation; the size of the drop is what matters.
@@ -117,7 +121,8 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
     if (d > L.groundMaxDropVolts) {
       faults.push('bad_ground')
       findings.push(`Ground drop is ${fmtV(d)}, over the ${fmtV(L.groundMaxDropVolts)} limit: poor sensor ground`)
-    } else findings.push(`Ground drop is ${fmtV(d)}, within the ${fmtV(L.groundMaxDropVolts)} limit: good`)
+    }
+    else findings.push(`Ground drop is ${fmtV(d)}, within the ${fmtV(L.groundMaxDropVolts)} limit: good`)
   }
 
   if (hasSensor) {
@@ -125,10 +130,12 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
     if (s > L.openOhms) {
       faults.push('sensor_open')
       findings.push(`Sensor reads ${fmtOhm(s)}, over ${fmtOhm(L.openOhms)}: sensor element open`)
-    } else if (s < L.shortOhms) {
+    }
+    else if (s < L.shortOhms) {
       faults.push('sensor_shorted')
       findings.push(`Sensor reads ${fmtOhm(s)}, under ${fmtOhm(L.shortOhms)}: sensor element shorted`)
-    } else if (r.expectedSensor) {
+    }
+    else if (r.expectedSensor) {
       const verdict = judge(s, r.expectedSensor)
       const text = describeSpec(r.expectedSensor, 'ohm')
       if (verdict === 'pass') findings.push(`Sensor reads ${fmtOhm(s)}, within spec ${text}: good`)
@@ -136,23 +143,27 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
         faults.push('sensor_out_of_spec')
         findings.push(`Sensor reads ${fmtOhm(s)}, ${verdict === 'low' ? 'below' : 'above'} spec ${text}`)
       }
-    } else findings.push(`Sensor reads ${fmtOhm(s)}: not open, not shorted (no spec given to judge it further)`)
+    }
+    else findings.push(`Sensor reads ${fmtOhm(s)}: not open, not shorted (no spec given to judge it further)`)
   }
 
   if (hasSignal) {
     // Only decisive on a two-wire pulled-up sensor (thermistor); so it never overrides a resistance reading.
     const sig = r.signalVolts as number
     const ref = hasRef ? (r.refVolts as number) : expected
-    const refFault = faults.some((f) => f === 'no_reference' || f === 'low_reference' || f === 'high_reference')
+    const refFault = faults.some(f => f === 'no_reference' || f === 'low_reference' || f === 'high_reference')
     if (refFault) {
       findings.push(`Signal reads ${fmtV(sig)}: not interpreted until the reference is fixed`)
-    } else if (sig >= ref - L.signalRailVolts) {
+    }
+    else if (sig >= ref - L.signalRailVolts) {
       findings.push(`Signal reads ${fmtV(sig)}, at the ${fmtV(ref)} reference: on a two-wire sensor this means the sensor or its wiring is open`)
       if (!hasSensor) faults.push('sensor_open')
-    } else if (sig <= L.signalRailVolts) {
+    }
+    else if (sig <= L.signalRailVolts) {
       findings.push(`Signal reads ${fmtV(sig)}, under ${fmtV(L.signalRailVolts)}: on a two-wire sensor this means the sensor or signal wire is shorted to ground`)
       if (!hasSensor) faults.push('sensor_shorted')
-    } else findings.push(`Signal reads ${fmtV(sig)}, between the rails: circuit is live`)
+    }
+    else findings.push(`Signal reads ${fmtV(sig)}, between the rails: circuit is live`)
   }
 
   return { verdict: faults[0] ?? 'ok', findings }

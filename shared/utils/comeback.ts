@@ -7,9 +7,9 @@ import { faultCodeKey } from './faultMatch'
 export const COMEBACK_WINDOW_DAYS = 30
 const DAY_MS = 86_400_000
 
-export interface ComebackFaultCode { code?: string | null; spn?: number | null; fmi?: number | null }
-export interface ComebackCall { id: string; at: Date | string | number; faultCodes: readonly ComebackFaultCode[] }
-export interface Comeback { callId: string; earlierCallId: string; code: string; days: number }
+export interface ComebackFaultCode { code?: string | null, spn?: number | null, fmi?: number | null }
+export interface ComebackCall { id: string, at: Date | string | number, faultCodes: readonly ComebackFaultCode[] }
+export interface Comeback { callId: string, earlierCallId: string, code: string, days: number }
 
 // One key per fault code (shared with the diagnostics' history): 'p0117 ' and 'P0117' match, and
 // a J1939 code is its SPN and FMI together (the same SPN with another failure mode is another
@@ -33,7 +33,7 @@ function timeOf(at: Date | string | number): number {
 export function findComebacks(calls: readonly ComebackCall[], windowDays = COMEBACK_WINDOW_DAYS): Comeback[] {
   if (!(windowDays >= 0) || !Number.isFinite(windowDays)) throw new RangeError(`Window must be 0 days or more, got ${windowDays}`)
   const sorted = calls.map(c => ({ c, t: timeOf(c.at) })).sort((a, b) => a.t - b.t)
-  const lastSeen = new Map<string, { id: string; t: number }>()
+  const lastSeen = new Map<string, { id: string, t: number }>()
   const out: Comeback[] = []
   for (const { c, t } of sorted) {
     const keys = new Set(c.faultCodes.map(keyOf).filter((k): k is string => k !== null))

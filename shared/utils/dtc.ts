@@ -28,16 +28,16 @@ const DTC_SYSTEMS: Record<(typeof DTC_LETTERS)[number], DtcSystem> = {
 // P0 groups by third character (J2012). B–F are SAE-assigned too but not in our reference table,
 // so they get a neutral label instead of a guess.
 const P0_GROUPS: Record<string, string> = {
-  '0': 'Fuel and air metering',
-  '1': 'Fuel and air metering',
-  '2': 'Fuel and air metering',
-  '3': 'Ignition system or misfire',
-  '4': 'Auxiliary emission controls',
-  '5': 'Vehicle speed, idle control and auxiliary inputs',
-  '6': 'Computer and output circuits',
-  '7': 'Transmission',
-  '8': 'Transmission',
-  '9': 'Transmission',
+  0: 'Fuel and air metering',
+  1: 'Fuel and air metering',
+  2: 'Fuel and air metering',
+  3: 'Ignition system or misfire',
+  4: 'Auxiliary emission controls',
+  5: 'Vehicle speed, idle control and auxiliary inputs',
+  6: 'Computer and output circuits',
+  7: 'Transmission',
+  8: 'Transmission',
+  9: 'Transmission',
   A: 'Hybrid propulsion',
 }
 
@@ -75,12 +75,14 @@ export function parseDtc(code: string): ParsedDtc {
     // J2012 editions have split the x3xxx block differently; don't claim either reading.
     generic = false
     group = 'Reserved or manufacturer-specific (depends on J2012 edition)'
-  } else if (letter === 'P') {
+  }
+  else if (letter === 'P') {
     generic = second !== '1'
     if (!generic) group = 'Manufacturer-specific'
     else if (second === '0') group = P0_GROUPS[third] ?? 'SAE-defined (group not in our table)'
     else group = 'SAE-defined'
-  } else {
+  }
+  else {
     generic = second === '0'
     group = generic ? 'SAE-defined' : 'Manufacturer-specific'
   }
@@ -206,7 +208,7 @@ const SPN_NAMES: Readonly<Record<number, string>> = {
 }
 
 /** The SPNs of our short table, for pick lists. */
-export const KNOWN_SPNS: readonly { spn: number; name: string }[] = Object.entries(SPN_NAMES).map(([spn, name]) => ({ spn: Number(spn), name }))
+export const KNOWN_SPNS: readonly { spn: number, name: string }[] = Object.entries(SPN_NAMES).map(([spn, name]) => ({ spn: Number(spn), name }))
 
 /** Name of a well-known SPN, or undefined when it is not in our short table. */
 export function spnName(spn: number): string | undefined {
@@ -227,7 +229,7 @@ export interface FaultCodeDescription {
  * What to show for a recorded fault code: either a J2012 `code` or a J1939 `spn` + `fmi`.
  * `label` is the short identifier ('P0118', 'SPN 110 FMI 0'); the other fields describe it.
  */
-export function describeFaultCode(input: { code?: string | null; spn?: number | null; fmi?: number | null }): FaultCodeDescription {
+export function describeFaultCode(input: { code?: string | null, spn?: number | null, fmi?: number | null }): FaultCodeDescription {
   const hasCode = typeof input.code === 'string' && input.code.trim() !== ''
   const hasSpn = input.spn !== undefined && input.spn !== null
   const hasFmi = input.fmi !== undefined && input.fmi !== null

@@ -9,9 +9,9 @@ export interface FaultCodeRef {
   fmi?: number | null
 }
 
-export type CodePattern =
-  | { form: 'j2012'; prefix: string; exact: boolean }
-  | { form: 'j1939'; spn: number; fmi: number | null }
+export type CodePattern
+  = | { form: 'j2012', prefix: string, exact: boolean }
+    | { form: 'j1939', spn: number, fmi: number | null }
 
 const J2012_PATTERN = /^([PCBU][0-3][0-9A-F]{0,3})(\*?)$/
 const J1939_PATTERN = /^SPN\s+(\d{1,6})(?:\s+FMI\s+(\d{1,2}|\*))?$/
@@ -38,7 +38,7 @@ export function parseCodePattern(pattern: string): CodePattern {
   throw new RangeError(`"${pattern}" is not a code pattern: write P0544 or P20* for J2012 codes, SPN 3242, SPN 173 FMI * or SPN 110 FMI 3 for J1939`)
 }
 
-function faultForm(f: FaultCodeRef): { code: string } | { spn: number; fmi: number } {
+function faultForm(f: FaultCodeRef): { code: string } | { spn: number, fmi: number } {
   if (typeof f.code === 'string' && f.code.trim() !== '') return { code: parseDtc(f.code).code }
   if (typeof f.spn === 'number' && typeof f.fmi === 'number' && Number.isInteger(f.spn) && Number.isInteger(f.fmi)) return { spn: f.spn, fmi: f.fmi }
   throw new RangeError('A fault code needs a J2012 code or both SPN and FMI')
@@ -77,9 +77,15 @@ export interface CardSuggestion<C> {
  */
 export function suggestCards<C extends { codePatterns?: readonly string[] }>(cards: readonly C[], faults: readonly FaultCodeRef[]): CardSuggestion<C>[] {
   const out: CardSuggestion<C>[] = []
-  const readable = faults.filter((f) => { try { faultForm(f); return true } catch { return false } })
+  const readable = faults.filter((f) => {
+    try { faultForm(f); return true }
+    catch { return false }
+  })
   for (const card of cards) {
-    const patterns = (card.codePatterns ?? []).flatMap((s) => { try { return [parseCodePattern(s)] } catch { return [] } })
+    const patterns = (card.codePatterns ?? []).flatMap((s) => {
+      try { return [parseCodePattern(s)] }
+      catch { return [] }
+    })
     const matches: string[] = []
     let score = 0
     for (const f of readable) {

@@ -11,7 +11,7 @@ function signed(value: string, before?: string, after?: string): number {
 }
 
 /** "lat, lon" text as numbers, or null when the text is not a pair of coordinates. Ranges are not checked here. */
-export function parseLatLon(text: string): { lat: number; lon: number } | null {
+export function parseLatLon(text: string): { lat: number, lon: number } | null {
   if (typeof text !== 'string') return null
   const m = PAIR.exec(text)
   if (!m) return null

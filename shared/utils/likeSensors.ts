@@ -34,8 +34,8 @@ function likeMedian(sorted: readonly number[]): number {
  * 1–2 degree spread; defaults floor 5 units and k 3.5 (a common outlier cut-off).
  */
 export function compareLikeSensors(
-  readings: { label: string; value: number }[],
-  opts: { floor?: number; k?: number } = {},
+  readings: { label: string, value: number }[],
+  opts: { floor?: number, k?: number } = {},
 ): LikeSensorResult {
   if (!Array.isArray(readings) || readings.length < 3) {
     throw new RangeError('Comparing like sensors needs at least 3 readings')
@@ -54,13 +54,13 @@ export function compareLikeSensors(
     if (labels.has(r.label)) throw new RangeError(`Two readings are both labelled "${r.label}"`)
     labels.add(r.label)
   }
-  const values = readings.map((r) => r.value)
+  const values = readings.map(r => r.value)
   const median = likeMedian([...values].sort((a, b) => a - b))
-  const mad = likeMedian(values.map((v) => Math.abs(v - median)).sort((a, b) => a - b))
+  const mad = likeMedian(values.map(v => Math.abs(v - median)).sort((a, b) => a - b))
   const threshold = Math.max(floor, k * MAD_TO_SIGMA * mad)
   const items = readings.map((r) => {
     const deviation = r.value - median
     return { label: r.label, value: r.value, deviation, flagged: Math.abs(deviation) > threshold }
   })
-  return { median, mad, threshold, items, outliers: items.filter((i) => i.flagged).map((i) => i.label) }
+  return { median, mad, threshold, items, outliers: items.filter(i => i.flagged).map(i => i.label) }
 }

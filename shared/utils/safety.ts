@@ -40,7 +40,7 @@ function device(position: string, feet: number, direction: DeviceDirection, maxF
  */
 export function warningDevicePlacement(
   roadType: RoadType,
-  opts: { obstructed?: boolean; obstructionSide?: 'toward_traffic' | 'away' } = {},
+  opts: { obstructed?: boolean, obstructionSide?: 'toward_traffic' | 'away' } = {},
 ): WarningDevicePlan {
   if (roadType !== 'undivided' && roadType !== 'divided') {
     throw new RangeError(`Road type must be 'undivided' or 'divided', got ${String(roadType)}`)
@@ -55,22 +55,26 @@ export function warningDevicePlacement(
     devices.push(device('Beside the truck on the traffic side, about 4 paces back toward oncoming traffic', 10, 'toward_traffic'))
     if (obstructed && side === 'toward_traffic') {
       devices.push(device(`In the truck's lane or shoulder toward oncoming traffic, 100 to 500 ft out, ${farNote}`, 100, 'toward_traffic', 500))
-    } else {
-      devices.push(device("In the middle of the truck's lane or shoulder, about 40 paces back toward oncoming traffic", 100, 'toward_traffic'))
+    }
+    else {
+      devices.push(device('In the middle of the truck\'s lane or shoulder, about 40 paces back toward oncoming traffic', 100, 'toward_traffic'))
     }
     if (obstructed && side === 'away') {
       devices.push(device(`In the truck's lane or shoulder ahead of the truck, 100 to 500 ft out, ${farNote}`, 100, 'away', 500))
-    } else {
-      devices.push(device("In the middle of the truck's lane or shoulder, about 40 paces ahead of the truck (away from oncoming traffic)", 100, 'away'))
     }
-  } else {
+    else {
+      devices.push(device('In the middle of the truck\'s lane or shoulder, about 40 paces ahead of the truck (away from oncoming traffic)', 100, 'away'))
+    }
+  }
+  else {
     // One-way traffic: all warning goes behind the truck, plus one marking its rear corner.
     if (obstructed) {
       devices.push(device(`In the truck's lane or shoulder toward oncoming traffic, 100 to 500 ft out and beyond the next device, ${farNote}`, 100, 'toward_traffic', 500))
-    } else {
-      devices.push(device("In the middle of the truck's lane or shoulder, about 200 ft back toward oncoming traffic", 200, 'toward_traffic'))
     }
-    devices.push(device("In the middle of the truck's lane or shoulder, about 100 ft back toward oncoming traffic", 100, 'toward_traffic'))
+    else {
+      devices.push(device('In the middle of the truck\'s lane or shoulder, about 200 ft back toward oncoming traffic', 200, 'toward_traffic'))
+    }
+    devices.push(device('In the middle of the truck\'s lane or shoulder, about 100 ft back toward oncoming traffic', 100, 'toward_traffic'))
     devices.push(device('At the traffic side of the truck, within 10 ft of its rear', 10, 'rear'))
   }
 

@@ -22,7 +22,7 @@ function specNum(name: string, v: number | undefined): v is number {
 }
 
 /** The lower and upper limits a spec allows (inclusive); either may be absent for a one-sided spec. */
-export function specBounds(spec: JudgeSpec): { min?: number; max?: number } {
+export function specBounds(spec: JudgeSpec): { min?: number, max?: number } {
   if (!spec || typeof spec !== 'object') throw new RangeError('Spec must be an object')
   const { min, max, nominal, tolerance, tolerancePct } = spec
   const hasMin = specNum('min', min)
@@ -49,7 +49,7 @@ export function specBounds(spec: JudgeSpec): { min?: number; max?: number } {
     throw new RangeError('Spec has nothing to judge against: give min and/or max, or nominal with a tolerance')
   }
   if (lo !== undefined && hi !== undefined && lo > hi) throw new RangeError(`Spec limits cross: low limit ${lo} is above high limit ${hi}`)
-  const out: { min?: number; max?: number } = {}
+  const out: { min?: number, max?: number } = {}
   if (lo !== undefined) out.min = lo
   if (hi !== undefined) out.max = hi
   return out
@@ -83,7 +83,8 @@ export function describeSpec(spec: JudgeSpec, unit = ''): string {
     // An en dash between negatives ('-40–-20') misreads; use words then.
     const sep = min < 0 || max < 0 ? ' to ' : '–'
     parts.push(withUnit(`${specFmt(min)}${sep}${specFmt(max)}`))
-  } else if (min !== undefined) parts.push(withUnit(`≥ ${specFmt(min)}`))
+  }
+  else if (min !== undefined) parts.push(withUnit(`≥ ${specFmt(min)}`))
   else if (max !== undefined) parts.push(withUnit(`≤ ${specFmt(max)}`))
   return parts.join(', ')
 }

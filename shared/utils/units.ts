@@ -69,7 +69,8 @@ function unitsCheck(value: number, unit: string): MeasureUnit {
   // An open circuit reads OL (Infinity); nothing else is infinite at a truck.
   if (q === 'resistance') {
     if (value < 0) throw new RangeError(`Resistance cannot be negative, got ${value} ${UNIT_SYMBOLS[unit]}`)
-  } else if (!Number.isFinite(value)) {
+  }
+  else if (!Number.isFinite(value)) {
     throw new RangeError(`Value must be finite, got ${value}`)
   }
   return unit

@@ -5,7 +5,7 @@ const VIN_VALUES: Readonly<Record<string, number>> = {
   A: 1, B: 2, C: 3, D: 4, E: 5, F: 6, G: 7, H: 8,
   J: 1, K: 2, L: 3, M: 4, N: 5, P: 7, R: 9,
   S: 2, T: 3, U: 4, V: 5, W: 6, X: 7, Y: 8, Z: 9,
-  '0': 0, '1': 1, '2': 2, '3': 3, '4': 4, '5': 5, '6': 6, '7': 7, '8': 8, '9': 9,
+  0: 0, 1: 1, 2: 2, 3: 3, 4: 4, 5: 5, 6: 6, 7: 7, 8: 8, 9: 9,
 }
 const VIN_WEIGHTS = [8, 7, 6, 5, 4, 3, 2, 10, 0, 9, 8, 7, 6, 5, 4, 3, 2] as const
 
@@ -14,7 +14,7 @@ export type VinProblemKind = 'length' | 'letters' | 'characters' | 'check_digit'
 // Mechanics type VINs from a door label; case and stray edge spaces are not errors.
 const vinNormalize = (vin: string) => vin.trim().toUpperCase()
 
-function vinStructureProblem(v: string): { kind: VinProblemKind; reason: string } | null {
+function vinStructureProblem(v: string): { kind: VinProblemKind, reason: string } | null {
   if (v.length !== 17) return { kind: 'length', reason: `A VIN has 17 characters; this one has ${v.length}` }
   const forbidden = [...new Set(v.match(/[IOQ]/g) ?? [])]
   if (forbidden.length > 0) {
@@ -22,7 +22,7 @@ function vinStructureProblem(v: string): { kind: VinProblemKind; reason: string 
   }
   const bad = [...new Set(v.match(/[^A-Z0-9]/g) ?? [])]
   if (bad.length > 0) {
-    return { kind: 'characters', reason: `A VIN holds only letters and digits (found ${bad.map((c) => JSON.stringify(c)).join(', ')})` }
+    return { kind: 'characters', reason: `A VIN holds only letters and digits (found ${bad.map(c => JSON.stringify(c)).join(', ')})` }
   }
   return null
 }
@@ -40,7 +40,7 @@ export function vinCheckDigit(vin: string): string {
 }
 
 /** The first thing wrong with a VIN, or null. 'check_digit' is the only kind that may be a warning. */
-export function vinProblem(vin: string): { kind: VinProblemKind; reason: string } | null {
+export function vinProblem(vin: string): { kind: VinProblemKind, reason: string } | null {
   if (typeof vin !== 'string') return { kind: 'characters', reason: 'A VIN must be text' }
   const v = vinNormalize(vin)
   const problem = vinStructureProblem(v)
@@ -54,7 +54,7 @@ export function vinProblem(vin: string): { kind: VinProblemKind; reason: string 
 }
 
 /** Full VIN check, check digit included. */
-export function validateVin(vin: string): { ok: true } | { ok: false; reason: string } {
+export function validateVin(vin: string): { ok: true } | { ok: false, reason: string } {
   const p = vinProblem(vin)
   return p ? { ok: false, reason: p.reason } : { ok: true }
 }

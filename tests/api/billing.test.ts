@@ -7,7 +7,7 @@ import { BASE_URL, DEMO } from '../support/env'
 import { caughtMail, clearMail, waitForMail } from '../support/mail'
 
 // Each test bills a call of its own making, so no other test's seeded calls are touched.
-async function finishedCall(customerName: string, opts: { laborMin: number; parts?: { pn: string; qty: number; price: number; core: number }[] }) {
+async function finishedCall(customerName: string, opts: { laborMin: number, parts?: { pn: string, qty: number, price: number, core: number }[] }) {
   const db = testPool()
   const { rows: [c] } = await db.query('SELECT id FROM customers WHERE name = $1', [customerName])
   const { rows: [truck] } = await db.query(`SELECT id FROM service_trucks WHERE name = 'Truck 11'`)

@@ -99,7 +99,7 @@ describe('POST /api/calls/[id]/assign', () => {
   it('assigns, takes the mechanic\'s home truck, records the move and sends exactly one e-mail', async () => {
     const call = await newCall({ safetyNotes: 'Soft shoulder' })
     await clearMail()
-    const logBefore = await count('mail_log', "kind = 'call_assigned'")
+    const logBefore = await count('mail_log', 'kind = \'call_assigned\'')
     const r = await dispatcher.post(`/api/calls/${call.id}/assign`, { mechanicId: seedId('user:mech2') })
     expect(r.status).toBe(200)
     expect(r.body).toMatchObject({ status: 'assigned', mechanicId: seedId('user:mech2'), serviceTruckId: seedId('truck:Truck 12'), mail: { sent: true } })
@@ -114,8 +114,8 @@ describe('POST /api/calls/[id]/assign', () => {
     for (const part of ['Bluestem Aggregate Co.', call.unit.unitNumber, 'Gravel Pit Road at the scale', 'Air pressure will not build', 'Soft shoulder']) {
       expect(got[0]!.text).toContain(part)
     }
-    expect(await count('mail_log', "kind = 'call_assigned'")).toBe(logBefore + 1)
-    expect(await count('mail_log', "kind = 'call_assigned' AND related_id = $1 AND status = 'sent' AND to_address = $2", [call.id, DEMO.mech2])).toBe(1)
+    expect(await count('mail_log', 'kind = \'call_assigned\'')).toBe(logBefore + 1)
+    expect(await count('mail_log', 'kind = \'call_assigned\' AND related_id = $1 AND status = \'sent\' AND to_address = $2', [call.id, DEMO.mech2])).toBe(1)
   })
 
   it('reassigns and keeps the history, with a chosen service truck', async () => {

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ApiClient, signedIn } from '../support/api'
+import type { ApiClient } from '../support/api'
+import { signedIn } from '../support/api'
 import { closeTestPool, testPool } from '../support/db'
 import { DEMO } from '../support/env'
 

@@ -29,7 +29,7 @@ async function deviceOn(server: OwnServer, device?: Device) {
 const recordsOf = async (callId: string, ops: TestOp[]) => ({
   notes: await count('notes', 'id = ANY($1)', [ops.map(o => o.entityId)]),
   readings: await count('readings', 'id = ANY($1)', [ops.map(o => o.entityId)]),
-  statusEvents: await count('call_events', "call_id = $1 AND kind = 'status'", [callId]),
+  statusEvents: await count('call_events', 'call_id = $1 AND kind = \'status\'', [callId]),
   syncOps: await count('sync_ops', 'op_id = ANY($1)', [ops.map(o => o.opId)]),
 })
 
@@ -158,7 +158,7 @@ describe('many devices at once', () => {
     expect(await count('clock_events', 'call_id = $1', [callId])).toBe(20)
     expect(await count('readings', 'call_id = $1', [callId])).toBe(20)
     // One status move however many devices reported it.
-    expect(await count('call_events', "call_id = $1 AND kind = 'status' AND to_status = 'on_site'", [callId])).toBe(1)
+    expect(await count('call_events', 'call_id = $1 AND kind = \'status\' AND to_status = \'on_site\'', [callId])).toBe(1)
     expect((await testPool().query('SELECT count(*)::int AS n FROM sync_clients WHERE id = ANY($1) AND last_seq = 8', [devices.map(d => d.clientId)])).rows[0].n).toBe(20)
   })
 })

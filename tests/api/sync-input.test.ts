@@ -38,7 +38,7 @@ describe('push: malformed requests are refused whole', () => {
       start(c) { for (let i = 0; i < body.length; i += 65536) c.enqueue(new TextEncoder().encode(body.slice(i, i + 65536))); c.close() },
     })
     const res = await fetch(`${mech1.base}/api/sync/push`, {
-      method: 'POST', body: stream, duplex: 'half', headers: { 'content-type': 'application/json', 'x-wayside': '1', cookie: mech1.cookie },
+      method: 'POST', body: stream, duplex: 'half', headers: { 'content-type': 'application/json', 'x-wayside': '1', 'cookie': mech1.cookie },
     } as RequestInit)
     expect(res.status).toBe(413)
     await nothingApplied(d, ops.map(o => o.entityId))

@@ -18,7 +18,7 @@ beforeAll(async () => {
 })
 
 describe('pull: scope', () => {
-  it("gives a mechanic only their calls, those calls' records, units and customers without billing data, plus rates", async () => {
+  it('gives a mechanic only their calls, those calls\' records, units and customers without billing data, plus rates', async () => {
     const mine = await makeCall()
     const theirs = await makeCall({ mechanicId: IDS.mech2 })
     const cardId = await makeTestCard()
@@ -55,7 +55,7 @@ describe('pull: scope', () => {
     expect(r.body.changes.customers.find((c: any) => c.id === IDS.customer)).toHaveProperty('billingEmail')
   })
 
-  it("refuses another person's clientId and a malformed cursor", async () => {
+  it('refuses another person\'s clientId and a malformed cursor', async () => {
     const d = new Device(mech1)
     await d.push([])
     const spy = Object.assign(new Device(mech2), { clientId: d.clientId }) as Device

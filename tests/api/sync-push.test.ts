@@ -67,7 +67,7 @@ describe('push: exactly once', () => {
     expect(statuses.sort()).toEqual(['applied', 'duplicate'])
     expect(await countIds('readings', ops)).toBe(5)
     expect(await countIds('fault_codes', ops)).toBe(2)
-    expect(await count('call_events', "call_id = $1 AND to_status = 'en_route'", [callId])).toBe(1)
+    expect(await count('call_events', 'call_id = $1 AND to_status = \'en_route\'', [callId])).toBe(1)
     expect(await count('sync_ops', 'client_id = $1', [d.clientId])).toBe(ops.length)
   })
 
@@ -213,7 +213,7 @@ describe('push: creates only', () => {
 })
 
 describe('push: who may write what', () => {
-  it("rejects a mechanic's ops on another mechanic's call as forbidden", async () => {
+  it('rejects a mechanic\'s ops on another mechanic\'s call as forbidden', async () => {
     const theirs = await makeCall({ mechanicId: IDS.mech2 })
     const mine = await makeCall()
     const d = new Device(mech1)
@@ -284,7 +284,7 @@ describe('push: merging call fields', () => {
     expect(row.status).toBe('on_site')
     expect(row.on_site_at.getTime()).toBeGreaterThanOrEqual(before - 5000)
     expect(row.status_changed_at.getTime()).toBe(row.on_site_at.getTime())
-    expect(await count('call_events', "call_id = $1 AND kind = 'status' AND from_status = 'assigned' AND to_status = 'on_site' AND by_user_id = $2", [callId, IDS.mech1])).toBe(1)
+    expect(await count('call_events', 'call_id = $1 AND kind = \'status\' AND from_status = \'assigned\' AND to_status = \'on_site\' AND by_user_id = $2', [callId, IDS.mech1])).toBe(1)
 
     const r2 = await d.push([d.update('call', callId, { status: 'en_route' }, { status: 'assigned' })])
     expect(r2.body.results[0]).toMatchObject({ status: 'applied', reason: expect.stringMatching(/^status: .*never moves a status back/) })
@@ -294,8 +294,8 @@ describe('push: merging call fields', () => {
     const r3 = await d.push([d.update('call', cancelled, { status: 'completed', outcome: 'repaired' }, { status: 'on_site', outcome: null })])
     expect(r3.body.results[0]).toMatchObject({ status: 'conflict', reason: expect.stringMatching(/^status: the call was cancelled; outcome: /) })
     expect(await callRow(cancelled)).toMatchObject({ status: 'cancelled', outcome: null })
-    expect(await count('conflicts', "call_id = $1 AND field = 'outcome'", [cancelled])).toBe(1)
-    expect(await count('conflicts', "call_id = $1 AND field = 'status'", [cancelled])).toBe(1)
+    expect(await count('conflicts', 'call_id = $1 AND field = \'outcome\'', [cancelled])).toBe(1)
+    expect(await count('conflicts', 'call_id = $1 AND field = \'status\'', [cancelled])).toBe(1)
   })
 
   it('completes a call with its outcome, and keeps an invoiced call closed to field changes', async () => {
@@ -427,7 +427,7 @@ describe('conflicts', () => {
   it('will not settle a conflict on an invoiced call by changing the call', async () => {
     const callId = await makeCall({ status: 'completed' })
     const id = await conflictOn(callId, new Device(mech1))
-    await testPool().query("UPDATE calls SET status = 'invoiced' WHERE id = $1", [callId])
+    await testPool().query('UPDATE calls SET status = \'invoiced\' WHERE id = $1', [callId])
     const r = await office.post(`/api/conflicts/${id}/resolve`, { choice: 'device' })
     expect(r.status).toBe(422)
     expect(r.body.data.fields).toHaveProperty('followUp')

@@ -141,8 +141,8 @@ describe('a stored definition that fails the card checks', () => {
   it('is kept from the mechanic’s library and marked for the admin', async () => {
     // A row written around the routes, as a script or an older format might leave it.
     const pool = testPool()
-    const card = (await pool.query("INSERT INTO test_cards (slug, title, component_type) VALUES ($1, 'Half-written card', 'x') RETURNING id", [uniqueSlug()])).rows[0]
-    await pool.query("INSERT INTO test_card_versions (card_id, card_version, definition) VALUES ($1, 1, '{\"steps\": []}')", [card.id])
+    const card = (await pool.query('INSERT INTO test_cards (slug, title, component_type) VALUES ($1, \'Half-written card\', \'x\') RETURNING id', [uniqueSlug()])).rows[0]
+    await pool.query('INSERT INTO test_card_versions (card_id, card_version, definition) VALUES ($1, 1, \'{"steps": []}\')', [card.id])
     const mech = await signedIn(DEMO.mech1)
     expect((await mech.get('/api/test-cards')).body.items.some((x: any) => x.id === card.id)).toBe(false)
     const one = await mech.get(`/api/test-cards/${card.id}`)

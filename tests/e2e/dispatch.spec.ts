@@ -58,7 +58,7 @@ test('a dispatcher takes a call from a blank form to assigned with the keyboard 
   await page.keyboard.press('Tab')
   await page.keyboard.type('1200')
 
-  await tabTo(page, page.getByLabel("Complaint, in the driver's words"))
+  await tabTo(page, page.getByLabel('Complaint, in the driver\'s words'))
   await page.keyboard.type('Stop-engine lamp flashed twice, now running rough under load')
   await tabTo(page, page.getByLabel('Stop engine'))
   await page.keyboard.press('Space')
@@ -83,7 +83,7 @@ test('a dispatcher takes a call from a blank form to assigned with the keyboard 
   await expect(page.getByRole('status').filter({ hasText: 'Marco Lindqvist has the call' })).toBeVisible()
   await expect(page.locator('h1 + span', { hasText: 'Assigned' })).toBeVisible()
   await expect(page.getByRole('region', { name: 'Timeline' }).getByText('Assigned to Marco Lindqvist')).toBeVisible()
-  const mail = await (await fetch(`${MAIL_URL}/messages`)).json() as { to: string[]; subject: string }[]
+  const mail = await (await fetch(`${MAIL_URL}/messages`)).json() as { to: string[], subject: string }[]
   expect(mail.filter(m => m.to.includes('mech1@wayside.test') && m.subject.includes(`#${number}:`))).toHaveLength(1)
   await desk.close()
 
@@ -103,17 +103,17 @@ test('the form keeps what was typed if the page is closed by mistake, and says s
   await page.getByRole('button', { name: 'Start over' }).click()
   await page.getByRole('combobox', { name: 'Customer', exact: true }).fill('Bluestem')
   await page.getByRole('option', { name: /Bluestem Aggregate/ }).click()
-  await page.getByLabel("Complaint, in the driver's words").fill('Air dryer purging constantly')
+  await page.getByLabel('Complaint, in the driver\'s words').fill('Air dryer purging constantly')
   await page.getByLabel('Hazmat on board').check()
   await expect(page.getByRole('note').filter({ hasText: 'Hazmat' })).toBeVisible()
   await page.waitForTimeout(400) // the draft is written a moment after typing stops
   await page.reload()
   await expect(page.getByRole('status').filter({ hasText: 'nothing was lost' })).toBeVisible()
   await expect(page.getByRole('combobox', { name: 'Customer', exact: true })).toHaveValue('Bluestem Aggregate Co.')
-  await expect(page.getByLabel("Complaint, in the driver's words")).toHaveValue('Air dryer purging constantly')
+  await expect(page.getByLabel('Complaint, in the driver\'s words')).toHaveValue('Air dryer purging constantly')
   await expect(page.getByLabel('Hazmat on board')).toBeChecked()
   await page.getByRole('button', { name: 'Start a fresh one' }).click()
-  await expect(page.getByLabel("Complaint, in the driver's words")).toHaveValue('')
+  await expect(page.getByLabel('Complaint, in the driver\'s words')).toHaveValue('')
   await page.reload()
   await expect(page.getByText('nothing was lost')).toHaveCount(0)
 })
@@ -270,7 +270,7 @@ test('the office settles a change made on a phone and in the office from the sam
   const customers = await (await page.request.get('/api/customers?q=Bluestem')).json()
   const made = await page.request.post('/api/calls', { headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Quarry gate', complaint: 'Gauge reads cold' } })
   const callId = (await made.json()).id as string
-  await testPool().query("UPDATE calls SET story_cause = 'Thermostat stuck open' WHERE id = $1", [callId])
+  await testPool().query('UPDATE calls SET story_cause = \'Thermostat stuck open\' WHERE id = $1', [callId])
   const call = { story_cause: 'Thermostat stuck open' }
   // As sync-server records one: the phone's value, the record's value, and what both started from.
   const { rows: [conflict] } = await testPool().query(

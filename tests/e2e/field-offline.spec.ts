@@ -19,7 +19,7 @@ async function callIdByNumber(page: Page, label: RegExp) {
   return (await link.getAttribute('href'))!.split('/').pop()!
 }
 
-async function addReading(page: Page, r: { label: string; kind: string; unit: string; value: string; where: string; conditions: string; min?: string; max?: string }) {
+async function addReading(page: Page, r: { label: string, kind: string, unit: string, value: string, where: string, conditions: string, min?: string, max?: string }) {
   await page.getByLabel('What was measured').fill(r.label)
   await page.getByLabel('Kind').selectOption(r.kind)
   await page.getByLabel('Unit', { exact: true }).selectOption(r.unit)
@@ -108,7 +108,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
 
   // A part from the service truck's stock, cached on the phone by the first sync.
   await page.getByRole('button', { name: 'Add a part' }).click()
-  await page.getByLabel("From the truck's stock").selectOption({ label: 'TR-DEF-10 · DEF (AUS 32), 10 L jug' })
+  await page.getByLabel('From the truck\'s stock').selectOption({ label: 'TR-DEF-10 · DEF (AUS 32), 10 L jug' })
   await expect(page.getByLabel('Unit price')).toHaveValue('24.00')
   await page.getByLabel('Quantity').fill('3')
   await page.getByRole('button', { name: 'Add part' }).click()
@@ -136,7 +136,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await expect(page.getByText('Work done: Repaired at the roadside')).toBeVisible()
 
   // The driver signs.
-  await page.getByLabel("Driver's name").fill('K. Okafor')
+  await page.getByLabel('Driver\'s name').fill('K. Okafor')
   const pad = page.getByTestId('signature-pad')
   await pad.scrollIntoViewIfNeeded()
   const box = (await pad.boundingBox())!
@@ -190,7 +190,7 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   expect(call).toMatchObject({ status: 'completed', outcome: 'repaired', story_cause: 'DEF diluted to 26.5 % by refractometer.' })
   expect(call.verification).toMatchObject({ codesCleared: true, lampsOff: true, testDriveKm: 8, passed: true })
   expect(call.scene_checklist).toMatchObject({ hazard_lamps: true, high_visibility: true })
-  const reading = (await testPool().query("SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = 'DEF concentration'", [callId])).rows[0]
+  const reading = (await testPool().query('SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = \'DEF concentration\'', [callId])).rows[0]
   expect(reading).toEqual({ value: 26.5, unit: '%', verdict: 'low' })
 
   // The office finds every item on its call page, and the photos' bytes are the phone's.
@@ -257,9 +257,9 @@ test('two tabs with work waiting come online together: one syncs at a time, no d
   await addNote(b, `Tab B: pressure test holds ${tag}`)
 
   // Every sync request each tab makes, with when it started and ended.
-  const spans: { tab: string; url: string; start: number; end: number }[] = []
+  const spans: { tab: string, url: string, start: number, end: number }[] = []
   for (const [tab, p] of [['a', a], ['b', b]] as const) {
-    const open = new Map<object, { tab: string; url: string; start: number; end: number }>()
+    const open = new Map<object, { tab: string, url: string, start: number, end: number }>()
     p.on('request', (r) => { if (r.url().includes('/api/sync/')) { const s = { tab, url: r.url(), start: Date.now(), end: 0 }; open.set(r, s); spans.push(s) } })
     p.on('requestfinished', (r) => { const s = open.get(r); if (s) s.end = Date.now() })
     p.on('requestfailed', (r) => { const s = open.get(r); if (s) s.end = Date.now() })
@@ -351,14 +351,14 @@ test('a field changed on two phones from the same start is settled on the phone'
   await expect(b.getByTestId('sync-chip')).toHaveAttribute('data-state', 'settle')
   await conflict.scrollIntoViewIfNeeded()
   await b.screenshot({ path: 'tests/e2e/screenshots/field-conflict-360.png' })
-  expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'open'", [callId])).toBe(1)
+  expect(await count('conflicts', 'call_id = $1 AND field = \'storyCause\' AND status = \'open\'', [callId])).toBe(1)
 
   await conflict.getByLabel('Or type the right value').fill('Thermostat stuck open; sensor reads true')
   await conflict.getByRole('button', { name: 'Keep what I typed' }).click()
   await expect(b.getByRole('article', { name: 'Conflict on Cause' })).toHaveCount(0, { timeout: 30_000 })
   await expect.poll(async () => (await testPool().query('SELECT story_cause FROM calls WHERE id = $1', [callId])).rows[0].story_cause, { timeout: 30_000 })
     .toBe('Thermostat stuck open; sensor reads true')
-  expect(await count('conflicts', "call_id = $1 AND field = 'storyCause' AND status = 'resolved' AND choice = 'value'", [callId])).toBe(1)
+  expect(await count('conflicts', 'call_id = $1 AND field = \'storyCause\' AND status = \'resolved\' AND choice = \'value\'', [callId])).toBe(1)
   await expect(b.getByLabel(/^Cause/)).toHaveValue('Thermostat stuck open; sensor reads true')
   await Promise.all(phones.map(p => p.close()))
 })
@@ -372,7 +372,7 @@ test('with consent, the last known position goes with the next sync; the questio
   await ask.getByRole('button', { name: 'Yes, share it when syncing' }).click()
   await expect(ask).toHaveCount(0)
   await page.getByRole('button', { name: 'Sync now' }).click()
-  await expect.poll(async () => (await testPool().query("SELECT last_lat, last_lon FROM users WHERE email = 'mech2@wayside.test'")).rows[0], { timeout: 30_000 })
+  await expect.poll(async () => (await testPool().query('SELECT last_lat, last_lon FROM users WHERE email = \'mech2@wayside.test\'')).rows[0], { timeout: 30_000 })
     .toEqual({ last_lat: 45.4123, last_lon: -93.2345 })
   await page.reload()
   await expect(page.getByRole('heading', { level: 1, name: 'My calls' })).toBeVisible()

@@ -2,13 +2,13 @@
 // X-Wayside header the server demands on state changes.
 import { BASE_URL, DEMO_PASSWORD } from './env'
 
-export type Answer<T = any> = { status: number; body: T; headers: Headers }
+export type Answer<T = any> = { status: number, body: T, headers: Headers }
 
 export class ApiClient {
   cookie = ''
   constructor(readonly base = BASE_URL) {}
 
-  async request<T = any>(method: string, path: string, opts: { json?: unknown; body?: BodyInit; headers?: Record<string, string>; noWaysideHeader?: boolean } = {}): Promise<Answer<T>> {
+  async request<T = any>(method: string, path: string, opts: { json?: unknown, body?: BodyInit, headers?: Record<string, string>, noWaysideHeader?: boolean } = {}): Promise<Answer<T>> {
     const headers: Record<string, string> = { ...opts.headers }
     if (!opts.noWaysideHeader) headers['x-wayside'] = '1'
     if (this.cookie) headers.cookie = this.cookie
@@ -22,7 +22,8 @@ export class ApiClient {
     }
     const text = await res.text()
     let parsed: any = text
-    try { parsed = text ? JSON.parse(text) : null } catch {}
+    try { parsed = text ? JSON.parse(text) : null }
+    catch { /* not JSON: keep the text */ }
     return { status: res.status, body: parsed as T, headers: res.headers }
   }
 
@@ -33,7 +34,7 @@ export class ApiClient {
   async login(email: string, password = DEMO_PASSWORD) {
     const r = await this.post('/api/auth/login', { email, password })
     if (r.status !== 200) throw new Error(`sign-in as ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
-    return r.body.user as { id: string; email: string; name: string; role: string }
+    return r.body.user as { id: string, email: string, name: string, role: string }
   }
 }
 

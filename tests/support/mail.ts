@@ -1,6 +1,6 @@
 import { MAIL_URL } from './env'
 
-export type CaughtMessage = { id: number; to: string[]; from: string; subject: string; text: string; attachments: { filename: string; contentType: string; size: number }[] }
+export type CaughtMessage = { id: number, to: string[], from: string, subject: string, text: string, attachments: { filename: string, contentType: string, size: number }[] }
 
 export async function caughtMail(): Promise<CaughtMessage[]> {
   return (await fetch(`${MAIL_URL}/messages`)).json() as Promise<CaughtMessage[]>

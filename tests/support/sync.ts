@@ -17,8 +17,17 @@ export const IDS = {
 }
 
 export type TestOp = {
-  opId: string; clientId: string; seq: number; at: string; schemaVersion: number; entity: string; entityId: string
-  action: 'create' | 'update'; changes: Record<string, unknown>; base?: Record<string, unknown>; baseVersion?: number
+  opId: string
+  clientId: string
+  seq: number
+  at: string
+  schemaVersion: number
+  entity: string
+  entityId: string
+  action: 'create' | 'update'
+  changes: Record<string, unknown>
+  base?: Record<string, unknown>
+  baseVersion?: number
 }
 
 export class Device {
@@ -100,7 +109,7 @@ export async function cleanupSyncData() {
 }
 
 /** A call of our own, assigned to `mechanicId` (as dispatch would: with an 'assigned' event). */
-export async function makeCall(opts: { mechanicId?: string | null; status?: string; storyCause?: string | null } = {}) {
+export async function makeCall(opts: { mechanicId?: string | null, status?: string, storyCause?: string | null } = {}) {
   const id = randomUUID()
   made.calls.push(id)
   const mechanicId = opts.mechanicId === undefined ? IDS.mech1 : opts.mechanicId

@@ -11,7 +11,7 @@ describe('classifySensorCircuit', () => {
     const r = classifySensorCircuit({ refVolts: 5.01, groundOhms: 0.4, sensorOhms: 12400, expectedSensor: ectSpec })
     expect(r.verdict).toBe('ok')
     expect(r.findings).toHaveLength(3)
-    expect(r.findings.every((f) => /good/.test(f))).toBe(true)
+    expect(r.findings.every(f => /good/.test(f))).toBe(true)
   })
 
   it('reference limits 4.8–5.2 V inclusive', () => {

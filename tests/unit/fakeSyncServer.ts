@@ -4,7 +4,7 @@
 import { createHash } from 'node:crypto'
 import type { Op } from '../../app/utils/fieldDb'
 
-type Stored = { opId: string; seq: number; status: string; reason?: string; version?: number }
+type Stored = { opId: string, seq: number, status: string, reason?: string, version?: number }
 export type Script = (url: string, init: RequestInit) => Response | undefined | Promise<Response | undefined>
 
 export class FakeSyncServer {
@@ -12,7 +12,7 @@ export class FakeSyncServer {
   stored = new Map<number, Stored>()
   rows = new Map<string, Record<string, unknown>>()
   photos = new Map<string, string>()
-  requests: { method: string; url: string; ops?: number; position?: unknown }[] = []
+  requests: { method: string, url: string, ops?: number, position?: unknown }[] = []
   pullChanges: Record<string, Record<string, unknown>[]> = {}
   conflicts: Record<string, unknown>[] = []
   cursor = 0
@@ -33,7 +33,7 @@ export class FakeSyncServer {
     return json(404, { statusText: 'Not found' })
   }
 
-  private push(body: { clientId: string; ops: Op[] }) {
+  private push(body: { clientId: string, ops: Op[] }) {
     const results: Stored[] = []
     const first = body.ops[0]
     if (first && first.seq > this.lastSeq + 1) return json(409, { statusCode: 409, data: { expectedSeq: this.lastSeq + 1 } })

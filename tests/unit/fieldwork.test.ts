@@ -37,7 +37,7 @@ describe('the phone forms', () => {
 
   it('wants a drawn signature and a name', () => {
     const f = fieldErrorsOf(signOffInputSchema.safeParse({ driverName: ' ', signature: undefined }).error!)
-    expect(f).toMatchObject({ driverName: "Write the driver's name", signature: 'The driver signs in the box first' })
+    expect(f).toMatchObject({ driverName: 'Write the driver\'s name', signature: 'The driver signs in the box first' })
   })
 
   it('reads the test drive as distance or time', () => {

@@ -19,10 +19,10 @@ describe('compareLikeSensors', () => {
     // threshold = max(5, 3.5 × 1.4826 × 2) = 10.3782 (Iglewicz–Hoaglin style cut-off, common practice)
     expect(Math.abs(r.threshold - 10.3782)).toBeLessThan(1e-9)
     expect(r.outliers).toEqual(['EGR cooler'])
-    const egr = r.items.find((i) => i.label === 'EGR cooler')
+    const egr = r.items.find(i => i.label === 'EGR cooler')
     expect(egr?.deviation).toBe(-51.5)
     expect(egr?.flagged).toBe(true)
-    expect(r.items.filter((i) => i.flagged)).toHaveLength(1)
+    expect(r.items.filter(i => i.flagged)).toHaveLength(1)
   })
 
   it('four like sensors: one at -40 °C, three at 9–15 °C; only the -40 °C one is flagged, by 50.5 °C', () => {

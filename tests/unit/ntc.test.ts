@@ -33,7 +33,7 @@ describe('Beta model', () => {
   it('round-trips temperature -> resistance -> temperature', () => {
     // Beta equation is exactly invertible
     fc.assert(
-      fc.property(fc.double({ min: -40, max: 150, noNaN: true }), (t) =>
+      fc.property(fc.double({ min: -40, max: 150, noNaN: true }), t =>
         Math.abs(ntcTemperatureBeta(ntcResistanceBeta(t, 10000, 3950), 10000, 3950) - t) < 1e-6,
       ),
     )
@@ -101,7 +101,7 @@ describe('steinhartHartResistance (inverse of Steinhart–Hart)', () => {
 
   it('round-trips with steinhartHartTemperature', () => {
     // Steinhart–Hart equation: the cubic in ln R has one real root for B, C > 0
-    fc.assert(fc.property(fc.double({ min: -40, max: 150, noNaN: true }), (t) =>
+    fc.assert(fc.property(fc.double({ min: -40, max: 150, noNaN: true }), t =>
       Math.abs(steinhartHartTemperature(steinhartHartResistance(t, SH_A, SH_B, SH_C), SH_A, SH_B, SH_C) - t) < 1e-6))
     // with C = 0 the equation is the Beta form: 1/T = A + B ln R
     const r = steinhartHartResistance(30, 1e-3, 2.5e-4, 0)

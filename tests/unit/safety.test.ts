@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { SCENE_CHECKLIST, warningDevicePlacement } from '../../shared/utils/safety'
 
-const feetOf = (p: ReturnType<typeof warningDevicePlacement>) => p.devices.map((d) => [d.feet, d.direction])
+const feetOf = (p: ReturnType<typeof warningDevicePlacement>) => p.devices.map(d => [d.feet, d.direction])
 
 describe('warningDevicePlacement (49 CFR 392.22)', () => {
   it('two-lane or undivided road: 10 ft and 100 ft toward traffic, 100 ft the other way', () => {
@@ -28,7 +28,7 @@ describe('warningDevicePlacement (49 CFR 392.22)', () => {
     // 49 CFR 392.22(b)(2)(ii): devices in the direction of the obstruction 100 to 500 ft from the truck
     for (const road of ['undivided', 'divided'] as const) {
       const p = warningDevicePlacement(road, { obstructed: true })
-      const ranged = p.devices.filter((d) => d.maxFeet !== undefined)
+      const ranged = p.devices.filter(d => d.maxFeet !== undefined)
       expect(ranged).toHaveLength(1)
       expect(ranged[0]?.feet).toBe(100)
       expect(ranged[0]?.maxFeet).toBe(500)
@@ -37,7 +37,7 @@ describe('warningDevicePlacement (49 CFR 392.22)', () => {
     }
     // 49 CFR 392.22(b)(2)(ii): the obstruction may lie ahead of the truck on a two-way road
     const ahead = warningDevicePlacement('undivided', { obstructed: true, obstructionSide: 'away' })
-    expect(ahead.devices.find((d) => d.maxFeet !== undefined)?.direction).toBe('away')
+    expect(ahead.devices.find(d => d.maxFeet !== undefined)?.direction).toBe('away')
   })
 
   it('metres are feet × 0.3048 exactly', () => {
@@ -54,12 +54,12 @@ describe('warningDevicePlacement (49 CFR 392.22)', () => {
     // 49 CFR 392.22(a)-(b): hazard flashers at once, devices as soon as possible and within 10 minutes
     const p = warningDevicePlacement('undivided')
     expect(p.placeWithinMinutes).toBe(10)
-    expect(p.notes.some((n) => /hazard flashers/i.test(n))).toBe(true)
-    expect(p.notes.some((n) => /10 minutes/.test(n))).toBe(true)
+    expect(p.notes.some(n => /hazard flashers/i.test(n))).toBe(true)
+    expect(p.notes.some(n => /10 minutes/.test(n))).toBe(true)
     // 49 CFR 393.95 / 392.22: no flame devices near flammable cargo or leaks
-    expect(p.notes.some((n) => /flame/i.test(n))).toBe(true)
+    expect(p.notes.some(n => /flame/i.test(n))).toBe(true)
     // DESIGN.md: safety text defers to local codes and licensed practice
-    expect(p.notes.some((n) => /local rules.*licensed practice/i.test(n))).toBe(true)
+    expect(p.notes.some(n => /local rules.*licensed practice/i.test(n))).toBe(true)
   })
 
   it('rejects an unknown road type', () => {
@@ -72,13 +72,13 @@ describe('warningDevicePlacement (49 CFR 392.22)', () => {
 describe('SCENE_CHECKLIST', () => {
   it('covers the roadside hazards', () => {
     // DESIGN.md look and feel: hot exhaust, traffic, lifting, batteries, high voltage; 49 CFR 392.22 flashers and devices
-    const ids = SCENE_CHECKLIST.map((i) => i.id)
+    const ids = SCENE_CHECKLIST.map(i => i.id)
     for (const id of ['hazard_lamps', 'warning_devices', 'high_visibility', 'wheels_chocked', 'engine_off', 'hot_surfaces', 'battery', 'lifting', 'high_voltage']) {
       expect(ids).toContain(id)
     }
     expect(new Set(ids).size).toBe(ids.length)
     const text = (id: string) => {
-      const item = SCENE_CHECKLIST.find((i) => i.id === id)
+      const item = SCENE_CHECKLIST.find(i => i.id === id)
       return `${item?.label ?? ''} ${item?.caution ?? ''}`
     }
     // common practice: battery work means sparks, hydrogen and eye protection

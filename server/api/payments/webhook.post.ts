@@ -1,4 +1,4 @@
-import Stripe from 'stripe'
+import type Stripe from 'stripe'
 
 // Called by the payment service, not a browser: its signature is the check (the X-Wayside rule
 // does not apply here). A delivery may repeat; the invoice is marked paid once.

@@ -14,7 +14,7 @@ const RUNNING = 'With the engine running, keep hands, sleeves, leads and hair cl
 const BATTERY = 'Batteries give off hydrogen that a spark can ignite: eye protection on, no flames or sparks near them, and never lay a tool across the terminals.'
 const DEFER = 'Follow the maker’s procedure and specs for this unit where they differ; local rules and licensed practice come first.'
 
-export const SEED_CARDS: { slug: string; definition: CardDefinitionInput }[] = [
+export const SEED_CARDS: { slug: string, definition: CardDefinitionInput }[] = [
   {
     slug: 'egt-rtd-sensor',
     definition: {

@@ -124,7 +124,7 @@ async function seedCalls(db: Db) {
   const now = Date.now()
   const at = (hoursAgo: number) => new Date(now - hoursAgo * 3600_000)
   const mech1 = seedId('user:mech1'), mech2 = seedId('user:mech2'), dispatcher = seedId('user:dispatch')
-  type Seed = Partial<typeof t.calls.$inferInsert> & { key: string; customer: string; unit: number }
+  type Seed = Partial<typeof t.calls.$inferInsert> & { key: string, customer: string, unit: number }
   const list: Seed[] = [
     { key: 'c1', status: 'received', customer: 'prairie', unit: 7, locationText: 'Route 8 eastbound shoulder, near mile marker 42', lat: 45.288, lon: -93.102, complaint: 'Check-engine lamp on and the truck will not pull over 50 km/h', lamps: ['check_engine'], derate: 'derated', loaded: true, safetyNotes: 'Narrow shoulder, guard rail on the right', poNumber: 'PCH-88121', authLimitCents: 150000, receivedAt: at(0.5) },
     { key: 'c2', status: 'received', customer: 'bluestem', unit: 11, locationText: 'Bluestem pit 2 scale house', lat: 45.051, lon: -93.262, complaint: 'No crank, dash lights dim', lamps: [], receivedAt: at(1.2) },

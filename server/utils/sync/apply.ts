@@ -19,14 +19,14 @@ import { bulkInsert, bulkInsertSql } from './bulk'
 import { mergeCallField, sameSyncValue, stableSyncJson } from './merge'
 import { isRetryableTxError, pgErrorCode } from './retry'
 
-export type OpOutcome = { status: 'applied' | 'conflict' | 'rejected'; version?: number; reason?: string }
+export type OpOutcome = { status: 'applied' | 'conflict' | 'rejected', version?: number, reason?: string }
 
-type Parsed =
-  | { kind: 'bad'; reason: string }
-  | { kind: 'create'; entity: ChildEntity; data: Record<string, unknown> }
-  | { kind: 'callUpdate'; data: Record<string, unknown> }
-  | { kind: 'childUpdate'; entity: 'faultCode' | 'testRun'; data: Record<string, unknown> }
-  | { kind: 'resolution'; data: z.output<typeof conflictResolutionSchema>; hasValue: boolean }
+type Parsed
+  = | { kind: 'bad', reason: string }
+    | { kind: 'create', entity: ChildEntity, data: Record<string, unknown> }
+    | { kind: 'callUpdate', data: Record<string, unknown> }
+    | { kind: 'childUpdate', entity: 'faultCode' | 'testRun', data: Record<string, unknown> }
+    | { kind: 'resolution', data: z.output<typeof conflictResolutionSchema>, hasValue: boolean }
 
 const rejected = (reason: string): OpOutcome => ({ status: 'rejected', reason })
 const FORBIDDEN = 'forbidden'
@@ -74,7 +74,7 @@ function parseOp(op: Op): Parsed {
   return r.success ? { kind: 'create', entity, data: r.data as Record<string, unknown> } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
 }
 
-const TABLE: Record<ChildEntity, PgTable & { id: any; version: any; callId: any }> = {
+const TABLE: Record<ChildEntity, PgTable & { id: any, version: any, callId: any }> = {
   reading: tables.readings, faultCode: tables.faultCodes, note: tables.notes, photo: tables.photos,
   clockEvent: tables.clockEvents, partLine: tables.partLines, testRun: tables.testRuns, signOff: tables.signOffs,
 }
@@ -85,15 +85,15 @@ const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt'])
 
 const toDate = (v: unknown) => (typeof v === 'string' ? new Date(v) : null)
 
-type Row = Record<string, unknown> & { id: string; callId: string }
-type Pending = { index: number; row: Row }
+type Row = Record<string, unknown> & { id: string, callId: string }
+type Pending = { index: number, row: Row }
 
 /** What the push already knows about rows its ops point at, fetched in a few queries up front. */
 interface Refs {
   testRuns: Map<string, string> // id → callId (in the database or created earlier in this push)
   cardVersions: Set<string> // `${cardId}:${version}`
   trucks: Set<string>
-  stock: Map<string, { unitPriceCents: number; coreChargeCents: number }> // `${truckId}:${partNumber}`
+  stock: Map<string, { unitPriceCents: number, coreChargeCents: number }> // `${truckId}:${partNumber}`
   signedCalls: Map<string, string> // callId → sign-off id
 }
 
@@ -103,7 +103,7 @@ function isDataError(err: unknown) {
 }
 /** Why the database refused a row, naming the field where it can tell. */
 function dbReason(err: unknown, values: Record<string, unknown>) {
-  const cause = ((err as { cause?: unknown }).cause ?? err) as { message?: string; column?: string; constraint?: string }
+  const cause = ((err as { cause?: unknown }).cause ?? err) as { message?: string, column?: string, constraint?: string }
   // A NUL deep inside a JSON value is the one refusal the schemas cannot see; find its field.
   const nul = Object.keys(values).find(k => stableSyncJson(values[k]).includes('\\u0000'))
   const what = cause.column ?? nul ?? cause.constraint ?? 'record'
@@ -139,9 +139,11 @@ export class SyncApplier {
       else {
         await this.flush()
         this.results[i] = await this.inSavepoint(op.changes, () =>
-          p.kind === 'callUpdate' ? this.callUpdate(op, p.data)
-          : p.kind === 'childUpdate' ? this.childUpdate(op, p.entity, p.data)
-          : this.resolution(p.data, p.hasValue))
+          p.kind === 'callUpdate'
+            ? this.callUpdate(op, p.data)
+            : p.kind === 'childUpdate'
+              ? this.childUpdate(op, p.entity, p.data)
+              : this.resolution(p.data, p.hasValue))
       }
     }
     if (this.careful) await this.flush()
@@ -271,7 +273,10 @@ export class SyncApplier {
         if (d.testRunId && this.refs.testRuns.get(d.testRunId) !== d.callId) return 'testRunId: no such test run on this call'
         let verdict = d.verdict ?? null
         // The server judges again when the spec is one it can read; the device's verdict is a hint.
-        if (d.spec) { try { verdict = judge(d.value, d.spec) } catch {} }
+        if (d.spec) {
+          try { verdict = judge(d.value, d.spec) }
+          catch { /* a spec the judge cannot read leaves the device's verdict */ }
+        }
         return {
           id, callId, createdBy, deviceAt, testRunId: d.testRunId ?? null, stepId: d.stepId ?? null, label: d.label,
           quantity: d.quantity, value: d.value, unit: d.unit, component: d.component ?? null, pins: d.pins ?? null,

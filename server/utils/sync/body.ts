@@ -72,7 +72,7 @@ function badBody(message: string): never {
 }
 
 /** A JSON body, size- and depth-capped, with `__proto__` keys dropped. */
-export async function readCappedJson(event: H3Event, opts: { maxBytes: number; maxDepth: number }): Promise<unknown> {
+export async function readCappedJson(event: H3Event, opts: { maxBytes: number, maxDepth: number }): Promise<unknown> {
   const type = (getRequestHeader(event, 'content-type') ?? '').split(';')[0]!.trim().toLowerCase()
   if (type !== 'application/json') throw createError({ status: 415, statusText: 'Send the body as application/json' })
   const text = (await readCappedBody(event, opts.maxBytes)).toString('utf8')

@@ -10,7 +10,7 @@ import type { Tx } from '../db'
  * The INSERT for `rows` (all with the same keys, named as the table's properties). Rows that clash
  * with an existing one are skipped, unless skipClashes is false (then the statement fails).
  */
-export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], opts: { returning?: boolean; skipClashes?: boolean } = {}): SQL {
+export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], opts: { returning?: boolean, skipClashes?: boolean } = {}): SQL {
   const columns = getTableColumns(table) as Record<string, PgColumn>
   const keys = Object.keys(rows[0] ?? {})
   const names = keys.map((key) => {

@@ -84,7 +84,7 @@ export async function resolveConflict(user: User, conflictId: string, choice: Co
 }
 
 /** Conflicts the user may see: the office roles all, a mechanic those on their own calls. */
-export async function listConflicts(user: User, q: { callId?: string; status: 'open' | 'resolved' | 'all' }) {
+export async function listConflicts(user: User, q: { callId?: string, status: 'open' | 'resolved' | 'all' }) {
   const { conflicts, calls, customers } = tables
   const where: SQL[] = []
   if (user.role === 'mechanic') where.push(eq(calls.mechanicId, user.id))

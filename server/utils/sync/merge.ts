@@ -42,12 +42,12 @@ export interface MergeInput {
   serverStatus: CallStatus
 }
 
-export type MergeDecision =
-  | { action: 'take'; value: unknown } // write the device value
-  | { action: 'same' } // already equal: nothing to do
-  | { action: 'keep'; reason: string } // server keeps its value; nothing to settle (a stale status)
-  | { action: 'conflict'; reason: string } // server keeps its value; a person settles it
-  | { action: 'reject'; reason: string } // the op may not carry this field
+export type MergeDecision
+  = | { action: 'take', value: unknown } // write the device value
+    | { action: 'same' } // already equal: nothing to do
+    | { action: 'keep', reason: string } // server keeps its value; nothing to settle (a stale status)
+    | { action: 'conflict', reason: string } // server keeps its value; a person settles it
+    | { action: 'reject', reason: string } // the op may not carry this field
 
 export function mergeCallField(input: MergeInput): MergeDecision {
   const { field, device, server, role, serverStatus } = input

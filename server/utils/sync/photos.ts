@@ -40,7 +40,7 @@ export async function putPhotoBytes(event: H3Event, id: string) {
   const max = Number(useRuntimeConfig().photoMaxBytes)
   assertDeclaredLength(event, max)
   const photo = await photoWithAccess(event, id)
-  if (photo.sha256 && photo.sha256 !== declared) photoRule(422, 'X-Content-Sha256', "differs from the photo's recorded SHA-256")
+  if (photo.sha256 && photo.sha256 !== declared) photoRule(422, 'X-Content-Sha256', 'differs from the photo\'s recorded SHA-256')
 
   const bytes = await readCappedBody(event, max)
   if (!bytes.length) photoRule(400, 'body', 'no bytes were sent')
@@ -73,7 +73,7 @@ export async function getPhotoBytes(event: H3Event, id: string): Promise<Buffer>
     // The bytes behind an id never change (their hash is fixed), so the browser may keep them.
     'cache-control': 'private, max-age=31536000, immutable',
     'x-content-type-options': 'nosniff',
-    etag: `"${photo.sha256}"`,
+    'etag': `"${photo.sha256}"`,
   })
   return bytes
 }

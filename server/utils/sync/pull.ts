@@ -21,7 +21,7 @@ function stripPhoto(row: typeof tables.photos.$inferSelect) {
   return { ...rest, uploaded: !!storageKey }
 }
 
-export async function syncPull(user: User, q: { cursor?: string; clientId?: string }) {
+export async function syncPull(user: User, q: { cursor?: string, clientId?: string }) {
   const prev = q.cursor ?? '0'
   return useDb().transaction(async (tx) => {
     // The first statement fixes the snapshot; its xmin is the new cursor.
@@ -107,10 +107,10 @@ async function mechanicChanges(tx: Tx, user: User, win: Win, incremental: boolea
   // Calls assigned to this mechanic inside the window come whole: their older records too.
   const assigned = incremental
     ? await tx.selectDistinct({ id: callEvents.callId }).from(callEvents).innerJoin(calls, eq(calls.id, callEvents.callId))
-      .where(and(
-        eq(calls.mechanicId, user.id), eq(callEvents.mechanicId, user.id), win(callEvents.changeXid),
-        sql`(${callEvents.kind} IN ('assigned', 'reassigned') OR ${callEvents.toStatus} = 'assigned')`,
-      ))
+        .where(and(
+          eq(calls.mechanicId, user.id), eq(callEvents.mechanicId, user.id), win(callEvents.changeXid),
+          sql`(${callEvents.kind} IN ('assigned', 'reassigned') OR ${callEvents.toStatus} = 'assigned')`,
+        ))
     : []
   const whole = assigned.map(r => r.id)
   const wholeSql = whole.length ? inArray(calls.id, whole) : sql`false`
@@ -138,10 +138,10 @@ async function mechanicChanges(tx: Tx, user: User, win: Win, incremental: boolea
   // Calls taken away: changed in the window, not this mechanic's now, but assigned to them once.
   const revoked = incremental
     ? await tx.select({ id: calls.id }).from(calls).where(and(
-      win(calls.changeXid),
-      sql`${calls.mechanicId} IS DISTINCT FROM ${user.id}`,
-      sql`EXISTS (SELECT 1 FROM call_events e WHERE e.call_id = ${calls.id} AND e.mechanic_id = ${user.id})`,
-    ))
+        win(calls.changeXid),
+        sql`${calls.mechanicId} IS DISTINCT FROM ${user.id}`,
+        sql`EXISTS (SELECT 1 FROM call_events e WHERE e.call_id = ${calls.id} AND e.mechanic_id = ${user.id})`,
+      ))
     : []
   return {
     changes: { calls: callRows.map(strip), units: unitRows.map(strip), customers: customerRows, ...children, ...await library(tx, win) },

@@ -35,10 +35,10 @@ function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, care
   const photoMaxBytes = Number(useRuntimeConfig().photoMaxBytes)
   const userAgent = meta.userAgent?.slice(0, 300) ?? null
   return withTxRetry(() => useDb().transaction(async (tx) => {
-    const { syncClients, syncOps, users } = tables
+    const { syncOps, users } = tables
     // Registers the device on its first push and locks its row: a second push from the same
     // device waits here until this one commits, then finds its ops stored.
-    const registered = await tx.execute<{ user_id: string; last_seq: string }>(sql`
+    const registered = await tx.execute<{ user_id: string, last_seq: string }>(sql`
       INSERT INTO sync_clients (id, user_id, user_agent) VALUES (${body.clientId}, ${user.id}, ${userAgent})
       ON CONFLICT (id) DO UPDATE SET last_seen_at = now()
       RETURNING user_id, last_seq`)

@@ -6,7 +6,7 @@ const RETRYABLE = new Set(['40001', '40P01'])
 
 /** The SQLSTATE of a pg error, also when drizzle wrapped it (DrizzleQueryError.cause). */
 export function pgErrorCode(err: unknown): string | undefined {
-  for (let e = err as { code?: unknown; cause?: unknown } | undefined, depth = 0; e && depth < 5; e = e.cause as typeof e, depth++) {
+  for (let e = err as { code?: unknown, cause?: unknown } | undefined, depth = 0; e && depth < 5; e = e.cause as typeof e, depth++) {
     if (typeof e.code === 'string' && /^[0-9A-Z]{5}$/.test(e.code)) return e.code
   }
   return undefined
