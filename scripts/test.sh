@@ -49,6 +49,8 @@ cd "$ROOT"
 failed=()
 if want lint; then
   say "lint"
+  # The lint config extends the one Nuxt generates into .nuxt/.
+  [ -f .nuxt/eslint.config.mjs ] || npx nuxt prepare >/dev/null
   npx eslint . || failed+=(lint)
 fi
 if want typecheck; then
