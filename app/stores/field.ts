@@ -115,7 +115,7 @@ export const useFieldStore = defineStore('field', () => {
       entity, entityId: id, action: 'update', changes,
       base: base ?? pick(rec, Object.keys(changes)),
       baseVersion: typeof rec.version === 'number' ? rec.version : undefined,
-      apply: (b) => { const r = b.records[RECORD_COLLECTION[entity]][id]; if (r) Object.assign(r, changes) },
+      apply: (b, _at, checked) => { const r = b.records[RECORD_COLLECTION[entity]][id]; if (r) Object.assign(r, checked) },
     }])
     await afterWrite(bundle.id)
   }
@@ -138,7 +138,7 @@ export const useFieldStore = defineStore('field', () => {
         entity: 'call', entityId: callId, action: 'update', changes,
         base: pick(bundle.call, Object.keys(changes)),
         baseVersion: typeof bundle.call.version === 'number' ? bundle.call.version : undefined,
-        apply: (b) => { b.call = { ...b.call, ...changes } },
+        apply: (b, _at, checked) => { b.call = { ...b.call, ...checked } },
       })
     }
     for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId }))
@@ -190,7 +190,7 @@ export const useFieldStore = defineStore('field', () => {
 function createChange(entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {}): LocalChange {
   return {
     entity, entityId: id, action: 'create', changes: fields,
-    apply: (b, at) => { b.records[RECORD_COLLECTION[entity]][id] = { ...fields, ...localOnly, id, deviceAt: at } },
+    apply: (b, at, checked) => { b.records[RECORD_COLLECTION[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },
   }
 }
 

@@ -4,6 +4,7 @@
 // See DESIGN.md, "Sync protocol", for the op shape.
 import { promisifyRequest } from 'idb-keyval'
 import { deviceTx } from './deviceDb'
+import { checkOp, OpRefusedError } from './opCheck'
 
 export const SCHEMA_VERSION = 1
 
@@ -115,7 +116,8 @@ export interface LocalChange {
   changes: Record<string, unknown>
   base?: Record<string, unknown>
   baseVersion?: number
-  apply?: (bundle: CallBundle, at: string) => void
+  /** How the bundle changes; `changes` are the checked ones the op carries. */
+  apply?: (bundle: CallBundle, at: string, changes: Record<string, unknown>) => void
   /** A photo's bytes, queued for upload in the same transaction as the op that creates it. */
   photo?: QueuedPhoto
 }
@@ -136,9 +138,11 @@ export interface QueuedPhoto {
 
 /**
  * Writes several changes to one call and their ops, with contiguous seqs, in one transaction.
- * Returns the ops written.
+ * Every op is checked against the protocol's schema first: one the server would refuse for its
+ * shape throws OpRefusedError naming the field, and nothing is written. Returns the ops written.
  */
 export async function commitChanges(callId: string, list: LocalChange[]): Promise<Op[]> {
+  const checked = list.map(c => checkedChange(c))
   const clientId = await getClientId()
   return deviceTx(['meta', 'calls', 'outbox', 'photos'], 'readwrite', async (tx) => {
     const meta = tx.objectStore('meta')
@@ -148,7 +152,7 @@ export async function commitChanges(callId: string, list: LocalChange[]): Promis
     let seq = (await promisifyRequest<number | undefined>(meta.get(META_SEQ))) ?? 0
     const at = new Date().toISOString()
     const ops: Op[] = []
-    for (const c of list) {
+    for (const c of checked) {
       seq += 1
       const op: Op = {
         opId: crypto.randomUUID(), clientId, seq, at, schemaVersion: SCHEMA_VERSION,
@@ -156,7 +160,7 @@ export async function commitChanges(callId: string, list: LocalChange[]): Promis
       }
       if (c.base) op.base = c.base
       if (c.baseVersion !== undefined) op.baseVersion = c.baseVersion
-      c.apply?.(bundle, at)
+      c.apply?.(bundle, at, c.changes)
       if (c.photo) tx.objectStore('photos').put(c.photo, c.photo.id)
       const entry: OutboxEntry = { ...op, callId, state: 'pending', tries: 0 }
       tx.objectStore('outbox').put(entry, seq)
@@ -166,6 +170,11 @@ export async function commitChanges(callId: string, list: LocalChange[]): Promis
     callsStore.put(bundle, callId)
     return ops
   })
+}
+
+function checkedChange(c: LocalChange): LocalChange {
+  if (c.action === 'update' && !Object.keys(c.changes).length) throw new OpRefusedError({ _: 'Nothing to change' })
+  return { ...c, changes: checkOp(c.entity, c.action, c.changes) }
 }
 
 export async function readOutbox(): Promise<OutboxEntry[]> {
