@@ -84,6 +84,11 @@ export function useSync() {
   /** The Sync now button: no waiting for the backoff, and a new try after a sign-in. */
   function syncNow() {
     e.attempt = 0
+    if (import.meta.client && !navigator.onLine) {
+      outbox.notice = 'No signal, so nothing can be sent now. Your work stays on this phone and goes out by itself when signal returns.'
+      return Promise.resolve(undefined)
+    }
+    outbox.notice = null
     if (outbox.paused === 'signin' || outbox.paused === 'update') outbox.paused = null
     return run()
   }
@@ -108,7 +113,7 @@ export function useSync() {
     }
     e.started = true
     await claim(userId)
-    const onOnline = () => { e.attempt = 0; void run() }
+    const onOnline = () => { e.attempt = 0; outbox.reachable = null; outbox.notice = null; void run() }
     const onVisible = () => {
       if (document.visibilityState !== 'visible') return
       if (!outbox.nextAttemptAt || outbox.nextAttemptAt <= Date.now() || e.attempt === 0) void run()

@@ -14,6 +14,8 @@ export type SyncPosition = { lat: number, lon: number, at: string }
 export type SyncFailure = 'offline' | 'signin' | 'update' | 'invalid' | 'server'
 export type SyncOutcome = { ok: true, changedCalls: string[] } | { ok: false, kind: SyncFailure, message: string, retryAfterMs?: number }
 export type PhotoWaiting = { id: string, callId: string, size: number, opApplied: boolean, tries: number, lastError?: string }
+/** An open conflict on one of the phone's calls that no choice has been made for yet. */
+export type ToSettle = { callId: string, conflictId: string, field: string, callNumber: number | null }
 
 const JSON_HEADERS = { 'X-Wayside': '1', 'Content-Type': 'application/json', 'Accept': 'application/json' }
 
@@ -49,8 +51,15 @@ export const useOutboxStore = defineStore('outbox', () => {
   const writes = ref(0)
   /** Bumped after a pull changed calls, so open screens re-read them. */
   const pulls = ref(0)
+  /** Bumped after a pull brought test cards, so the library re-reads the device. */
+  const libraryPulls = ref(0)
   /** Open conflicts on the phone's calls that no choice has been made for yet. */
-  const toSettle = ref(0)
+  const settle = ref<ToSettle[]>([])
+  const toSettle = computed(() => settle.value.length)
+  /** Whether the last request reached Wayside: false after a network failure, null before any (or after `online`). */
+  const reachable = ref<boolean | null>(null)
+  /** A word for the person about the last thing they asked (Sync now with no signal). */
+  const notice = ref<string | null>(null)
 
   const pending = computed(() => entries.value.filter(e => e.state === 'pending'))
   const rejected = computed(() => entries.value.filter(e => e.state === 'rejected'))
@@ -59,7 +68,9 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   async function refresh() {
     const [o, j, p, last, bundles] = await Promise.all([readOutbox(), readJournal(50), readPhotoQueue(), getMeta<string>('lastSyncAt'), readBundles()])
-    toSettle.value = bundles.reduce((n, b) => n + Object.values(b.records.conflicts ?? {}).filter(c => (c.status ?? 'open') === 'open' && !c.pendingChoice).length, 0)
+    settle.value = bundles.flatMap(b => Object.values(b.records.conflicts ?? {})
+      .filter(c => (c.status ?? 'open') === 'open' && !c.pendingChoice)
+      .map(c => ({ callId: b.id, conflictId: c.id, field: String(c.field ?? ''), callNumber: typeof b.call.number === 'number' ? b.call.number : null })))
     entries.value = o
     journal.value = j
     photos.value = p.map(x => ({ id: x.id, callId: x.callId, size: x.size, opApplied: x.opApplied, tries: x.tries, lastError: x.lastError }))
@@ -124,6 +135,7 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   async function pull(doFetch: SyncFetch, clientId: string): Promise<string[]> {
     const changed = new Set<string>()
+    let cards = 0
     for (let page = 0; page < 50; page++) {
       const { url, cursor } = await pullUrl(clientId)
       const { res, text } = await request(doFetch, url, { headers: JSON_HEADERS })
@@ -131,8 +143,10 @@ export const useOutboxStore = defineStore('outbox', () => {
       const answer = parseAnswer(pullAnswerSchema, text)
       if (!answer) throw new SyncStop('invalid', 'The answer did not come from Wayside (a Wi-Fi sign-in page?)')
       for (const id of await applyPull(answer)) changed.add(id)
+      cards += answer.changes.testCards?.length ?? 0
       if (!answer.more || String(answer.cursor) === String(cursor)) break
     }
+    if (cards) libraryPulls.value++
     return [...changed]
   }
 
@@ -171,6 +185,8 @@ export const useOutboxStore = defineStore('outbox', () => {
       await setMeta('lastSyncAt', now)
       if (opts.position) await setMeta('positionSentAt', opts.position.at)
       lastError.value = null
+      notice.value = null
+      reachable.value = true
       paused.value = null
       if (changedCalls.length) pulls.value++
       return { ok: true, changedCalls }
@@ -178,6 +194,7 @@ export const useOutboxStore = defineStore('outbox', () => {
     catch (err) {
       const stop = err instanceof SyncStop ? err : new SyncStop('server', err instanceof Error ? err.message : String(err))
       lastError.value = stop.message
+      reachable.value = stop.kind !== 'offline'
       if (stop.kind === 'signin' || stop.kind === 'update') paused.value = stop.kind
       return { ok: false, kind: stop.kind, message: stop.message, retryAfterMs: stop.retryAfterMs }
     }
@@ -188,7 +205,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   return {
-    entries, journal, photos, lastSyncAt, lastAttemptAt, lastError, paused, syncing, nextAttemptAt, writes, pulls, toSettle,
+    entries, journal, photos, lastSyncAt, lastAttemptAt, lastError, paused, syncing, nextAttemptAt, writes, pulls, libraryPulls, settle, toSettle, reachable, notice,
     pending, rejected, waitingCount, isEmpty, refresh, noteWrite, runOnce,
   }
 })

@@ -9,6 +9,9 @@ const FIELD_WORDS: Record<string, string> = {
   sceneChecklist: 'scene checklist', verification: 'verification', followUp: 'follow-up', clearedAt: 'cleared', steps: 'steps', conclusion: 'conclusion', finishedAt: 'finished',
 }
 
+/** A record field in words ('storyCause' → 'cause'). */
+export const fieldWords = (field: string) => FIELD_WORDS[field] ?? field
+
 const cut = (s: unknown, n = 40) => { const t = String(s ?? ''); return t.length > n ? `${t.slice(0, n - 1)}…` : t }
 
 export function opSummary(op: Pick<Op, 'entity' | 'action' | 'changes'>): string {
