@@ -20,7 +20,7 @@ export interface CallView {
   call: DeviceRow
   unit: DeviceRow | null
   customer: DeviceRow | null
-  /** Earlier calls on the same unit, newest first. */
+  /** Earlier calls on the same unit (the other calls of it on the phone), newest first. */
   history: DeviceRow[]
   faultCodes: DeviceRow[]
   readings: DeviceRow[]
@@ -58,7 +58,7 @@ export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: rea
   const history: DeviceRow[] = []
   const earlier = others.filter(o => unitId && o.call.unitId === unitId)
     .map(o => ({ ...o.call, codes: Object.values(o.records.faultCodes ?? {}).map(codeLabel) }))
-  for (const h of [...earlier, ...b.history]) {
+  for (const h of earlier) {
     if (seen.has(h.id)) continue
     seen.add(h.id)
     history.push(h)

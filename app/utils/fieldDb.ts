@@ -70,16 +70,14 @@ export interface CallBundle {
   call: DeviceRow
   unit: DeviceRow | null
   customer: DeviceRow | null
-  history: DeviceRow[]
   records: Record<Collection, Record<string, DeviceRow>>
   /** The call was taken away from this mechanic while work on it still waits to sync. */
   revoked?: boolean
-  historyFetchedAt?: string
 }
 
 export function emptyBundle(call: DeviceRow): CallBundle {
   const records = Object.fromEntries(BUNDLE_COLLECTIONS.map(c => [c, {}])) as CallBundle['records']
-  return { id: call.id, call, unit: null, customer: null, history: [], records }
+  return { id: call.id, call, unit: null, customer: null, records }
 }
 
 const META_CLIENT = 'clientId'
@@ -227,7 +225,7 @@ export async function claimDevice(userId: string): Promise<'mine' | 'cleared' | 
     const photos = await promisifyRequest<number>(tx.objectStore('photos').count())
     if (waiting + photos > 0) return 'foreign'
     for (const s of ['calls', 'library', 'journal'] as const) tx.objectStore(s).clear()
-    for (const k of [META_CLIENT, META_SEQ, 'cursor', 'serverLastSeq', 'lastSyncAt', 'positionSentAt']) meta.delete(k)
+    for (const k of [META_CLIENT, META_SEQ, 'cursor', 'lastSyncAt', 'positionSentAt', 'stockFetchedAt']) meta.delete(k)
     meta.put(userId, 'ownerId')
     return 'cleared'
   })

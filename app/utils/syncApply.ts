@@ -9,10 +9,16 @@ import {
 } from './fieldDb'
 import { opSummary } from './opSummary'
 import { cardDefinitionSchema, type TestCardView } from '#shared/schemas/testCards'
+import { ratesSchema } from '#shared/schemas/rates'
+import { z } from 'zod'
 import { CARD_LIST_KEY, cardKey, type LibraryList } from './libraryKeys'
 import type { PullAnswer, PushResult } from './syncWire'
 
 const JOURNAL_KEEP = 300
+
+/** A rates row as the pull carries it: the admin's rates plus its id and when it took effect. */
+const ratesRowSchema = ratesSchema.extend({ id: z.string(), effectiveFrom: z.string() })
+export type RatesRow = z.infer<typeof ratesRowSchema>
 
 function journalOf(e: OutboxEntry, status: JournalEntry['status'], reason?: string | null): JournalEntry {
   const j: JournalEntry = {
@@ -217,7 +223,6 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
     const meta = tx.objectStore('meta')
     meta.put(answer.cursor, 'cursor')
-    meta.put(answer.lastSeq, 'serverLastSeq')
     return [...changed]
   })
 }
@@ -251,6 +256,16 @@ function cardOf(row: Record<string, unknown>): TestCardView | undefined {
   const definition = cardDefinitionSchema.safeParse(row.definition)
   if (!definition.success) return undefined
   return { ...(row as unknown as TestCardView), version, currentVersion: version, definition: definition.data }
+}
+
+/** The rates in force as the last sync brought them (the newest by when they took effect), for estimates on the phone. */
+export async function readRates(): Promise<RatesRow | undefined> {
+  const all = Object.values((await readLibrary<Record<string, unknown>>('rates')) ?? {})
+  const rows = all.flatMap((r) => {
+    const p = ratesRowSchema.safeParse(r)
+    return p.success ? [p.data] : []
+  })
+  return rows.sort((a, b) => b.effectiveFrom.localeCompare(a.effectiveFrom))[0]
 }
 
 /** One entry of the device's library (test cards, rates, units, customers, truck stock). */

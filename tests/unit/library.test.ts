@@ -4,7 +4,7 @@ import { cardDefinitionSchema, type TestCardView } from '../../shared/schemas/te
 import { recordReading, startRun } from '../../shared/utils/cardRun'
 import { SEED_CARDS } from '../../server/db/seed/cards'
 import { useLibraryStore } from '../../app/stores/library'
-import { applyPull } from '../../app/utils/syncApply'
+import { applyPull, readRates } from '../../app/utils/syncApply'
 import { freshDevice, pullAnswer, reloadApp } from './outbox-support'
 
 const egt = (version: number, title = 'Exhaust temperature sensor'): TestCardView => ({
@@ -51,6 +51,18 @@ describe('library on the phone', () => {
     await lib.ensure()
     expect(lib.cards.map(c => c.title)).toEqual(['Battery'])
     expect(lib.fetchedAt).not.toBeNull()
+  })
+
+  it('keeps the rates the sync brought and reads the ones in force', async () => {
+    const rates = (id: string, effectiveFrom: string, laborCentsPerHour: number) => ({
+      id, effectiveFrom, laborCentsPerHour, afterHoursMultiplierPct: 150, minimumLaborTenths: 10, roadCallMinimumCents: 15000,
+      travelCentsPerUnit: 250, travelUnit: 'km', partsMarkupPct: 25, taxRateBasisPoints: 700, laborTaxable: false, averageRoadKph: 70, version: 1,
+    })
+    expect(await readRates()).toBeUndefined()
+    await applyPull(pullAnswer({ rates: [rates('r1', '2026-01-01T00:00:00.000Z', 12500)] }))
+    await applyPull(pullAnswer({ rates: [rates('r2', '2026-03-01T00:00:00.000Z', 13500)] }, { cursor: 'c2' }))
+    await reloadApp()
+    expect(await readRates()).toMatchObject({ id: 'r2', laborCentsPerHour: 13500, travelUnit: 'km' })
   })
 
   it('keeps a run in progress across a reload, OL included', async () => {
