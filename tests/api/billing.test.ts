@@ -7,7 +7,8 @@ import { BASE_URL, DEMO } from '../support/env'
 import { caughtMail, clearMail, waitForMail } from '../support/mail'
 
 // Each test bills a call of its own making, so no other test's seeded calls are touched.
-async function finishedCall(customerName: string, opts: { laborMin: number, parts?: { pn: string, qty: number, price: number, core: number }[] }) {
+type CallOpts = { laborMin: number, workFrom?: number, parts?: { pn: string, qty: number, price: number, core: number }[] }
+async function finishedCall(customerName: string, opts: CallOpts) {
   const db = testPool()
   const { rows: [c] } = await db.query('SELECT id FROM customers WHERE name = $1', [customerName])
   const { rows: [truck] } = await db.query(`SELECT id FROM service_trucks WHERE name = 'Truck 11'`)
@@ -16,8 +17,10 @@ async function finishedCall(customerName: string, opts: { laborMin: number, part
   // 45.498, -93.012 is the north yard; this point is about 10 km due south of it.
   await db.query(`INSERT INTO calls (id, status, outcome, customer_id, location_text, lat, lon, complaint, mechanic_id, service_truck_id, completed_at)
     VALUES ($1, 'completed', 'repaired', $2, 'Test location', 45.408, -93.012, 'Test complaint', $3, $4, now())`, [id, c.id, mech.id, truck.id])
-  const t0 = Date.now() - 3 * 3600_000
-  await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', $2), ($1, 'work_stop', $3)`, [id, new Date(t0), new Date(t0 + opts.laborMin * 60_000)])
+  // Tuesday 2026-03-10 10:00 in Chicago (CDT, UTC−5): inside the seeded hours, 07:00–18:00 Monday to Friday.
+  const t0 = opts.workFrom ?? Date.parse('2026-03-10T15:00:00Z')
+  await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', $2), ($1, 'work_stop', $3)`,
+    [id, new Date(t0), new Date(t0 + opts.laborMin * 60_000)])
   for (const p of opts.parts ?? []) {
     await db.query(`INSERT INTO part_lines (call_id, part_number, description, quantity, unit_price_cents, core_charge_cents) VALUES ($1, $2, 'Test part', $3, $4, $5)`, [id, p.pn, p.qty, p.price, p.core])
   }
@@ -34,16 +37,27 @@ describe('invoices', () => {
     const r = await office.post('/api/invoices', { callId })
     expect(r.status).toBe(201)
     const inv = r.body
-    // Seeded rates: $145/h, tenths rounded up; 83 min → 1.4 h = $203.00 (common practice: 0.1 h = 6 min)
-    expect(inv.lines.find((l: any) => l.kind === 'labor').amountCents).toBe(20300)
-    // Travel: 0.09° of latitude out and back = 2 × 10.0 km (haversine, R = 6371 km) at $2.25/km
+    const amount = (key: string) => inv.lines.find((l: any) => l.key === key)?.amountCents
+    // Seeded rates: $145/h, tenths rounded up; 83 min inside hours → 1.4 h = $203.00 (common practice: 0.1 h = 6 min)
+    expect(amount('labor')).toBe(20300)
+    expect(amount('labor:after')).toBeUndefined()
+    // Travel: 0.09° of latitude out and back = 2 × 10.0 km (haversine, R = 6371 km), times the road factor 1.3
+    // the admin set (common practice) = 26.0 km at $2.25/km = $58.50
     const travel = inv.lines.find((l: any) => l.kind === 'travel')
-    expect(travel.quantity).toBeCloseTo(20.0, 1)
-    // Part $389.00 + 25 % markup; core untaxed; tax 7.25 % on the part only
-    expect(inv.lines.find((l: any) => l.kind === 'part').amountCents).toBe(48625)
-    expect(inv.taxCents).toBe(Math.round(48625 * 0.0725))
+    expect(travel.quantity).toBeCloseTo(26.0, 1)
+    expect(travel.amountCents).toBe(5850)
+    // Part $389.00 + 25 % markup = $486.25; core untaxed; environmental fee $6.50; shop supplies 5 % of $203.00 = $10.15
+    expect(amount(inv.lines.find((l: any) => l.kind === 'part').key)).toBe(48625)
+    expect(amount('env-fee')).toBe(650)
+    expect(amount('supplies')).toBe(1015)
+    // Tax 7.25 % on parts and fees: (486.25 + 6.50 + 10.15) × 0.0725 = $36.46025 → $36.46
+    expect(inv.taxCents).toBe(3646)
     expect(inv.totalCents).toBe(inv.subtotalCents + inv.taxCents)
     expect(inv.subtotalCents).toBe(inv.lines.reduce((s: number, l: any) => s + l.amountCents, 0))
+    // Each line names its source: the labor its clock events, the part its part line.
+    expect(inv.lines.find((l: any) => l.key === 'labor').source.clockEventIds).toHaveLength(2)
+    const { rows: [partLine] } = await testPool().query('SELECT id FROM part_lines WHERE call_id = $1', [callId])
+    expect(inv.lines.find((l: any) => l.kind === 'part').source.partLineId).toBe(partLine.id)
     const call = (await testPool().query('SELECT status FROM calls WHERE id = $1', [callId])).rows[0]
     expect(call.status).toBe('invoiced')
 
@@ -90,6 +104,36 @@ describe('invoices', () => {
     expect(mail[0]!.to).toEqual(['payables@ironwood-freight.test'])
     expect(mail[0]!.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf', filename: `invoice-W-${inv.number}.pdf` })])
     expect((await caughtMail()).length).toBe(1)
+  })
+})
+
+describe('after hours', () => {
+  it('bills the part of the work after closing time at the after-hours rate', async () => {
+    // 17:30–18:30 CDT on Tuesday 2026-03-10: half an hour before the 18:00 close, half after.
+    // 0.5 h × $145.00 = $72.50 and 0.5 h × ($145.00 × 150 % = $217.50) = $108.75
+    const callId = await finishedCall('Prairie Cold Haul', { laborMin: 60, workFrom: Date.parse('2026-03-10T22:30:00Z') })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    const labor = inv.lines.filter((l: any) => l.kind === 'labor').map((l: any) => [l.key, l.quantity, l.unitCents, l.amountCents])
+    expect(labor).toEqual([['labor', 0.5, 14500, 7250], ['labor:after', 0.5, 21750, 10875]])
+  })
+})
+
+describe('rates', () => {
+  it('refuses a tax rate over 30 % and a zone nobody knows, naming the field and saving nothing', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const { body: { rates } } = await admin.get('/api/rates')
+    expect(rates).toMatchObject({ timeZone: 'America/Chicago', roadFactorPct: 130, partsTaxable: true, businessName: 'Two Rivers Road Service' })
+    const { id: _i, version: _v, createdAt: _c, updatedAt: _u, effectiveFrom: _e, ...values } = rates
+    const before = await count('rates')
+    const high = await admin.post('/api/rates', { ...values, taxRateBasisPoints: 3001 })
+    expect(high.status).toBe(400)
+    expect(high.body.data.fields.taxRateBasisPoints).toMatch(/30 %/)
+    const zone = await admin.post('/api/rates', { ...values, timeZone: 'Mars/Olympus_Mons' })
+    expect(zone.status).toBe(400)
+    expect(zone.body.data.fields.timeZone).toBeTruthy()
+    const hours = await admin.post('/api/rates', { ...values, openMinute: 600, closeMinute: 540 })
+    expect(hours.body.data.fields.closeMinute).toBeTruthy()
+    expect(await count('rates')).toBe(before)
   })
 })
 

@@ -8,7 +8,7 @@ test('the office bills a finished call: draft, e-mail, post to the fleet account
   await row.getByRole('button', { name: 'Draft invoice' }).click()
   await expect(page).toHaveURL(/\/billing\/invoices\//)
   await expect(page.getByRole('heading', { level: 1 })).toContainText('Ironwood Freight Lines')
-  await expect(page.getByRole('cell', { name: /Labor \d+\.\d h/ })).toBeVisible()
+  await expect(page.getByRole('cell', { name: /^Labor( after hours)? \d+\.\d h/ }).first()).toBeVisible()
   await page.screenshot({ path: 'tests/e2e/screenshots/billing-invoice-1280.png', fullPage: true })
 
   await page.getByRole('button', { name: 'Send by e-mail' }).click()
