@@ -118,6 +118,92 @@ describe('after hours', () => {
   })
 })
 
+describe('the office adjusts a draft', () => {
+  it('changes a line with a reason, logs who, when, before and after, and reprices what depends on it', async () => {
+    const callId = await finishedCall('Prairie Cold Haul', { laborMin: 83 })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    const noReason = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'change', key: 'labor', changes: { quantity: 1.2 } })
+    expect(noReason.status).toBe(400)
+    expect(noReason.body.data.fields.reason).toBeTruthy()
+    const r = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'change', key: 'labor', changes: { quantity: 1.2 }, reason: 'Waited 12 min for the yard gate' })
+    expect(r.status).toBe(200)
+    const line = (key: string) => r.body.lines.find((l: any) => l.key === key)
+    // 1.2 h × $145.00 = $174.00; shop supplies follow: 5 % of $174.00 = $8.70
+    expect(line('labor').amountCents).toBe(17400)
+    expect(line('supplies').amountCents).toBe(870)
+    expect(r.body.subtotalCents).toBe(r.body.lines.reduce((s: number, l: any) => s + l.amountCents, 0))
+    expect(r.body.adjustments).toHaveLength(1)
+    expect(r.body.adjustments[0]).toMatchObject({
+      action: 'change', lineKey: 'labor', reason: 'Waited 12 min for the yard gate', by: { name: expect.any(String) },
+      before: { quantity: 1.4, amountCents: 20300 }, after: { quantity: 1.2, amountCents: 17400 },
+    })
+    expect(Date.parse(r.body.adjustments[0].at)).toBeGreaterThan(Date.now() - 60_000)
+    // The lines nobody touched keep their sources.
+    expect(line('travel').source.rate).toBe('travelCentsPerUnit')
+
+    const added = await office.post(`/api/invoices/${inv.id}/adjustments`, {
+      action: 'add', reason: 'Two steer tires disposed of', line: { kind: 'fee', description: 'Tire disposal', quantity: 2, unitCents: 400, taxable: true },
+    })
+    const tire = added.body.lines.find((l: any) => l.description === 'Tire disposal')
+    expect(tire).toMatchObject({ amountCents: 800, source: { office: true } })
+    const road = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'road', distance: 31.5, reason: 'Trip meter, out and back' })
+    // 31.5 km by road × $2.25 = $70.875 → $70.88
+    expect(road.body.lines.find((l: any) => l.key === 'travel')).toMatchObject({ quantity: 31.5, amountCents: 7088, description: expect.stringMatching(/by road/) })
+    const removed = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'env-fee', reason: 'No fluids on this call' })
+    expect(removed.body.lines.some((l: any) => l.key === 'env-fee')).toBe(false)
+    expect(removed.body.adjustments.map((a: any) => a.action)).toEqual(['change', 'add', 'road', 'remove'])
+    expect(await count('invoice_adjustments', 'invoice_id = $1', [inv.id])).toBe(4)
+
+    const missing = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'env-fee', reason: 'Again' })
+    expect(missing.status).toBe(422)
+    expect(missing.body.data.fields.key).toBeTruthy()
+    const dispatcher = await signedIn(DEMO.dispatcher)
+    expect((await dispatcher.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'labor', reason: 'x x x' })).status).toBe(403)
+    // Once sent, the invoice is no longer the office's to change.
+    await office.post(`/api/invoices/${inv.id}/send`)
+    const late = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'labor', reason: 'Too late' })
+    expect(late.status).toBe(422)
+    expect(late.body.data.fields.status).toBeTruthy()
+    expect(await count('invoice_adjustments', 'invoice_id = $1', [inv.id])).toBe(4)
+  })
+})
+
+// The server flags clock events a phone's clock could not be trusted on (clock_events.flag).
+const { rowCount: flagColumn } = await testPool().query(`SELECT 1 FROM information_schema.columns WHERE table_name = 'clock_events' AND column_name = 'flag'`)
+
+describe('clock times the phone could not be trusted on', () => {
+  it.skipIf(!flagColumn)('are neither billed nor a 500: the draft leaves them out and says so', async () => {
+    const callId = await finishedCall('Prairie Cold Haul', { laborMin: 60 })
+    // A second work span the server flagged as being in the future: five hours that must not be billed.
+    await testPool().query(`INSERT INTO clock_events (call_id, kind, device_at, flag) VALUES ($1, 'work_start', '2026-03-10T17:00:00Z', 'future'),
+      ($1, 'work_stop', '2026-03-10T22:00:00Z', 'future')`, [callId])
+    const r = await office.post('/api/invoices', { callId })
+    expect(r.status).toBe(201)
+    // Only the trusted hour: 1.0 h × $145.00
+    expect(r.body.lines.filter((l: any) => l.kind === 'labor').map((l: any) => l.amountCents)).toEqual([14500])
+    expect(r.body.excludedClock).toHaveLength(2)
+    expect(r.body.flags.map((f: any) => f.code)).toContain('untrusted_clock')
+  })
+})
+
+describe('the billing desk', () => {
+  it('flags what a clerk must see first', async () => {
+    const callId = await finishedCall('Ironwood Freight Lines', { laborMin: 60 })
+    await testPool().query('UPDATE calls SET auth_limit_cents = 5000 WHERE id = $1', [callId])
+    const desk = await office.get('/api/billing/desk')
+    expect(desk.status).toBe(200)
+    const item = desk.body.items.find((i: any) => i.callId === callId)
+    expect(item.estimated).toBe(true)
+    expect(item.flags.map((f: any) => f.code).sort()).toEqual(['no_po', 'no_sign_off', 'no_story', 'over_limit'])
+    expect(item.flags.find((f: any) => f.code === 'over_limit').text).toMatch(/\$50\.00/)
+    await testPool().query(`UPDATE calls SET po_number = 'IFL-1', story_cause = 'Worn belt', story_correction = 'New belt', auth_limit_cents = NULL WHERE id = $1`, [callId])
+    await testPool().query(`INSERT INTO sign_offs (call_id, driver_name, signature) VALUES ($1, 'Test Driver', 'data:image/png;base64,AAAA')`, [callId])
+    const again = (await office.get('/api/billing/desk')).body.items.find((i: any) => i.callId === callId)
+    expect(again.flags).toEqual([])
+    expect((await (await signedIn(DEMO.dispatcher)).get('/api/billing/desk')).status).toBe(403)
+  })
+})
+
 describe('rates', () => {
   it('refuses a tax rate over 30 % and a zone nobody knows, naming the field and saving nothing', async () => {
     const admin = await signedIn(DEMO.admin)
