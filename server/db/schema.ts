@@ -358,6 +358,8 @@ export const photos = pgTable('photos', {
   sha256: text('sha256'),
   storageKey: text('storage_key'),
   uploadedAt: ts('uploaded_at'),
+  /** Set by the office: the photo goes on the invoice the customer receives. */
+  showCustomer: boolean('show_customer').notNull().default(false),
   ...synced,
 }, t => [index('photos_call_idx').on(t.callId), index('photos_change_idx').on(t.changeXid)])
 

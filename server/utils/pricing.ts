@@ -3,7 +3,7 @@
 import { asc, eq } from 'drizzle-orm'
 import type { PriceAdjustment, PricedInvoice, PricingInput } from '#shared/utils/billing'
 
-type RatesRow = typeof tables.rates.$inferSelect
+type RatesRow = Parameters<typeof billingRatesOf>[0]
 type CallRow = typeof tables.calls.$inferSelect
 
 /** Out and back from the service truck's yard to the call, as the crow flies, in km; null when either end is unknown. */
