@@ -62,7 +62,25 @@ if want unit; then
   say "unit tests"
   npx vitest run --project unit || failed+=(unit)
 fi
+# Several checkouts testing on one small machine (WAYSIDE_TEST_LOCK set to a shared folder) take
+# turns for the heavy part, at most WAYSIDE_TEST_LOCK_SLOTS at a time (2 by default), so no run's
+# browser waits are stretched by the others'.
+take_turn() {
+  [ -n "${WAYSIDE_TEST_LOCK:-}" ] || return 0
+  mkdir -p "$WAYSIDE_TEST_LOCK"
+  local n
+  say "waiting for a turn to build and run the server tests ($WAYSIDE_TEST_LOCK)"
+  while :; do
+    for n in $(seq 1 "${WAYSIDE_TEST_LOCK_SLOTS:-2}"); do
+      exec 9>"$WAYSIDE_TEST_LOCK/turn-$n"
+      if flock -n 9; then say "turn $n taken"; return 0; fi
+      exec 9>&-
+    done
+    sleep 5
+  done
+}
 if want api || want e2e; then
+  take_turn
   build_if_needed
   : > "$DATA/test-server-$SLOT.log"
   node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
