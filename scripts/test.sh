@@ -41,7 +41,7 @@ start_server() {
   [ -n "$SERVER_PID" ] && { kill "$SERVER_PID" 2>/dev/null || true; wait "$SERVER_PID" 2>/dev/null || true; }
   fresh_database
   rm -rf "$NUXT_UPLOADS_DIR"
-  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 & SERVER_PID=$!
+  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 9>&- & SERVER_PID=$!
   CHILD_PIDS+=("$SERVER_PID")
   wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/test-server-$SLOT.log"; die "the test server did not start"; }
 }
@@ -83,7 +83,7 @@ if want api || want e2e; then
   take_turn
   build_if_needed
   : > "$DATA/test-server-$SLOT.log"
-  node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
+  node --import tsx scripts/fakes/run.ts 9>&- & CHILD_PIDS+=($!)
 fi
 if want api; then
   start_server
