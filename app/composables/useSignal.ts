@@ -2,7 +2,7 @@
 // offline events) and the outcome of the last request to Wayside, not the sign-in check.
 export function useSignal() {
   const online = useOnline()
-  const outbox = useOutboxStore()
-  const noSignal = computed(() => !online.value || outbox.reachable === false)
+  const sync = useSyncStore()
+  const noSignal = computed(() => !online.value || sync.reachable === false)
   return { noSignal }
 }

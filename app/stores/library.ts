@@ -8,7 +8,7 @@ import type { TestCardView } from '#shared/schemas/testCards'
 import type { CardRun } from '#shared/utils/cardRun'
 import { deviceStore } from '../utils/deviceDb'
 import { CARD_LIST_KEY, cardKey, runKey, type LibraryList } from '../utils/libraryKeys'
-import { useOutboxStore } from './outbox'
+import { useSyncStore } from './sync'
 
 const parseRun = (raw: string): CardRun => JSON.parse(raw, (k, v) => (k === 'value' && v === 'Infinity' ? Infinity : v))
 
@@ -53,7 +53,7 @@ export const useLibraryStore = defineStore('library', () => {
   }
 
   // A sync that brought cards while a card list is open shows them at once.
-  watch(() => useOutboxStore().libraryPulls, () => { if (loaded.value) void ensure() })
+  watch(() => useSyncStore().libraryPulls, () => { if (loaded.value) void ensure() })
 
   return { cards, fetchedAt, loaded, ensure, card, getRun, saveRun, dropRun, runsOfCall }
 })

@@ -18,7 +18,7 @@ const JOURNAL_KEEP = 300
 
 /** A rates row as the pull carries it: the admin's rates plus its id and when it took effect. */
 const ratesRowSchema = ratesSchema.extend({ id: z.string(), effectiveFrom: z.string() })
-export type RatesRow = z.infer<typeof ratesRowSchema>
+export type PulledRates = z.infer<typeof ratesRowSchema>
 
 function journalOf(e: OutboxEntry, status: JournalEntry['status'], reason?: string | null): JournalEntry {
   const j: JournalEntry = {
@@ -259,7 +259,7 @@ function cardOf(row: Record<string, unknown>): TestCardView | undefined {
 }
 
 /** The rates in force as the last sync brought them (the newest by when they took effect), for estimates on the phone. */
-export async function readRates(): Promise<RatesRow | undefined> {
+export async function readRates(): Promise<PulledRates | undefined> {
   const all = Object.values((await readLibrary<Record<string, unknown>>('rates')) ?? {})
   const rows = all.flatMap((r) => {
     const p = ratesRowSchema.safeParse(r)
