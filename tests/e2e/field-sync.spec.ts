@@ -33,6 +33,17 @@ test('every card is on the phone after the first sync, with no card page opened 
   const listed = page.locator('section[aria-labelledby="suggested-title"] a, section[aria-labelledby="all-title"] a')
   await expect(listed).toHaveCount(active)
   await shot(page, 'field-sync-cards-offline-360')
+  // Every card opens with no signal, not only the one the codes suggest.
+  const titles = (await listed.locator('span.font-bold').allTextContents()).map(t => t.trim())
+  expect(titles).toHaveLength(active)
+  for (const [i, title] of titles.entries()) {
+    await listed.nth(i).click()
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText(title)
+    await expect(page.getByText('This card is not on the phone')).toHaveCount(0)
+    await shot(page, `field-sync-card-${i + 1}-offline-360`)
+    await page.goBack()
+    await expect(listed).toHaveCount(active)
+  }
   await page.getByRole('region', { name: 'Fits this call\'s codes' }).getByRole('link', { name: /Exhaust temperature sensor/ }).click()
   await expect(page.getByRole('heading', { level: 1, name: /Exhaust temperature sensor/ })).toBeVisible()
   await expect(page.getByRole('heading', { name: 'Before you start' })).toBeVisible()
