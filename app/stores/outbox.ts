@@ -8,7 +8,7 @@ import { readPhotoQueue } from '../utils/syncApply'
 
 export type PhotoWaiting = { id: string, callId: string, size: number, opApplied: boolean, tries: number, lastError?: string }
 /** An open conflict on one of the phone's calls that no choice has been made for yet. */
-export type ToSettle = { callId: string, conflictId: string, field: string, callNumber: number | null }
+export type ToSettle = { callId: string, conflictId: string, entity: string, field: string, callNumber: number | null }
 
 export const useOutboxStore = defineStore('outbox', () => {
   const entries = ref<OutboxEntry[]>([])
@@ -30,7 +30,7 @@ export const useOutboxStore = defineStore('outbox', () => {
     settle.value = bundles.flatMap(b => Object.values(b.records.conflicts ?? {})
       .filter(c => (c.status ?? 'open') === 'open' && !c.pendingChoice)
       .map(c => ({
-        callId: b.id, conflictId: c.id, field: String(c.field ?? ''),
+        callId: b.id, conflictId: c.id, entity: String(c.entity ?? 'call'), field: String(c.field ?? ''),
         callNumber: typeof b.call.number === 'number' ? b.call.number : null,
       })))
     entries.value = o

@@ -5,12 +5,22 @@
 import { promisifyRequest } from 'idb-keyval'
 import { deviceTx } from './deviceDb'
 import { checkOp, OpRefusedError } from './opCheck'
+import {
+  RECORD_COLLECTION_NAMES, RECORD_COLLECTIONS, type RecordCollection, type RecordEntityName, type SyncEntityName,
+} from '#shared/sync/entities'
+import type {
+  CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire, NoteWire, PartLineWire, PhotoWire,
+  ReadingWire, SignOffWire, TestRunWire, UnitWire,
+} from '#shared/types/syncRows'
 
 export const SCHEMA_VERSION = 1
 
-export type RecordEntity = 'reading' | 'faultCode' | 'note' | 'photo' | 'clockEvent' | 'partLine' | 'testRun' | 'signOff'
-export type OpEntity = 'call' | RecordEntity | 'conflictResolution'
-export type DeviceRow = Record<string, unknown> & { id: string }
+/** A record the mechanic adds to a call (the registry's record entities). */
+export type RecordEntity = RecordEntityName
+/** What an op may name: the registry's entities. */
+export type OpEntity = SyncEntityName
+/** Any record on the device; each collection's own type is in CollectionRows. */
+export type DeviceRow = DeviceRecord
 
 export interface Op {
   opId: string
@@ -50,32 +60,43 @@ export interface JournalEntry {
   summary: string
 }
 
-/** Where a record entity lives in a call's bundle (and in a pull's `changes`). */
-export const RECORD_COLLECTION = {
-  reading: 'readings',
-  faultCode: 'faultCodes',
-  note: 'notes',
-  photo: 'photos',
-  clockEvent: 'clockEvents',
-  partLine: 'partLines',
-  testRun: 'testRuns',
-  signOff: 'signOffs',
-} as const satisfies Record<RecordEntity, string>
-export type Collection = (typeof RECORD_COLLECTION)[RecordEntity] | 'callEvents' | 'conflicts'
-export const BUNDLE_COLLECTIONS: Collection[] = [...Object.values(RECORD_COLLECTION), 'callEvents', 'conflicts']
+/** Where a record entity lives in a call's bundle (and in a pull's `changes`): the registry's collection. */
+export const RECORD_COLLECTION = RECORD_COLLECTIONS
+/** A call's collections on the device: the registry's records, then the office's timeline and the conflicts. */
+export type Collection = RecordCollection | 'callEvents' | 'conflicts'
+export const BUNDLE_COLLECTIONS: Collection[] = [...RECORD_COLLECTION_NAMES, 'callEvents', 'conflicts']
+
+/** The row type of each collection under a call, with the marks the phone keeps on some. */
+export interface CollectionRows {
+  readings: DeviceRecord<ReadingWire>
+  faultCodes: DeviceRecord<FaultCodeWire>
+  notes: DeviceRecord<NoteWire>
+  /** `thumb`: a small copy kept on the phone only; `uploadedAt`: the server confirmed the bytes. */
+  photos: DeviceRecord<PhotoWire & { thumb: string, uploadedAt: string }>
+  clockEvents: DeviceRecord<ClockEventWire>
+  partLines: DeviceRecord<PartLineWire>
+  testRuns: DeviceRecord<TestRunWire>
+  signOffs: DeviceRecord<SignOffWire>
+  callEvents: DeviceRecord<CallEventWire>
+  /** `pendingChoice`: settled on the phone, the settlement not yet sent. */
+  conflicts: DeviceRecord<ConflictWire & { pendingChoice: 'device' | 'server' | 'value' }>
+}
+export type CallRecord = DeviceRecord<CallWire>
+export type UnitRecord = DeviceRecord<UnitWire>
+export type CustomerRecord = DeviceRecord<CustomerWire>
 
 /** One call as the device keeps it: the call, its unit and customer, its records. */
 export interface CallBundle {
   id: string
-  call: DeviceRow
-  unit: DeviceRow | null
-  customer: DeviceRow | null
-  records: Record<Collection, Record<string, DeviceRow>>
+  call: CallRecord
+  unit: UnitRecord | null
+  customer: CustomerRecord | null
+  records: { [C in Collection]: Record<string, CollectionRows[C]> }
   /** The call was taken away from this mechanic while work on it still waits to sync. */
   revoked?: boolean
 }
 
-export function emptyBundle(call: DeviceRow): CallBundle {
+export function emptyBundle(call: CallRecord): CallBundle {
   const records = Object.fromEntries(BUNDLE_COLLECTIONS.map(c => [c, {}])) as CallBundle['records']
   return { id: call.id, call, unit: null, customer: null, records }
 }

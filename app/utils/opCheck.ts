@@ -1,7 +1,8 @@
-// The device checks every op against the protocol's own schema before it is queued, so the phone
-// never queues what the server would refuse for its shape (and the mechanic hears it while the
-// driver is still there, beside the field, not later in the sync panel).
-import { conflictResolutionSchema, createSchemas, updateSchemas } from '#shared/schemas/sync'
+// The device checks every op against its entity's schema in the registry (shared/sync/entities.ts)
+// before it is queued, so the phone never queues what the server would refuse for its shape (and
+// the mechanic hears it while the driver is still there, beside the field, not later in the sync
+// panel). The server's first stage checks the same schemas again.
+import { isSyncEntity, SYNC_ENTITIES } from '#shared/sync/entities'
 import { describeFieldErrors, fieldErrorsOf } from '#shared/utils/fieldErrors'
 import type { z } from 'zod'
 
@@ -14,15 +15,20 @@ export class OpRefusedError extends Error {
 }
 
 function schemaOf(entity: string, action: 'create' | 'update'): z.ZodType | undefined {
-  if (entity === 'conflictResolution') return action === 'create' ? conflictResolutionSchema : undefined
-  const table: Record<string, z.ZodType> = action === 'create' ? createSchemas : updateSchemas
-  return table[entity]
+  if (!isSyncEntity(entity)) return undefined
+  const def = SYNC_ENTITIES[entity]
+  if (def.kind === 'command') return action === 'create' ? def.command : undefined
+  if (action === 'update') return 'update' in def ? def.update : undefined
+  return def.kind === 'record' ? def.create : undefined
 }
 
 /** The op's changes as the server will read them (codes normalised); throws OpRefusedError. */
 export function checkOp(entity: string, action: 'create' | 'update', changes: Record<string, unknown>): Record<string, unknown> {
   const schema = schemaOf(entity, action)
-  if (!schema) throw new OpRefusedError({ _: `A ${entity} cannot be ${action === 'create' ? 'added' : 'changed'} from the phone` })
+  if (!schema) {
+    const word = isSyncEntity(entity) ? SYNC_ENTITIES[entity].words.one : entity
+    throw new OpRefusedError({ _: `A ${word} cannot be ${action === 'create' ? 'added' : 'changed'} from the phone` })
+  }
   const r = schema.safeParse(changes)
   if (!r.success) throw new OpRefusedError(fieldErrorsOf(r.error))
   return r.data as Record<string, unknown>

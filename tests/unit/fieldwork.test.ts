@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest'
 import {
   faultCodeInputSchema, noteInputSchema, partLineInputSchema, readingInputSchema, signOffInputSchema, verificationInputSchema,
 } from '../../shared/schemas/fieldwork'
-import { createSchemas, SIGNATURE_MAX_CHARS } from '../../shared/schemas/sync'
+import { SIGNATURE_MAX_CHARS } from '../../shared/schemas/sync'
+import { SYNC_ENTITIES } from '../../shared/sync/entities'
 import { fieldErrorsOf } from '../../shared/utils/fieldErrors'
 
 const CALL = '11111111-1111-4111-8111-111111111111'
@@ -52,7 +53,7 @@ describe('the phone forms', () => {
     expect(v.testDriveMinutes).toBeUndefined()
   })
 
-  // The server's own create schemas (shared/schemas/sync.ts) are the outside check here: what a
+  // The server's own create schemas (the registry, shared/sync/entities.ts) are the outside check here: what a
   // form accepts they accept, and what they would refuse the form refuses before it is queued.
   it('refuses on the phone what the server would refuse at sync', () => {
     const price = partLineInputSchema.safeParse({ partNumber: 'X-1', description: 'Jug', quantity: '1', unitPrice: '2000000', corePrice: '' })
@@ -62,17 +63,17 @@ describe('the phone forms', () => {
     const big = `${PNG}${'A'.repeat(SIGNATURE_MAX_CHARS)}`
     expect(fieldErrorsOf(signOffInputSchema.safeParse({ driverName: 'K. Okafor', signature: big }).error!).signature).toBe('The signature image is too large')
     expect(noteInputSchema.safeParse({ text: 'x'.repeat(10_001) }).success).toBe(false)
-    expect(createSchemas.note.safeParse({ callId: CALL, text: 'x'.repeat(10_001) }).success).toBe(false)
+    expect(SYNC_ENTITIES.note.create.safeParse({ callId: CALL, text: 'x'.repeat(10_001) }).success).toBe(false)
   })
 
   it('gives the server a record it accepts for every form', () => {
     const part = partLineInputSchema.parse({ partNumber: 'TR-DEF-10', description: 'DEF jug', quantity: '2,5', unitPrice: '24,00', corePrice: '' })
-    expect(createSchemas.partLine.safeParse({ callId: CALL, ...part }).success).toBe(true)
+    expect(SYNC_ENTITIES.partLine.create.safeParse({ callId: CALL, ...part }).success).toBe(true)
     const reading = readingInputSchema.parse({ label: 'Battery', quantity: 'voltage', value: '12,6', unit: 'V', spec: { min: '12.4', max: '' } })
-    expect(createSchemas.reading.safeParse({ callId: CALL, ...reading }).success).toBe(true)
+    expect(SYNC_ENTITIES.reading.create.safeParse({ callId: CALL, ...reading }).success).toBe(true)
     const code = faultCodeInputSchema.parse({ form: 'j1939', spn: '3242', fmi: '4', state: 'active', count: '' })
-    expect(createSchemas.faultCode.safeParse({ callId: CALL, ...code }).success).toBe(true)
+    expect(SYNC_ENTITIES.faultCode.create.safeParse({ callId: CALL, ...code }).success).toBe(true)
     const signed = signOffInputSchema.parse({ driverName: 'K. Okafor', signature: PNG })
-    expect(createSchemas.signOff.safeParse({ callId: CALL, ...signed }).success).toBe(true)
+    expect(SYNC_ENTITIES.signOff.create.safeParse({ callId: CALL, ...signed }).success).toBe(true)
   })
 })

@@ -32,7 +32,8 @@ describe('ops checked before they are queued', () => {
 
   it('refuses a call field the device may not send and a status that does not exist', async () => {
     const field = useFieldStore()
-    expect(Object.keys(await refused(field.updateCall(CALL_ID, { invoiceNumber: 'X' })))).toEqual(['_'])
+    // The refusal names the field the phone may not send, beside which a form would show it.
+    expect(await refused(field.updateCall(CALL_ID, { invoiceNumber: 'X' }))).toEqual({ invoiceNumber: 'Not a field this takes' })
     expect(await refused(field.updateCall(CALL_ID, { status: 'parked' }))).toEqual({ status: 'Unknown status' })
     expect(await readOutbox()).toEqual([])
     expect((await readBundle(CALL_ID))?.call.status).toBe('assigned')
