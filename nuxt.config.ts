@@ -28,6 +28,10 @@ export default defineNuxtConfig({
     stripeApiHost: '127.0.0.1',
     stripeApiPort: 12111,
     stripeApiProtocol: 'http',
+    // What invoices are in; a card payment in another currency is held, not counted.
+    paymentCurrency: 'usd',
+    // Where payers and fleets reach this server (links in e-mail, QR codes): NUXT_SITE_URL.
+    siteUrl: 'http://127.0.0.1:3000',
     photoMaxBytes: 10 * 1024 * 1024,
     // Photo bytes: a folder for the fs driver here; server/plugins/storage.ts mounts it.
     uploadsDir: '.data/uploads',

@@ -1,5 +1,3 @@
-import type { InvoicePayInput } from '#shared/schemas/invoices'
-
 export const BILLING_READY_KEY = 'billing-ready'
 export const INVOICES_KEY = 'billing-invoices'
 export const invoiceKey = (id: string) => `invoice-${id}`
@@ -14,9 +12,5 @@ export function useBilling() {
     await $fetch(`/api/invoices/${id}/send`, { method: 'POST', body: {} })
     await refreshNuxtData(invoiceKey(id))
   }
-  async function pay(id: string, input: InvoicePayInput) {
-    await $fetch(`/api/invoices/${id}/pay`, { method: 'POST', body: input })
-    await refreshNuxtData(invoiceKey(id))
-  }
-  return { draft, send, pay }
+  return { draft, send }
 }

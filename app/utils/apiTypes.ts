@@ -7,3 +7,4 @@ type Answer<Route extends keyof InternalApi, M extends keyof InternalApi[Route]>
 export type CallRecordView = Answer<'/api/calls/:id', 'get'>
 export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
 export type UnitView = Answer<'/api/units/:id', 'get'>
+export type InvoiceView = Answer<'/api/invoices/:id', 'get'>

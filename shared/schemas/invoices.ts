@@ -13,14 +13,3 @@ export const invoiceListQuerySchema = z.object({
   page: z.coerce.number({ message: 'Page must be a number' }).int().min(1).default(1),
   pageSize: z.coerce.number({ message: 'Page size must be a number' }).int().min(1).max(200).default(50),
 })
-
-/**
- * Taking payment. Card: the payment method id the card reader or saved card gave (the payment
- * service's own reference). Account: charged to the fleet's running account.
- */
-export const invoicePaySchema = z.object({
-  method: z.enum(['card', 'account'], { message: 'Choose card or account' }),
-  paymentMethod: z.string().trim().min(3, 'Enter the payment method reference').max(100).optional(),
-}).refine(v => v.method !== 'card' || !!v.paymentMethod, { message: 'Enter the payment method reference', path: ['paymentMethod'] })
-
-export type InvoicePayInput = z.infer<typeof invoicePaySchema>

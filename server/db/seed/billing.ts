@@ -22,15 +22,19 @@ export async function seedBilling(db: Db) {
     const clock = await db.select().from(t.clockEvents).where(eq(t.clockEvents.callId, callId))
     const parts = await db.select().from(t.partLines).where(eq(t.partLines.callId, callId))
     const { laborMs } = clockTotals(clock.map(c => ({ kind: c.kind, at: c.deviceAt ?? c.createdAt })), call.completedAt ?? new Date())
-    const priced = priceCall({ rates: { ...rates, travelUnit: rates.travelUnit as 'km' | 'mi' }, laborMs, travelDistance: 24, parts, taxExempt: customer.taxExempt })
+    const priced = priceCall({ rates: { ...rates, travelUnit: rates.travelUnit as 'km' | 'mi' }, laborMs, travelDistance: 24, parts,
+      taxExempt: customer.taxExempt })
     await db.insert(t.invoices).values({
       id: invoiceId, callId, customerId: customer.id, status, ratesId: rates.id,
       subtotalCents: priced.subtotalCents, taxCents: priced.taxCents, totalCents: priced.totalCents,
       dueAt: call.invoicedAt, sentAt: call.invoicedAt, paidAt: status === 'paid' ? call.paidAt : null,
+      paidCents: status === 'paid' ? priced.totalCents : 0,
     })
-    await db.insert(t.invoiceLines).values(priced.lines.map((l, i) => ({ ...l, id: seedId(`invoice-line:${key}:${i}`), invoiceId, sort: i })))
+    await db.insert(t.invoiceLines).values(priced.lines.map((l, i) => ({ ...l, id: seedId(`invoice-line:${key}:${i}`), invoiceId,
+      sort: i })))
     if (status === 'paid') {
-      await db.insert(t.payments).values({ id: seedId(`payment:${key}`), invoiceId, method: 'card', amountCents: priced.totalCents, providerRef: `pi_seed_${key}`, status: 'succeeded' })
+      await db.insert(t.payments).values({ id: seedId(`payment:${key}`), invoiceId, method: 'card', amountCents: priced.totalCents,
+        providerRef: `pi_seed_${key}`, status: 'succeeded' })
     }
   }
 }

@@ -12,6 +12,8 @@ export default defineEventHandler(async (event) => {
 
   const pdf = await renderInvoicePdf(invoice)
   const total = formatCents(invoice.totalCents)
+  const due = invoice.money.balanceCents
+  const payLine = due > 0 ? `Pay ${formatCents(due)} by card on our payment page: ${payUrl(await ensurePayToken(invoice.id))}` : null
   await sendMail({
     to, kind: 'invoice', relatedId: invoice.id,
     subject: `Invoice W-${invoice.number} from Two Rivers Road Service, call #${invoice.call.number}`,
@@ -19,6 +21,7 @@ export default defineEventHandler(async (event) => {
       `Hello ${invoice.customer.name},`, '',
       `Attached is invoice W-${invoice.number} for road call #${invoice.call.number}${invoice.call.poNumber ? ` (PO ${invoice.call.poNumber})` : ''}: ${invoice.call.locationText}.`,
       `Total ${total}${invoice.customer.billingTerms === 'account' ? `, due within ${invoice.customer.netDays ?? 30} days on your account.` : '.'}`,
+      ...(payLine ? ['', payLine] : []),
       '', 'Thank you,', 'Two Rivers Road Service',
     ].join('\n'),
     attachments: [{ filename: `invoice-W-${invoice.number}.pdf`, content: pdf, contentType: 'application/pdf' }],
