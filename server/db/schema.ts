@@ -566,17 +566,34 @@ export const conflicts = pgTable('conflicts', {
   check('conflicts_choice', sql`${t.choice} IS NULL OR ${t.choice} IN ('device', 'server', 'value')`),
 ])
 
+/**
+ * Every e-mail Wayside sends, one row per message: queued with its content, worked by a job
+ * (server/utils/mail.ts), and marked sent or failed with the reason. `messageId` is fixed when
+ * queued, so a retry resends the same message, never a new one.
+ */
 export const mailLog = pgTable('mail_log', {
   id: uuid('id').primaryKey().defaultRandom(),
   kind: text('kind').notNull(),
   toAddress: text('to_address').notNull(),
   subject: text('subject').notNull(),
   relatedId: uuid('related_id'),
+  relatedType: text('related_type'),
   messageId: text('message_id'),
+  /** `queued`, `sending`, `retrying`, `sent` or `failed`. */
   status: text('status').notNull(),
   error: text('error'),
-  sentAt: ts('sent_at').notNull().defaultNow(),
-})
+  /** The text, HTML and attachment recipes the job sends (attachments are made at sending). */
+  body: jsonb('body'),
+  attempts: integer('attempts').notNull().default(0),
+  queuedAt: ts('queued_at').notNull().defaultNow(),
+  lastAttemptAt: ts('last_attempt_at'),
+  sentAt: ts('sent_at'),
+  queuedBy: uuid('queued_by').references(() => users.id),
+}, t => [
+  index('mail_log_related_idx').on(t.relatedId),
+  uniqueIndex('mail_log_message_id_unique').on(t.messageId),
+  check('mail_log_status', sql`${t.status} IN ('queued', 'sending', 'retrying', 'sent', 'failed')`),
+])
 
 // ── Relations ─────────────────────────────────────────────────────────────────────────────
 export const callsRelations = relations(calls, ({ one, many }) => ({

@@ -105,15 +105,18 @@ export async function updateCall(id: string, patch: z.output<typeof callPatchSch
     if (isLockedStatus(call.status)) ruleError('status', 'A billed call takes no more changes')
     const customerId = changes.customerId ?? call.customerId
     if (changes.customerId && changes.customerId !== call.customerId) {
-      if (!(await tx.query.customers.findFirst({ where: eq(tables.customers.id, changes.customerId), columns: { id: true } }))) ruleError('customerId', 'No such customer')
+      if (!(await tx.query.customers.findFirst({ where: eq(tables.customers.id, changes.customerId),
+        columns: { id: true } }))) ruleError('customerId', 'No such customer')
     }
     const unitId = changes.unitId === undefined ? call.unitId : changes.unitId
     if (unitId && !(await unitBelongsTo(tx, unitId, customerId))) ruleError('unitId', 'This unit is not one of the customer\'s')
     const changed = CALL_EDIT_FIELDS.filter(f => f in changes && JSON.stringify(changes[f as keyof typeof changes]) !== JSON.stringify(call[f]))
     if (!changed.length) return call
-    const [row] = await tx.update(tables.calls).set(changes).where(and(eq(tables.calls.id, id), eq(tables.calls.version, version))).returning()
+    const [row] = await tx.update(tables.calls).set(changes).where(and(eq(tables.calls.id, id), eq(tables.calls.version,
+      version))).returning()
     if (!row) return 'stale' as const
-    await tx.insert(tables.callEvents).values({ callId: id, kind: 'edited', byUserId: user.id, note: `Changed ${changed.map(f => FIELD_WORDS[f]).join(', ')}` })
+    await tx.insert(tables.callEvents).values({ callId: id, kind: 'edited', byUserId: user.id,
+      note: `Changed ${changed.map(f => FIELD_WORDS[f]).join(', ')}` })
     return row
   })
 }
@@ -127,9 +130,11 @@ export async function cancelCall(id: string, input: z.output<typeof callCancelSc
       ruleError('reason', `A call that is ${STATUS_LABELS[call.status].toLowerCase()} cannot be cancelled`)
     }
     const now = new Date()
-    const [row] = await tx.update(tables.calls).set({ status: 'cancelled', cancelReason: input.reason, cancelledAt: now, statusChangedAt: now })
+    const [row] = await tx.update(tables.calls).set({ status: 'cancelled', cancelReason: input.reason, cancelledAt: now,
+      statusChangedAt: now })
       .where(eq(tables.calls.id, id)).returning()
-    await tx.insert(tables.callEvents).values({ callId: id, kind: 'status', fromStatus: call.status, toStatus: 'cancelled', mechanicId: call.mechanicId, byUserId: user.id, note: input.reason, at: now })
+    await tx.insert(tables.callEvents).values({ callId: id, kind: 'status', fromStatus: call.status, toStatus: 'cancelled',
+      mechanicId: call.mechanicId, byUserId: user.id, note: input.reason, at: now })
     return row!
   })
 }
@@ -161,7 +166,7 @@ export async function suggestionsFor(call: CallRow) {
 /** The mechanic's notice of a new call: who, what, where, and the scene cautions. */
 export async function mailAssignment(callId: string) {
   const rec = await getCallRecord(callId)
-  if (!rec?.mechanic) return { sent: false, reason: 'no mechanic' }
+  if (!rec?.mechanic) return { queued: false, reason: 'no mechanic' }
   const u = rec.unit
   const lamps = rec.lamps.map(l => (LAMP_LABELS as Record<string, string>)[l] ?? l).join(', ')
   const lines = [
@@ -184,16 +189,16 @@ export async function mailAssignment(callId: string) {
     'Open the call in Wayside on your phone (My calls) once it has synced.',
   ].filter((l): l is string => l !== null)
   const subject = `Call #${rec.number}: ${rec.customer.name}${u ? `, unit ${u.unitNumber}` : ''} at ${rec.locationText}`.slice(0, 200)
-  await sendMail({ to: rec.mechanic.email, subject, text: lines.join('\n'), kind: 'call_assigned', relatedId: rec.id })
-  return { sent: true }
+  await queueMail({ to: rec.mechanic.email, subject, text: lines.join('\n'), kind: 'call_assigned', related: { type: 'call', id: rec.id } })
+  return { queued: true }
 }
 
-/** After commit: the mail is a notice, so a failure is reported in the answer, not rolled back. */
-export async function mailAssignmentSafely(callId: string) {
+/** After commit: the mail is queued (a job sends it); a queue that cannot be reached is reported, not rolled back. */
+export async function mailAssignmentSafely(callId: string): Promise<{ queued: boolean, reason?: string }> {
   try { return await mailAssignment(callId) }
   catch (err) {
-    console.error('[dispatch] assignment mail failed', (err as Error).message)
-    return { sent: false, reason: 'The mail server did not take the message; phone the mechanic' }
+    console.error('[dispatch] assignment mail not queued', (err as Error).message)
+    return { queued: false, reason: 'The e-mail could not be queued; phone the mechanic' }
   }
 }
 
@@ -201,17 +206,18 @@ export async function mailAssignmentSafely(callId: string) {
 export async function mailCancellationSafely(callId: string) {
   try {
     const rec = await getCallRecord(callId)
-    if (!rec?.mechanic) return { sent: false }
-    await sendMail({
+    if (!rec?.mechanic) return { queued: false }
+    await queueMail({
       to: rec.mechanic.email,
       subject: `Call #${rec.number} cancelled: ${rec.customer.name}`.slice(0, 200),
-      text: [`Call #${rec.number} (${rec.customer.name}, ${rec.locationText}) is cancelled.`, `Reason: ${rec.cancelReason ?? 'not given'}`, '', 'No need to drive out for it.'].join('\n'),
-      kind: 'call_cancelled', relatedId: rec.id,
+      text: [`Call #${rec.number} (${rec.customer.name}, ${rec.locationText}) is cancelled.`,
+        `Reason: ${rec.cancelReason ?? 'not given'}`, '', 'No need to drive out for it.'].join('\n'),
+      kind: 'call_cancelled', related: { type: 'call', id: rec.id },
     })
-    return { sent: true }
+    return { queued: true }
   }
   catch (err) {
-    console.error('[dispatch] cancellation mail failed', (err as Error).message)
-    return { sent: false }
+    console.error('[dispatch] cancellation mail not queued', (err as Error).message)
+    return { queued: false }
   }
 }

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/api'
 import { count, closeTestPool, testPool } from '../support/db'
 import { BASE_URL, DEMO } from '../support/env'
-import { caughtMail, clearMail, waitForMail } from '../support/mail'
+import { caughtMail, clearMail, recoverMail, stallMail, waitForMail } from '../support/mail'
 
 // Each test bills a call of its own making, so no other test's seeded calls are touched.
 type TestPart = { pn: string, qty: number, price: number, core: number }
@@ -383,5 +383,86 @@ describe('refunds and credit notes', () => {
     expect(bad.status).toBe(400)
     expect(Object.keys(bad.body.data.fields).sort()).toEqual(['lines', 'reason'])
     expect(await count('credit_notes', 'invoice_id = ANY($1)', [[draft.id, inv.id]])).toBe(0)
+  })
+})
+
+describe('mail as durable jobs', () => {
+  async function mailRow(relatedId: string) {
+    return (await testPool().query('SELECT * FROM mail_log WHERE related_id = $1 ORDER BY queued_at DESC LIMIT 1', [relatedId])).rows[0]
+  }
+  async function until<T>(read: () => Promise<T>, ok: (v: T) => boolean, ms = 60_000) {
+    const end = Date.now() + ms
+    let v = await read()
+    while (!ok(v) && Date.now() < end) {
+      await new Promise(r => setTimeout(r, 250))
+      v = await read()
+    }
+    return v
+  }
+
+  it('a stalled mail server never holds a request; the message shows why it waits and goes once, when the server recovers', async () => {
+    const callId = await finishedCall('Ironwood Freight Lines', { laborMin: 30 })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    await clearMail()
+    await stallMail()
+    try {
+      const sent = await office.post(`/api/invoices/${inv.id}/send`)
+      // Answered while the mail server still says nothing: the request never waited on it.
+      expect(sent.status).toBe(200)
+      expect(sent.body).toMatchObject({ status: 'sent', mail: { id: expect.any(String) } })
+      expect((await mailRow(inv.id)).status).not.toBe('sent')
+      const waiting = await until(() => mailRow(inv.id), m => m.status === 'retrying')
+      expect(waiting.status).toBe('retrying')
+      expect(waiting.error).toMatch(/did not answer in time/)
+      const shown = (await office.get(`/api/mail?relatedId=${inv.id}`)).body.items[0]
+      expect(shown).toMatchObject({ kind: 'invoice', status: 'retrying', canSendAgain: true, error: expect.stringMatching(/in time/) })
+      // Send again while retries wait, three times at once: still one message in the end.
+      const again = await Promise.all([1, 2, 3].map(() => office.post(`/api/mail/${shown.id}/send-again`)))
+      expect(again.every(a => a.status === 200 || a.status === 422)).toBe(true)
+    }
+    finally {
+      await recoverMail()
+    }
+    const got = await waitForMail(m => m.subject.includes(`W-${inv.number}`), 60_000)
+    expect(got).toHaveLength(1)
+    expect(got[0]!.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf' })])
+    const done = await until(() => mailRow(inv.id), m => m.status === 'sent')
+    expect(done).toMatchObject({ status: 'sent', error: null })
+    expect(done.attempts).toBeGreaterThanOrEqual(2)
+    // Jobs still waiting for that message find it sent and send nothing more.
+    await new Promise(r => setTimeout(r, 4000))
+    expect((await caughtMail()).filter(m => m.subject.includes(`W-${inv.number}`))).toHaveLength(1)
+    expect((await office.post(`/api/mail/${done.id}/send-again`)).status).toBe(422)
+  })
+
+  it('a dispatcher\'s assignment answers at once while the mail server hangs, and the mechanic gets one e-mail after', async () => {
+    const dispatcher = await signedIn(DEMO.dispatcher)
+    const { rows: [c] } = await testPool().query(`SELECT id FROM customers WHERE name = 'Bluestem Aggregate Co.'`)
+    const { rows: [mech2] } = await testPool().query('SELECT id FROM users WHERE email = $1', [DEMO.mech2])
+    const call = (await dispatcher.post('/api/calls', { customerId: c.id, locationText: 'Quarry road, mile 3',
+      complaint: 'Air leak at the trailer' })).body
+    expect(call.number).toBeTruthy()
+    await clearMail()
+    await stallMail()
+    try {
+      const r = await dispatcher.post(`/api/calls/${call.id}/assign`, { mechanicId: mech2.id })
+      expect(r.status).toBe(200)
+      expect(r.body.mail).toEqual({ queued: true })
+      expect((await dispatcher.get(`/api/mail?relatedId=${call.id}`)).body.items[0]).toMatchObject({ kind: 'call_assigned' })
+      expect((await dispatcher.get(`/api/mail?relatedId=${call.id}`)).body.items[0].status).not.toBe('sent')
+    }
+    finally {
+      await recoverMail()
+    }
+    expect(await waitForMail(m => m.subject.includes(`#${call.number}`), 60_000)).toHaveLength(1)
+  })
+
+  it('shows invoice mail to the office only, and refuses bad ids', async () => {
+    const dispatcher = await signedIn(DEMO.dispatcher)
+    const { rows: [m] } = await testPool().query(`SELECT related_id FROM mail_log WHERE related_type = 'invoice' LIMIT 1`)
+    expect((await dispatcher.get(`/api/mail?relatedId=${m.related_id}`)).status).toBe(403)
+    expect((await (await signedIn(DEMO.mech1)).get(`/api/mail?relatedId=${m.related_id}`)).status).toBe(403)
+    expect((await office.get('/api/mail?relatedId=nope')).status).toBe(400)
+    expect((await office.post('/api/mail/nope/send-again')).status).toBe(400)
   })
 })

@@ -13,7 +13,8 @@ test('the office bills a finished call: draft, e-mail, post to the fleet account
   await page.screenshot({ path: 'tests/e2e/screenshots/billing-invoice-1280.png', fullPage: true })
 
   await page.getByRole('button', { name: 'Send by e-mail' }).click()
-  await expect(page.getByText('Sent to payables@ironwood-freight.test')).toBeVisible()
+  await expect(page.getByText('On its way to payables@ironwood-freight.test')).toBeVisible()
+  await expect(page.getByRole('region', { name: 'E-mail' }).getByText('Sent', { exact: true })).toBeVisible({ timeout: 20_000 })
   await page.getByRole('button', { name: 'Post to account' }).click()
   await expect(page.getByText(/charge to the fleet's account on/)).toBeVisible()
   await expect(page.getByRole('region', { name: 'Money on this invoice' }).getByText('Paid', { exact: true })).toBeVisible()
