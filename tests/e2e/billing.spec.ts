@@ -22,7 +22,7 @@ test('the office bills a finished call: draft, e-mail, post to the fleet account
 
 test('a card customer pays on the hosted page: the mechanic shows the QR code, the payer pays, the invoice shows paid',
   async ({ browser }) => {
-    test.setTimeout(120_000)
+    test.setTimeout(240_000)
     const invoiceId = seedId('invoice:c7')
     const callId = seedId('call:c7')
 
