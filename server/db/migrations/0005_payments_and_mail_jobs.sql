@@ -58,9 +58,17 @@ CREATE TABLE "refunds" (
 	CONSTRAINT "refunds_amount_pos" CHECK ("refunds"."amount_cents" > 0)
 );
 --> statement-breakpoint
+ALTER TABLE "mail_log" ALTER COLUMN "sent_at" DROP DEFAULT;--> statement-breakpoint
+ALTER TABLE "mail_log" ALTER COLUMN "sent_at" DROP NOT NULL;--> statement-breakpoint
 ALTER TABLE "invoices" ADD COLUMN "paid_cents" integer DEFAULT 0 NOT NULL;--> statement-breakpoint
 ALTER TABLE "invoices" ADD COLUMN "credited_cents" integer DEFAULT 0 NOT NULL;--> statement-breakpoint
 ALTER TABLE "invoices" ADD COLUMN "pay_token" text;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD COLUMN "related_type" text;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD COLUMN "body" jsonb;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD COLUMN "attempts" integer DEFAULT 0 NOT NULL;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD COLUMN "queued_at" timestamp with time zone DEFAULT now() NOT NULL;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD COLUMN "last_attempt_at" timestamp with time zone;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD COLUMN "queued_by" uuid;--> statement-breakpoint
 ALTER TABLE "payments" ADD COLUMN "currency" text DEFAULT 'usd' NOT NULL;--> statement-breakpoint
 ALTER TABLE "payments" ADD COLUMN "reference" text;--> statement-breakpoint
 ALTER TABLE "payments" ADD COLUMN "received_on" date;--> statement-breakpoint
@@ -82,7 +90,11 @@ CREATE INDEX "credit_notes_invoice_idx" ON "credit_notes" USING btree ("invoice_
 CREATE UNIQUE INDEX "refunds_provider_ref_unique" ON "refunds" USING btree ("provider_ref");--> statement-breakpoint
 CREATE UNIQUE INDEX "refunds_idempotency_unique" ON "refunds" USING btree ("idempotency_key");--> statement-breakpoint
 CREATE INDEX "refunds_invoice_idx" ON "refunds" USING btree ("invoice_id");--> statement-breakpoint
+ALTER TABLE "mail_log" ADD CONSTRAINT "mail_log_queued_by_users_id_fk" FOREIGN KEY ("queued_by") REFERENCES "public"."users"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "payments" ADD CONSTRAINT "payments_by_user_id_users_id_fk" FOREIGN KEY ("by_user_id") REFERENCES "public"."users"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 CREATE UNIQUE INDEX "invoices_pay_token_unique" ON "invoices" USING btree ("pay_token");--> statement-breakpoint
+CREATE INDEX "mail_log_related_idx" ON "mail_log" USING btree ("related_id");--> statement-breakpoint
+CREATE UNIQUE INDEX "mail_log_message_id_unique" ON "mail_log" USING btree ("message_id");--> statement-breakpoint
 CREATE UNIQUE INDEX "payments_idempotency_unique" ON "payments" USING btree ("idempotency_key");--> statement-breakpoint
-CREATE UNIQUE INDEX "payments_reference_unique" ON "payments" USING btree ("invoice_id","method",lower("reference")) WHERE "payments"."reference" IS NOT NULL;
+CREATE UNIQUE INDEX "payments_reference_unique" ON "payments" USING btree ("invoice_id","method",lower("reference")) WHERE "payments"."reference" IS NOT NULL;--> statement-breakpoint
+ALTER TABLE "mail_log" ADD CONSTRAINT "mail_log_status" CHECK ("mail_log"."status" IN ('queued', 'sending', 'retrying', 'sent', 'failed'));
