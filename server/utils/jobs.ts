@@ -21,10 +21,28 @@ export function jobDbOf(tx: Tx): PgBoss.Db {
   return { executeSql: (text, values) => client.query(text, values) }
 }
 
+/** A start that failed half-way keeps its pool and will not start again: close it, and make a fresh client next time. */
+async function dropBoss(b: PgBoss) {
+  if (boss === b) boss = undefined
+  await b.stop({ graceful: false, wait: true }).catch(() => undefined)
+  const db = b.getDb() as PgBoss.Db & { opened?: boolean, close?: () => Promise<void> }
+  if (db.opened) await db.close?.().catch(() => undefined)
+}
+
 /** Installs the queue schema, creates the queues and, unless turned off, works them here. */
 export async function startJobs() {
-  const c = useRuntimeConfig()
   const b = useBoss()
+  try {
+    await setUp(b)
+  }
+  catch (err) {
+    await dropBoss(b)
+    throw err
+  }
+}
+
+async function setUp(b: PgBoss) {
+  const c = useRuntimeConfig()
   await b.start()
   const retry = { retryLimit: Number(c.mailRetryLimit), retryDelay: Number(c.mailRetryDelaySeconds), retryBackoff: true }
   // Longer than an attempt can take with the SMTP timeouts, so a live attempt is never taken twice.

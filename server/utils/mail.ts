@@ -42,18 +42,41 @@ type MailBody = { text: string, html?: string, attachments?: MailAttachmentRecip
 
 export const MAIL_QUEUE = 'mail'
 
-/** Queues one message; pass the caller's transaction so the message exists only if the work does. */
-export async function queueMail(mail: MailRequest, tx?: Tx): Promise<{ id: string, messageId: string }> {
-  if (!tx) return useDb().transaction(t => queueMail(mail, t))
+/** Writes the message's row; its Message-ID is fixed here, so every attempt sends the same message. */
+async function logMail(tx: Db | Tx, mail: MailRequest, status: 'queued' | 'failed', error: string | null = null) {
   const id = randomUUID()
   const messageId = `<${id}@${useRuntimeConfig().mailIdDomain}>`
   const body: MailBody = { text: mail.text, html: mail.html, attachments: mail.attachments }
   await tx.insert(tables.mailLog).values({
     id, kind: mail.kind, toAddress: mail.to, subject: mail.subject, relatedId: mail.related?.id, relatedType: mail.related?.type,
-    messageId, status: 'queued', body, queuedBy: mail.queuedBy?.id,
+    messageId, status, error, body, queuedBy: mail.queuedBy?.id,
   })
-  await sendJob(tx, id)
   return { id, messageId }
+}
+
+/** Queues one message; pass the caller's transaction so the message exists only if the work does. */
+export async function queueMail(mail: MailRequest, tx?: Tx): Promise<{ id: string, messageId: string }> {
+  if (!tx) return useDb().transaction(t => queueMail(mail, t))
+  const logged = await logMail(tx, mail, 'queued')
+  await sendJob(tx, logged.id)
+  return logged
+}
+
+/**
+ * Queues a notice inside the caller's transaction, so it commits with the work it tells of. When the
+ * queue cannot take it (its tables not installed yet, say), only the queueing is undone, at a savepoint:
+ * the work still commits, and the message is kept as not sent, with the reason and "Send again".
+ */
+export async function queueNotice(mail: MailRequest, tx: Tx): Promise<{ queued: boolean, reason?: string }> {
+  try {
+    await tx.transaction(savepoint => queueMail(mail, savepoint))
+    return { queued: true }
+  }
+  catch (err) {
+    console.error(`[mail] ${mail.kind} not queued:`, (err as Error).message)
+    await logMail(tx, mail, 'failed', `The mail queue did not take the message (${(err as Error).message})`)
+    return { queued: false, reason: 'The e-mail could not be queued; phone the mechanic, or use Send again on the call' }
+  }
 }
 
 async function sendJob(tx: Tx, mailId: string) {
