@@ -104,3 +104,58 @@ test('a card customer pays on the hosted page: the mechanic shows the QR code, t
     await expect(office.getByText(/card \(payment page\) on/)).toBeVisible()
     await office.screenshot({ path: 'tests/e2e/screenshots/billing-invoice-paid-by-card-1280.png', fullPage: true })
   })
+
+test('the office records a check for part, issues a credit note, gives money back, and the PDF lists each', async ({ page }) => {
+  mkdirSync(SHOTS, { recursive: true })
+  mkdirSync('test-results', { recursive: true })
+  await signIn(page, 'office@wayside.test')
+  const desk = page.getByRole('table', { name: /waiting to be billed/ })
+  await desk.getByRole('row').filter({ hasText: 'Prairie Cold Haul' }).getByRole('button', { name: 'Draft invoice' }).first().click()
+  await expect(page).toHaveURL(/\/billing\/invoices\//)
+  await page.getByRole('button', { name: 'Send by e-mail' }).click()
+  await page.getByRole('dialog').getByRole('button', { name: 'Send to ap@prairiecold.test' }).click()
+  await expect(page.getByText('On its way to ap@prairiecold.test')).toBeVisible()
+  const money = page.getByRole('region', { name: 'Money on this invoice' })
+  const dueText = async () => (await money.locator('dd').last().textContent())!.trim()
+  const cents = (s: string) => Math.round(Number(s.replace(/[^\d.-]/g, '')) * 100)
+  const total = cents(await dueText())
+
+  // A check for part of it: the reference is asked for, then the rest shows as still due.
+  await page.getByLabel('Amount', { exact: true }).fill('100.00')
+  await page.getByRole('button', { name: 'Record payment' }).click()
+  await expect(page.getByText('Enter the check number')).toBeVisible()
+  await page.getByLabel('Check number').fill('CK 5521')
+  await page.getByRole('button', { name: 'Record payment' }).click()
+  await expect(page.getByRole('status').filter({ hasText: 'Check recorded.' })).toBeVisible()
+  await expect(money.getByText('Partly paid')).toBeVisible()
+  expect(cents(await dueText())).toBe(total - 10000)
+
+  // A credit note takes $10.00 of travel off.
+  await page.getByRole('button', { name: 'Issue a credit note…' }).click()
+  await page.getByLabel('What it corrects').fill('Travel billed twice')
+  await page.getByLabel('Line 1 description').fill('Travel, second leg')
+  await page.getByLabel('Line 1 amount').fill('10.00')
+  await page.getByRole('button', { name: 'Issue credit note' }).click()
+  await expect(page.getByText(/Credit note CN-\d+/)).toBeVisible()
+  expect(cents(await dueText())).toBe(total - 10000 - 1000)
+
+  // $5.00 of the check given back at the counter.
+  await page.getByRole('button', { name: 'Refund…' }).click()
+  await page.getByLabel('Amount to refund').fill('5.00')
+  await page.getByLabel('Why').fill('Cash back at the counter')
+  await page.getByRole('button', { name: 'Refund', exact: true }).click()
+  await expect(page.getByText(/Refunded \$5\.00 on .*: Cash back at the counter/)).toBeVisible()
+  expect(cents(await dueText())).toBe(total - 10000 - 1000 + 500)
+  await page.screenshot({ path: `${SHOTS}/billing-invoice-payments-1280.png`, fullPage: true })
+
+  // The PDF the fleet gets lists the check, the credit note and the refund under the totals.
+  const pdf = await page.request.get(`${page.url().replace(/\/billing\/invoices\//, '/api/invoices/')}/pdf`)
+  writeFileSync('test-results/invoice-payments.pdf', await pdf.body())
+  execFileSync('pdftoppm', ['-png', '-r', '80', '-singlefile', '-f', '1', '-l', '1', 'test-results/invoice-payments.pdf',
+    `${SHOTS}/invoice-pdf-payments-page1`])
+  const text = execFileSync('pdftotext', ['-layout', 'test-results/invoice-payments.pdf', '-']).toString()
+  expect(text).toContain('Payments and credits')
+  expect(text).toMatch(/Paid by check CK 5521/)
+  expect(text).toMatch(/Refunded, .*Cash back at the counter/)
+  expect(text).toMatch(/Balance due/)
+})
