@@ -51,7 +51,9 @@ describe('customers', () => {
     const names = [...p1.body.items, ...p2.body.items].map((c: any) => c.name)
     expect(names).toEqual([...names].sort((a, b) => a.localeCompare(b)))
     const ironwood = (await dispatcher.get('/api/customers?q=Ironwood')).body.items[0]
-    expect(ironwood.unitCount).toBe(5)
+    // Other test files add units of their own to Ironwood (the invoice PDF test does): compare with the table.
+    expect(ironwood.unitCount).toBe(await count('units', 'customer_id = $1', [ironwood.id]))
+    expect(ironwood.unitCount).toBeGreaterThanOrEqual(5) // the five seeded units
     expect(ironwood.openCalls).toBeGreaterThanOrEqual(2)
     expect((await dispatcher.get('/api/customers?sort=bogus')).status).toBe(400)
   })
