@@ -37,7 +37,7 @@ test('the exhaust-temperature card runs offline to "Replace sensor", then syncs 
   await expect(page.getByText(/exhaust pipes, the DPF/i)).toBeVisible()
   // The scene comes first: the checklist is at hand before the card's own cautions.
   await page.getByText(/Scene checklist: \d of 7 done/).click()
-  await expect(page.getByTestId('device-plan')).toContainText('3 m (10 ft)')
+  await expect(page.getByTestId('warning-devices')).toContainText('3 m (10 ft)')
   await page.getByLabel(/Hazard flashers on/).check()
   await page.getByLabel(/Warning triangles placed/).check()
   await page.getByRole('button', { name: /Save checklist/ }).click()
