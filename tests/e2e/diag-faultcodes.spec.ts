@@ -56,7 +56,8 @@ test('a DM1 message pasted on the phone becomes the call\'s fault codes', async 
   const list = codes.getByRole('list', { name: 'Fault codes recorded' })
   await expect(list.getByRole('article', { name: 'Fault code SPN 100 FMI 1' })).toBeVisible()
   await expect(list.getByRole('article', { name: 'Fault code SPN 3226 FMI 4' })).toContainText('seen 2×')
-  await page.screenshot({ path: 'tests/e2e/screenshots/diag-dm1-added-360.png', fullPage: true })
+  await codes.getByRole('button', { name: 'Done' }).click()
+  await codes.screenshot({ path: 'tests/e2e/screenshots/diag-dm1-added-360.png' })
 
   // Synced as the truck sent them.
   await expect.poll(async () => (await testPool().query(
