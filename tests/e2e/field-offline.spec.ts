@@ -82,10 +82,10 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
 
   // A fault code, decoded as typed.
   await page.getByRole('button', { name: 'Add a fault code' }).click()
-  await page.getByLabel('SPN').fill('110')
-  await page.getByLabel('FMI').fill('0')
-  await expect(page.getByTestId('code-preview')).toContainText('Engine coolant temperature')
-  await page.getByLabel('Count').fill('2')
+  await page.getByLabel('SPN', { exact: true }).fill('110')
+  await page.getByLabel('FMI', { exact: true }).selectOption('0')
+  await expect(page.getByTestId('fault-decoded')).toContainText('Engine coolant temperature')
+  await page.getByLabel('Times seen').fill('2')
   await page.getByRole('button', { name: 'Add fault code' }).click()
   await expect(page.getByRole('list', { name: 'Fault codes recorded' })).toContainText('SPN 110 FMI 0')
 
