@@ -135,9 +135,12 @@ describe('the seeded library: how the code failed picks the card', () => {
   })
 
   it('J2012 families by range', () => {
-    // SAE J2012 exhaust gas temperature sensor circuit families (from memory, as the cards list them)
+    // SAE J2012 code families as the python-OBD and OBDIICodes lists title them (REFERENCES.md §4): P0545 EGT circuit low,
+    // P2031–P2036 EGT sensor 2 circuits, P2080–P2087 EGT range/performance; P0118 coolant temperature circuit high;
+    // P2428 exhaust gas temperature too high (from memory)
     expect(slugs([{ code: 'P0545' }])).toEqual(['egt-rtd-sensor'])
     expect(slugs([{ code: 'P2033' }])).toEqual(['egt-rtd-sensor'])
+    expect(slugs([{ code: 'P2087' }])).toEqual(['egt-rtd-sensor'])
     expect(slugs([{ code: 'P2428' }])).toEqual(['aftertreatment-overtemp'])
     expect(slugs([{ code: 'P0118' }])).toEqual(['coolant-temp-ntc'])
   })

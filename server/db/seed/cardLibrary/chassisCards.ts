@@ -108,7 +108,7 @@ export const AIR_BRAKE_CARD: CardDefinitionInput = {
   summary: 'The air-brake check of the model commercial driver’s manual, with the leak rate worked out from the gauge and the time: '
     + 'build-up, governor, leakage released and applied, '
     + 'low-air warning and spring-brake application.',
-  // SPN 117 and 118 brake primary and secondary pressure (from memory).
+  // SPN 117 and 118 brake primary and secondary pressure (SPN names, REFERENCES.md §4).
   codePatterns: ['SPN 117 FMI condition', 'SPN 118 FMI condition'],
   cautions: [AIR_BRAKES, TRAFFIC, RUNNING, DEFER],
   tools: ['Dash gauges or a calibrated test gauge', 'Watch with seconds', 'Wheel chocks', 'Soapy water'],

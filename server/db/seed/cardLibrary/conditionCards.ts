@@ -12,8 +12,7 @@ export const ENGINE_OVERTEMP_CARD: CardDefinitionInput = {
   kind: 'condition',
   summary: 'For data-valid coolant temperature and level codes: the engine really is hot. Confirms it with a thermometer, then works '
     + 'through level, cap, fan, airflow, thermostat and flow.',
-  // SPN 110 engine coolant temperature (REFERENCES.md §4), SPN 111 coolant level (from memory); P0217 engine over temperature
-  // (from memory).
+  // SPN 110 engine coolant temperature, SPN 111 coolant level, P0217 engine coolant over temperature (REFERENCES.md §4).
   codePatterns: [...condition([110, 111]), 'P0217'],
   cautions: [
     HOT_COOLANT,
@@ -142,7 +141,8 @@ export const AFTERTREATMENT_OVERTEMP_CARD: CardDefinitionInput = {
   kind: 'condition',
   summary: 'For data-valid exhaust temperature codes: the exhaust really is too hot. Checks the sensors agree at rest, then oil or coolant '
     + 'in the exhaust, the doser, and the DOC in a parked regeneration.',
-  // SPN 3241, 3242, 3246, 4765, 4766 exhaust gas temperatures (from memory); P2428–P2429 exhaust gas temperature too high (from memory).
+  // SPN 3241, 3242, 3246, 4765, 4766 exhaust temperatures (REFERENCES.md §4); P2428–P2429 exhaust gas temperature too high
+  // (from memory).
   codePatterns: [...condition([3241, 3242, 3246, 4765, 4766]), 'P2428-P2429'],
   cautions: [HOT_EXHAUST, PARKED_REGEN, FUEL_PRESSURE, RUNNING, TRAFFIC, DEFER],
   tools: [
@@ -226,7 +226,7 @@ export const DEF_CARD: CardDefinitionInput = {
   summary: 'For data-valid DEF quality codes: the fluid itself. A look, hydrocarbon strips and a coolant check, then the concentration '
     + 'against ISO 22241 (31.8–33.2 %), '
     + 'with a second sample when the first reads just outside, before anything is drained.',
-  // SPN 3516 DEF concentration, SPN 3364 DEF quality (from memory); P207F reductant quality performance (from memory).
+  // SPN 3516 DEF concentration, SPN 3364 DEF tank quality (REFERENCES.md §4); P207F reductant quality performance (from memory).
   codePatterns: [...condition([3516, 3364]), 'P207F'],
   cautions: [DEF_SPLASH, HOT_EXHAUST, 'Keep the sample clean: dirt in a DEF tank can ruin the dosing system.', DEFER],
   tools: [

@@ -9,7 +9,7 @@ export const BATTERY_CARD: CardDefinitionInput = {
   summary: 'For data-valid low-voltage codes and no-crank calls: each battery read on its own (a pack in parallel hides a bad one), its '
     + 'state of charge from the resting voltage, '
     + 'then a load or conductance test at its temperature. 12 V and 24 V systems alike: each 12 V battery is tested alone.',
-  // SPN 168 battery potential, SPN 158 key-switch battery potential (from memory); P0560–P0563 system voltage (from memory).
+  // SPN 168 battery potential, SPN 158 key switch battery potential, P0560–P0563 system voltage (REFERENCES.md §4).
   codePatterns: ['SPN 168 FMI condition', 'SPN 158 FMI condition', 'P0560-P0563'],
   cautions: [
     BATTERY,
@@ -102,7 +102,7 @@ export const CRANKING_CHARGING_CARD: CardDefinitionInput = {
   summary: 'With good batteries: cranking voltage, the drop across the cranking cables at cranking load, then the charging voltage, the '
     + 'alternator’s current and its ripple '
     + 'before the alternator is condemned. 12 V and 24 V systems.',
-  // SPN 167 charging system potential (from memory); P0620–P0622 generator control and field circuits (from memory).
+  // SPN 167 charging system potential, P0620–P0622 generator control, lamp and field circuits (REFERENCES.md §4).
   codePatterns: ['SPN 167 FMI condition', 'SPN 167 FMI circuit', 'P0620-P0622'],
   cautions: [
     BATTERY,
@@ -224,7 +224,8 @@ export const NOX_CARD: CardDefinitionInput = {
   summary: 'For circuit, signal and network codes of a NOx sensor with its own module on the CAN bus: power and ground under load, the bus '
     + 'resistance key off and '
     + 'its resting voltages, before the sensor is condemned.',
-  // SPN 3216 intake NOx, SPN 3226 outlet NOx (from memory); U029D–U029E lost communication with NOx sensors (from memory).
+  // SPN 3216 SCR intake NOx, SPN 3226 outlet NOx (REFERENCES.md §4); U029D–U029E lost communication with NOx sensors
+  // (from memory).
   codePatterns: [
     'SPN 3216 FMI circuit',
     'SPN 3216 FMI signal',

@@ -23,9 +23,9 @@ export const EGT_CARD: CardDefinitionInput = {
     + 'unplug-and-jumper test with live data, '
     + 'then the sensor judged against the IEC 60751 curve at the pipe’s own temperature, or every wire test when the live data does not '
     + 'follow.',
-  // SPN 3241, 3242, 3246 after-treatment exhaust gas temperatures, 4765/4766 DOC intake/outlet (from memory);
-  // P0544–P0549, P2031–P2036 EGT sensor circuits, P2080–P2085 EGT range/performance and intermittent (from memory).
-  codePatterns: [...circuitAndSignal([3241, 3242, 3246, 4765, 4766]), 'P0544-P0549', 'P2031-P2036', 'P2080-P2085'],
+  // SPN 3241, 3242, 3246 after-treatment exhaust and DPF temperatures, 4765/4766 DOC intake/outlet; P0544–P0549, P2031–P2036
+  // EGT sensor circuits, P2080–P2087 EGT range/performance and intermittent (code lists and SPN names of REFERENCES.md §4).
+  codePatterns: [...circuitAndSignal([3241, 3242, 3246, 4765, 4766]), 'P0544-P0549', 'P2031-P2036', 'P2080-P2087'],
   cautions: [HOT_EXHAUST, KEY_OFF, BACK_PROBE, JUMPER, TRAFFIC, DEFER],
   tools: [
     'Digital multimeter with fresh battery',
@@ -113,7 +113,7 @@ export const ECT_CARD: CardDefinitionInput = {
     + 'the sensor judged against the maker’s '
     + 'table at its own temperature. The card carries no table of its own: until the office enters the maker’s data, the sensor step is '
     + 'recorded, not judged.',
-  // SPN 110 engine coolant temperature (REFERENCES.md §4); P0115–P0119 ECT circuit codes (from memory).
+  // SPN 110 engine coolant temperature, P0115–P0119 engine coolant temperature circuit codes (REFERENCES.md §4).
   codePatterns: [...circuitAndSignal([110]), 'P0115-P0119'],
   cautions: [
     'Unplugging the sensor does not open the cooling system; never remove the sensor from a hot engine: coolant under pressure can scald.',
@@ -200,8 +200,9 @@ export const REFERENCE_CARD: CardDefinitionInput = {
   kind: 'sensor_circuit',
   summary: 'Finds whether a 5 V sensor supply is missing, pulled down by a sensor on it, shorted high, or lost in the wiring: read '
     + 'unplugged and loaded, then every wire test.',
-  // SPN 3509–3513 sensor supply voltages 1–5 (from memory); P0641, P0651, P0697, P06A3 sensor reference voltage circuits (from memory).
-  codePatterns: [...circuitAndSignal([3509, 3510, 3511, 3512, 3513]), 'P0641', 'P0651', 'P0697', 'P06A3'],
+  // SPN 3509–3514 sensor supply voltages 1–6, P0641, P0651, P0697 sensor reference voltage A–C circuits (REFERENCES.md §4);
+  // P06A3 reference D (from memory).
+  codePatterns: [...circuitAndSignal([3509, 3510, 3511, 3512, 3513, 3514]), 'P0641', 'P0651', 'P0697', 'P06A3'],
   cautions: [KEY_OFF, BACK_PROBE, DEFER],
   tools: ['Digital multimeter', 'Back-probe pins and breakout leads', 'Wiring diagram for this unit'],
   sources: ['5 V sensor supply 4.8–5.2 V: service procedures (REFERENCES.md §7)', 'Wire limits: common practice'],
@@ -346,7 +347,7 @@ export const DPF_DP_CARD: CardDefinitionInput = {
   summary: 'For circuit and signal codes of the DPF differential-pressure sensor: hoses and ports first (the usual cause), the zero '
     + 'reading key on engine off, '
     + 'then its supply and wiring before the sensor is condemned.',
-  // SPN 3251 DPF differential pressure (from memory); P2452–P2456 DPF pressure sensor A circuit codes (from memory).
+  // SPN 3251 DPF differential pressure (REFERENCES.md §4); P2452–P2456 DPF pressure sensor A circuit codes (from memory).
   codePatterns: [...circuitAndSignal([3251]), 'P2452-P2456'],
   cautions: [HOT_EXHAUST, KEY_OFF, BACK_PROBE, TRAFFIC, DEFER],
   tools: [
