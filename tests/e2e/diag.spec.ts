@@ -74,7 +74,7 @@ test('after the first sync, offline: the exhaust-temperature card runs to its co
 
   // The sensor: its spec waits for the pipe's own temperature, then reads from the IEC 60751 curve.
   await expect(page.getByTestId('step-spec')).toHaveText('Enter the part’s temperature to see what it should read')
-  const partTemp = page.getByLabel('Temperature of the part itself')
+  const partTemp = page.getByLabel('Temperature of the part itself', { exact: true })
   await expect(partTemp).toHaveAttribute('inputmode', 'decimal')
   await partTemp.fill('12')
   // IEC 60751 table ×2: a Pt200 at 12 °C reads 209.36 Ω; ± 10 °C is 2 and 22 °C: 201.6–217.1 Ω
@@ -90,7 +90,7 @@ test('after the first sync, offline: the exhaust-temperature card runs to its co
   await shot(page, 'diag-runner-settled-360')
   await answer(page, 'Was the sensor at a steady temperature?', 'Yes', /Next: New sensor beside the old one/)
   await expect(page.getByText('Installed part read 118 Ω at 12 °C')).toBeVisible()
-  await page.getByLabel('Temperature of the part itself').fill('20')
+  await page.getByLabel('Temperature of the part itself', { exact: true }).fill('20')
   // IEC 60751 table ×2 at 20 °C: 215.58 Ω
   await page.getByLabel('New sensor beside the old one: reading').fill('215,6')
   await page.getByRole('button', { name: 'Record reading' }).click()
