@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a fresh test database, then the type check,
-# unit, API and browser tests, after the lint. `npm test -- unit api` runs only the kinds named.
+# unit, API and browser tests, after the lint. `npm test -- unit api` runs only the kinds named;
+# APISPEC=tests/api/x.test.ts or SPEC=tests/e2e/y.spec.ts narrows the API or browser tests to one file.
 source "$(dirname "$0")/lib.sh"
 trap 'cleanup_children' EXIT
 trap 'exit 130' INT TERM
@@ -90,12 +91,12 @@ fi
 if want api; then
   start_server
   say "API tests"
-  npx vitest run --project api || failed+=(api)
+  npx vitest run --project api ${APISPEC:-} || failed+=(api)
 fi
 if want e2e; then
   start_server
   say "browser tests"
-  npx playwright test || failed+=(e2e)
+  npx playwright test ${SPEC:-} || failed+=(e2e)
 fi
 
 if [ ${#failed[@]} -gt 0 ]; then

@@ -1,7 +1,7 @@
 // The test-card library kept on the phone as the sync brings it, and runs in progress, over a fake IndexedDB.
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { cardDefinitionSchema, type TestCardView } from '../../shared/schemas/testCards'
-import { recordReading, startRun } from '../../shared/utils/cardRun'
+import { recordAnswer, recordReading, startRun } from '../../shared/utils/cardRun'
 import { SEED_CARDS } from '../../server/db/seed/cards'
 import { useLibraryStore } from '../../app/stores/library'
 import { applyPull, readRates } from '../../app/utils/syncApply'
@@ -67,14 +67,17 @@ describe('library on the phone', () => {
 
   it('keeps a run in progress across a reload, OL included', async () => {
     const card = egt(1)
-    let run = startRun({ id: 'run-1', callId: 'call-1', card, ambientC: 12, at: '2026-03-01T10:00:00.000Z' })
-    run = recordReading(run, { value: 'OL', unit: 'ohm', readingId: 'r1', at: '2026-03-01T10:01:00.000Z' })
+    let run = startRun({ id: 'run-1', callId: 'call-1', card, at: '2026-03-01T10:00:00.000Z' })
+    // the look and the two live-data tests, then the sensor itself
+    for (let i = 0; i < 3; i++) run = recordAnswer(run, { answer: 'yes', at: '2026-03-01T10:00:30.000Z' })
+    const partTemp = { value: 12, unit: 'degC' as const }
+    run = recordReading(run, { value: 'OL', unit: 'ohm', readingId: 'r1', at: '2026-03-01T10:01:00.000Z', partTemp })
     await useLibraryStore().saveRun(run)
     await reloadApp()
     const lib = useLibraryStore()
     const back = await lib.getRun('call-1', card.id)
-    expect(back?.results[0]?.value).toBe(Infinity)
-    expect(back?.results[0]?.entered).toEqual({ value: 'OL', unit: 'ohm' })
+    expect(back?.results[3]?.value).toBe(Infinity)
+    expect(back?.results[3]?.entered).toEqual({ value: 'OL', unit: 'ohm' })
     expect((await lib.runsOfCall('call-1')).map(r => r.id)).toEqual(['run-1'])
     expect(await lib.runsOfCall('call-2')).toEqual([])
     await lib.dropRun('call-1', card.id)
