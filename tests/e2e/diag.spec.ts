@@ -83,7 +83,7 @@ test('after the first sync, offline: the exhaust-temperature card runs to its co
   await expect(page.getByTestId('step-spec')).toHaveText('A Pt200 at 12 °C should read 209.4 Ω (201.6–217.1 Ω for ± 10 °C)')
   await expect(page.getByText('Key off', { exact: true })).toBeVisible()
   await shot(page, 'diag-runner-step-360')
-  await page.getByLabel('Sensor resistance at the pipe’s temperature: reading').fill('118')
+  await page.getByLabel('Sensor resistance at the pipe’s temperature: reading', { exact: true }).fill('118')
   await page.getByRole('button', { name: 'Record reading' }).click()
   await expect(page.getByTestId('verdict-why')).toHaveText('measured 118 Ω; a Pt200 at 12 °C should read 209.4 Ω (201.6–217.1 Ω for ± 10 °C); low')
   await shot(page, 'diag-runner-verdict-360')
@@ -94,7 +94,7 @@ test('after the first sync, offline: the exhaust-temperature card runs to its co
   await expect(page.getByText('Installed part read 118 Ω at 12 °C')).toBeVisible()
   await page.getByLabel('Temperature of the part itself', { exact: true }).fill('20')
   // IEC 60751 table ×2 at 20 °C: 215.58 Ω
-  await page.getByLabel('New sensor beside the old one: reading').fill('215,6')
+  await page.getByLabel('New sensor beside the old one: reading', { exact: true }).fill('215,6')
   await page.getByRole('button', { name: 'Record reading' }).click()
   await expect(page.getByLabel('Installed and new part side by side')).toContainText('215.6 Ω')
   await shot(page, 'diag-runner-compare-360')
