@@ -73,13 +73,16 @@ take_turn() {
   mkdir -p "$WAYSIDE_TEST_LOCK"
   local n
   say "waiting for a turn to build and run the server tests ($WAYSIDE_TEST_LOCK)"
+  # Waiters queue on one blocking gate first, so a run is not starved by others that poll at luckier moments.
+  exec 8>"$WAYSIDE_TEST_LOCK/gate"
+  flock 8
   while :; do
     for n in $(seq 1 "${WAYSIDE_TEST_LOCK_SLOTS:-2}"); do
       exec 9>"$WAYSIDE_TEST_LOCK/turn-$n"
-      if flock -n 9; then say "turn $n taken"; return 0; fi
+      if flock -n 9; then exec 8>&-; say "turn $n taken"; return 0; fi
       exec 9>&-
     done
-    sleep 5
+    sleep 1
   done
 }
 if want api || want e2e; then
