@@ -45,6 +45,8 @@ export default defineNuxtConfig({
     // Where payers and fleets reach this server (links in e-mail, QR codes): NUXT_SITE_URL.
     siteUrl: 'http://127.0.0.1:3000',
     photoMaxBytes: 10 * 1024 * 1024,
+    // A mechanic's first pull: open calls and those of the last this many days (plus each unit's last few).
+    syncRecentDays: 30,
     // Photo bytes: a folder for the fs driver here; server/plugins/storage.ts mounts it.
     uploadsDir: '.data/uploads',
     uploadsS3Bucket: '',

@@ -87,7 +87,53 @@ export const pushResultSchema = z.object({
 })
 export type PushResult = z.infer<typeof pushResultSchema>
 
+// ── Pull ──────────────────────────────────────────────────────────────────────────────────
+/** Rows a pull page carries when the device does not say. */
+export const SYNC_PULL_DEFAULT_LIMIT = 2000
+export const SYNC_PULL_MAX_LIMIT = 10_000
+
+/**
+ * Where a paged pull stands: the window of changes it hands out (from, upto) and, between pages,
+ * the collection it stopped in and the last id it gave. A finished pull's cursor is just `upto`.
+ */
+export type PullPosition = { from: string, upto?: string, k?: number, after?: string }
+const PAGE_CURSOR = /^(\d{1,20})\.(\d{1,20})\.(\d{1,2})\.([0-9a-f-]{36})?$/
+
+/** The cursor of the next page: `from.upto.collection.lastId`. */
+export function pullCursor(p: Required<Pick<PullPosition, 'from' | 'upto' | 'k'>> & { after?: string }): string {
+  return `${p.from}.${p.upto}.${p.k}.${p.after ?? ''}`
+}
+
+/** A cursor this server gave, read back; undefined for anything else. */
+export function parsePullCursor(cursor: string): PullPosition | undefined {
+  if (/^\d{1,20}$/.test(cursor)) return { from: cursor }
+  const m = PAGE_CURSOR.exec(cursor)
+  if (!m) return undefined
+  return { from: m[1]!, upto: m[2]!, k: Number(m[3]), ...(m[4] ? { after: m[4] } : {}) }
+}
+
 export const pullQuerySchema = z.object({
-  cursor: z.string().regex(/^\d{1,20}$/, 'Expected the cursor of the last pull').optional(),
+  cursor: z.string().refine(c => !!parsePullCursor(c), 'Expected the cursor of the last pull').optional(),
   clientId: uuid('client id').optional(),
+  limit: z.coerce.number({ message: 'Expected a number of rows' }).pipe(int(1, SYNC_PULL_MAX_LIMIT)).optional(),
 })
+
+const pulledRow = z.object({ id: z.string() }).passthrough()
+const pulledRows = z.array(pulledRow)
+/** What a pull answers, page by page; the server's answer is typed by it and the device checks it. */
+export const pullAnswerSchema = z.object({
+  /** The next page's cursor while `more`; else the cursor for the next pull. */
+  cursor: z.string(),
+  more: z.boolean(),
+  lastSeq: z.number().int().min(0),
+  /** Rows by collection: calls, units, customers, each record collection of the registry, callEvents, conflicts, testCards, rates. */
+  changes: z.object({
+    calls: pulledRows, units: pulledRows, customers: pulledRows, callEvents: pulledRows, conflicts: pulledRows,
+    testCards: pulledRows, rates: pulledRows,
+  }).catchall(pulledRows),
+  /** The open conflicts on the user's calls (a mechanic) or raised by them (the office). */
+  conflicts: pulledRows,
+  /** Calls taken away from this mechanic since the cursor: the phone drops them. */
+  revokedCallIds: z.array(z.string()),
+})
+export type PullAnswer = z.infer<typeof pullAnswerSchema>

@@ -41,7 +41,7 @@ describe('pull: scope', () => {
     expect(customer).toMatchObject({ name: 'Prairie Cold Haul' })
     for (const hidden of ['billingEmail', 'billingTerms', 'netDays', 'notes', 'taxExempt']) expect(customer).not.toHaveProperty(hidden)
     expect(changes.rates.length).toBeGreaterThan(0)
-    expect(changes.testCards.find((c: any) => c.id === cardId)).toMatchObject({ currentVersion: 1, definition: { steps: [] } })
+    expect(changes.testCards.find((c: any) => c.id === cardId)).toMatchObject({ currentVersion: 1, version: 1, definition: { steps: expect.any(Array) } })
     expect(r.body.lastSeq).toBe(1)
     expect(r.body.cursor).toMatch(/^\d+$/)
     expect(r.body.calls).toBeUndefined()

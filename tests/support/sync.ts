@@ -149,6 +149,9 @@ export async function makeTestCard() {
   const cardId = randomUUID()
   made.cards.push(cardId)
   await testPool().query(`INSERT INTO test_cards (id, slug, title, component_type) VALUES ($1, $2, 'Sync test card', 'sensor')`, [cardId, `sync-test-${cardId}`])
-  await testPool().query(`INSERT INTO test_card_versions (card_id, card_version, definition) VALUES ($1, 1, '{"steps": []}')`, [cardId])
+  // A definition the card schema accepts (a seeded card's), so the pull hands the card out.
+  await testPool().query(`INSERT INTO test_card_versions (card_id, card_version, definition)
+    SELECT $1, 1, v.definition FROM test_card_versions v JOIN test_cards c ON c.id = v.card_id AND v.card_version = c.current_version
+    WHERE c.active ORDER BY c.slug LIMIT 1`, [cardId])
   return cardId
 }

@@ -1,34 +1,70 @@
-// GET /api/sync/pull: what changed since the device's cursor, scoped to what the user may see.
+// GET /api/sync/pull: what changed since the device's cursor, scoped to what the user may see,
+// in pages of at most `limit` rows, with `more: true` while a page follows.
 //
-// Late commits: every row carries change_xid, the id of the transaction that last wrote it. The
-// pull runs in its own REPEATABLE READ snapshot and hands out the rows with
-// previous cursor <= change_xid < xmin, where xmin = pg_snapshot_xmin(pg_current_snapshot()) is the
-// oldest transaction still running. Every transaction below xmin has finished, so a writer that
-// commits late (a low xid, committed after a higher one) is still above the cursor and comes in a
-// later pull. Rows between xmin and the newest commit may be sent twice; never missed.
-import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm'
-import type { PgColumn } from 'drizzle-orm/pg-core'
+// Late commits: every row carries change_xid, the id of the transaction that last wrote it. A pull
+// hands out the rows with previous cursor <= change_xid < upto, where upto is the oldest
+// transaction still running when the pull began (pg_snapshot_xmin). Every transaction below it has
+// finished, so a writer that commits late (a low xid, committed after a higher one) is still above
+// the cursor and comes in a later pull. Rows between upto and the newest commit may be sent twice;
+// never missed.
+//
+// Pages: the first page fixes the window [from, upto); each page walks the collections in a fixed
+// order by id, and the continuation cursor says where it stopped. A row written again between two
+// pages has left the window for a later one, so nothing is missed there either. The card library
+// and rates come whole on the first page.
+//
+// A mechanic's first pull (no cursor) is their working set, not their career: open calls, calls
+// of the last SYNC_RECENT_DAYS, and the last few earlier calls of each unit among those, with the
+// records, units and customers of those calls. Later pulls bring what changed on their calls.
+import { and, asc, desc, eq, gt, inArray, sql, type SQL } from 'drizzle-orm'
+import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import type { User } from '#auth-utils'
+import { cardDefinitionSchema, type TestCardView } from '#shared/schemas/testCards'
+import { parsePullCursor, pullCursor, SYNC_PULL_DEFAULT_LIMIT, type PullAnswer, type PullPosition } from '#shared/schemas/sync'
+import { OPEN_STATUSES } from '#shared/utils/callStatus'
 import type { Tx } from '../db'
-import { CALL_RECORD_TABLES, type CallRecordCollection } from './tables'
+import { CALL_RECORD_TABLES } from './tables'
+
+/** Earlier calls of each unit in the working set that come with it (the unit's recent history). */
+export const SYNC_UNIT_HISTORY_CALLS = 5
 
 const strip = <T extends { changeXid?: unknown }>(row: T) => {
   const { changeXid: _x, ...rest } = row
   return rest
 }
 
-function stripPhoto(row: typeof tables.photos.$inferSelect) {
+function stripPhoto(row: Record<string, unknown>) {
   const { changeXid: _x, storageKey, ...rest } = row
   return { ...rest, uploaded: !!storageKey }
 }
 
-export async function syncPull(user: User, q: { cursor?: string, clientId?: string }) {
-  const prev = q.cursor ?? '0'
+type Win = (col: PgColumn | SQL) => SQL
+type IdTable = PgTable & { id: PgColumn }
+/** One collection of the answer: its table, which rows this user gets, and how a row is handed out. */
+type Source = {
+  key: string
+  table: IdTable
+  where: SQL | undefined
+  columns?: Record<string, PgColumn>
+  out?: (row: Record<string, unknown>) => unknown
+}
+
+const badCursor = () => createError({
+  status: 400, statusText: 'Bad cursor', message: 'cursor: not a cursor this server gave',
+  data: { fields: { cursor: 'Not a cursor this server gave' } },
+})
+
+export async function syncPull(user: User, q: { cursor?: string, clientId?: string, limit?: number }): Promise<PullAnswer> {
+  const limit = q.limit ?? SYNC_PULL_DEFAULT_LIMIT
+  const at = q.cursor ? parsePullCursor(q.cursor) : { from: '0' } as PullPosition
+  if (!at) throw badCursor()
   return useDb().transaction(async (tx) => {
-    // The first statement fixes the snapshot; its xmin is the new cursor.
-    const snap = await tx.execute<{ cursor: string }>(sql`SELECT pg_snapshot_xmin(pg_current_snapshot())::text AS cursor`)
-    const cursor = snap.rows[0]!.cursor
-    const win = (col: PgColumn | SQL) => sql`(${col} >= ${prev}::xid8 AND ${col} < ${cursor}::xid8)`
+    // The first statement fixes the snapshot; on a first page its xmin closes the window.
+    const snap = await tx.execute<{ xmin: string }>(sql`SELECT pg_snapshot_xmin(pg_current_snapshot())::text AS xmin`)
+    const from = at.from
+    const upto = at.upto ?? snap.rows[0]!.xmin
+    const firstPage = at.upto === undefined
+    const win: Win = col => sql`(${col} >= ${from}::xid8 AND ${col} < ${upto}::xid8)`
 
     let lastSeq = 0
     if (q.clientId) {
@@ -37,64 +73,104 @@ export async function syncPull(user: User, q: { cursor?: string, clientId?: stri
       lastSeq = client?.lastSeq ?? 0
     }
 
-    const body = user.role === 'mechanic' ? await mechanicChanges(tx, user, win, prev !== '0') : await officeChanges(tx, win)
+    const scope = user.role === 'mechanic' ? await mechanicScope(tx, user, win, from !== '0') : officeScope(win)
+    if (at.k !== undefined && at.k >= scope.sources.length) throw badCursor()
+    const changes: Record<string, unknown[]> = {}
+    for (const s of scope.sources) changes[s.key] = []
+    Object.assign(changes, firstPage ? await library(tx, win, from === '0') : { testCards: [], rates: [] })
+
+    // Walk the collections from where the last page stopped.
+    let room = limit
+    let stop: { k: number, after: string } | undefined
+    for (let k = at.k ?? 0; k < scope.sources.length; k++) {
+      const s = scope.sources[k]!
+      const after = k === at.k ? at.after : undefined
+      const rows = await tx.select(s.columns as Record<string, PgColumn>).from(s.table as typeof tables.notes)
+        .where(and(s.where, after ? gt(s.table.id, after) : undefined))
+        .orderBy(asc(s.table.id)).limit(room + 1) as Record<string, unknown>[]
+      const taken = rows.slice(0, room)
+      changes[s.key]!.push(...taken.map(row => (s.out ?? strip)(row)))
+      // More rows here than room: the next page goes on after the last one given.
+      if (rows.length > room) { stop = { k, after: String(taken.at(-1)!.id) }; break }
+      room -= taken.length
+      if (room === 0) {
+        if (k < scope.sources.length - 1) stop = { k: k + 1, after: '' }
+        break
+      }
+    }
+
     const { conflicts, calls } = tables
     const open = await tx.select({ conflict: conflicts }).from(conflicts)
       .innerJoin(calls, eq(calls.id, conflicts.callId))
       .where(and(eq(conflicts.status, 'open'), user.role === 'mechanic' ? eq(calls.mechanicId, user.id) : eq(conflicts.raisedBy, user.id)))
       .orderBy(desc(conflicts.createdAt))
-    return { cursor, lastSeq, ...body, conflicts: open.map(r => strip(r.conflict)) }
+    const revoked = firstPage ? await scope.revoked() : []
+    const cursor = stop ? pullCursor({ from, upto, k: stop.k, after: stop.after || undefined }) : upto
+    return {
+      cursor, more: !!stop, lastSeq, changes: changes as PullAnswer['changes'], revokedCallIds: revoked,
+      conflicts: open.map(r => strip(r.conflict)) as PullAnswer['conflicts'],
+    }
   }, { isolationLevel: 'repeatable read', accessMode: 'read only' })
 }
 
-type Win = (col: PgColumn | SQL) => SQL
-
-// Every record of a call, by the registry's collection names (plus the server's timeline and conflicts).
-const CHILDREN = CALL_RECORD_TABLES
-type ChildKey = CallRecordCollection
-
-async function library(tx: Tx, win: Win) {
+/** The card library as GET /api/test-cards answers it; cards whose stored definition fails the card schema are left out. */
+async function library(tx: Tx, win: Win, first: boolean) {
   const { testCards, testCardVersions, rates } = tables
-  const cards = await tx.select({ card: testCards, definition: testCardVersions.definition }).from(testCards)
+  const rows = await tx.select({ card: testCards, v: testCardVersions }).from(testCards)
     .innerJoin(testCardVersions, and(eq(testCardVersions.cardId, testCards.id), eq(testCardVersions.cardVersion, testCards.currentVersion)))
-    .where(sql`${win(testCards.changeXid)} OR ${win(testCardVersions.changeXid)}`)
+    // A first pull: every card in use. Later: every card changed, turned-off ones included so the phone drops them.
+    .where(first ? eq(testCards.active, true) : sql`${win(testCards.changeXid)} OR ${win(testCardVersions.changeXid)}`)
+  const cards: TestCardView[] = []
+  for (const { card, v } of rows) {
+    const parsed = cardDefinitionSchema.safeParse(v.definition)
+    if (!parsed.success) continue
+    cards.push({
+      id: card.id, slug: card.slug, title: card.title, componentType: card.componentType, active: card.active,
+      currentVersion: card.currentVersion, version: v.cardVersion, definition: parsed.data, updatedAt: card.updatedAt.toISOString(),
+    } satisfies TestCardView)
+  }
   const rateRows = await tx.select().from(rates).where(win(rates.changeXid))
-  return {
-    testCards: cards.map(c => ({ ...strip(c.card), definition: c.definition })),
-    rates: rateRows.map(strip),
-  }
+  return { testCards: cards, rates: rateRows.map(strip) }
 }
 
-async function childrenWhere(tx: Tx, where: (t: (typeof CHILDREN)[ChildKey]) => SQL | undefined) {
-  const out = {} as { [K in ChildKey]: unknown[] }
-  for (const key of Object.keys(CHILDREN) as ChildKey[]) {
-    const table = CHILDREN[key]
-    const rows = await tx.select().from(table as typeof tables.notes).where(where(table))
-    out[key] = key === 'photos' ? (rows as unknown as (typeof tables.photos.$inferSelect)[]).map(stripPhoto) : rows.map(strip)
-  }
-  return out
+function recordSources(where: (t: (typeof CALL_RECORD_TABLES)[keyof typeof CALL_RECORD_TABLES]) => SQL | undefined): Source[] {
+  return (Object.keys(CALL_RECORD_TABLES) as (keyof typeof CALL_RECORD_TABLES)[]).map((key) => {
+    const table = CALL_RECORD_TABLES[key]
+    return { key, table, where: where(table), ...(key === 'photos' ? { out: stripPhoto } : {}) }
+  })
 }
 
-async function officeChanges(tx: Tx, win: Win) {
+function officeScope(win: Win) {
   const { calls, units, customers } = tables
-  const [callRows, unitRows, customerRows] = [
-    await tx.select().from(calls).where(win(calls.changeXid)),
-    await tx.select().from(units).where(win(units.changeXid)),
-    await tx.select().from(customers).where(win(customers.changeXid)),
+  const sources: Source[] = [
+    { key: 'calls', table: calls, where: win(calls.changeXid) },
+    { key: 'units', table: units, where: win(units.changeXid) },
+    { key: 'customers', table: customers, where: win(customers.changeXid) },
+    ...recordSources(t => win(t.changeXid)),
   ]
-  return {
-    changes: {
-      calls: callRows.map(strip), units: unitRows.map(strip), customers: customerRows.map(strip),
-      ...await childrenWhere(tx, t => win(t.changeXid)),
-      ...await library(tx, win),
-    },
-    revokedCallIds: [] as string[],
-  }
+  return { sources, revoked: async () => [] as string[] }
 }
 
-async function mechanicChanges(tx: Tx, user: User, win: Win, incremental: boolean) {
+/** Calls a mechanic's phone starts from: open ones, recent ones, and the last few earlier calls of each unit among them. */
+function workingSet(user: User) {
+  const days = Math.max(1, Number(useRuntimeConfig().syncRecentDays) || 30)
+  const open = sql.join(OPEN_STATUSES.map(s => sql`${s}`), sql`, `)
+  return sql`(
+    WITH mine AS (SELECT id, unit_id, status, received_at, assigned_at FROM calls WHERE mechanic_id = ${user.id}),
+    recent AS (
+      SELECT id, unit_id FROM mine
+      WHERE status::text IN (${open}) OR coalesce(assigned_at, received_at) >= now() - make_interval(days => ${days})
+    ),
+    earlier AS (
+      SELECT id, row_number() OVER (PARTITION BY unit_id ORDER BY received_at DESC) AS n FROM mine
+      WHERE unit_id IN (SELECT unit_id FROM recent) AND id NOT IN (SELECT id FROM recent)
+    )
+    SELECT id FROM recent UNION ALL SELECT id FROM earlier WHERE n <= ${SYNC_UNIT_HISTORY_CALLS}
+  )`
+}
+
+async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean) {
   const { calls, units, customers, callEvents } = tables
-  const mine = sql`(SELECT id FROM calls WHERE mechanic_id = ${user.id})`
   // Calls assigned to this mechanic inside the window come whole: their older records too.
   const assigned = incremental
     ? await tx.selectDistinct({ id: callEvents.callId }).from(callEvents).innerJoin(calls, eq(calls.id, callEvents.callId))
@@ -104,38 +180,48 @@ async function mechanicChanges(tx: Tx, user: User, win: Win, incremental: boolea
         ))
     : []
   const whole = assigned.map(r => r.id)
-  const wholeSql = whole.length ? inArray(calls.id, whole) : sql`false`
-  const callRows = await tx.select().from(calls).where(and(eq(calls.mechanicId, user.id), sql`(${win(calls.changeXid)} OR ${wholeSql})`))
-  const unitIds = [...new Set(callRows.map(c => c.unitId).filter((x): x is string => !!x))]
-  const customerIds = [...new Set(callRows.map(c => c.customerId))]
+  const wholeOr = (col: PgColumn) => (whole.length ? inArray(col, whole) : sql`false`)
+  // The calls whose rows this pull may hand out, and which of them changed.
+  const scopeCalls = incremental ? sql`(SELECT id FROM calls WHERE mechanic_id = ${user.id})` : workingSet(user)
+  const changed = (col: PgColumn, callCol: PgColumn) => (incremental ? sql`(${win(col)} OR ${wholeOr(callCol)})` : undefined)
+  const callRows = sql`(SELECT unit_id, customer_id FROM calls WHERE id IN ${scopeCalls}
+    ${incremental ? sql`AND (${win(calls.changeXid)} OR ${wholeOr(calls.id)})` : sql``})`
 
-  const unitRows = await tx.select().from(units).where(and(
-    sql`${units.id} IN (SELECT unit_id FROM calls WHERE mechanic_id = ${user.id})`,
-    sql`(${win(units.changeXid)} OR ${unitIds.length ? inArray(units.id, unitIds) : sql`false`})`,
-  ))
-  // A mechanic needs who and how to reach them, not billing terms or account notes.
-  const customerRows = await tx.select({
-    id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone, version: customers.version, updatedAt: customers.updatedAt,
-  }).from(customers).where(and(
-    sql`${customers.id} IN (SELECT customer_id FROM calls WHERE mechanic_id = ${user.id})`,
-    sql`(${win(customers.changeXid)} OR ${customerIds.length ? inArray(customers.id, customerIds) : sql`false`})`,
-  ))
-
-  const children = await childrenWhere(tx, t => and(
-    sql`${t.callId} IN ${mine}`,
-    sql`(${win(t.changeXid)} OR ${whole.length ? inArray(t.callId, whole) : sql`false`})`,
-  ))
+  const sources: Source[] = [
+    {
+      key: 'calls', table: calls,
+      where: and(sql`${calls.id} IN ${scopeCalls}`, eq(calls.mechanicId, user.id), changed(calls.changeXid, calls.id)),
+    },
+    {
+      key: 'units', table: units,
+      where: incremental
+        ? and(sql`${units.id} IN (SELECT unit_id FROM calls WHERE mechanic_id = ${user.id})`,
+          sql`(${win(units.changeXid)} OR ${units.id} IN (SELECT unit_id FROM ${callRows} c))`)
+        : sql`${units.id} IN (SELECT unit_id FROM ${callRows} c)`,
+    },
+    {
+      // A mechanic needs who and how to reach them, not billing terms or account notes.
+      key: 'customers', table: customers,
+      columns: {
+        id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone,
+        version: customers.version, updatedAt: customers.updatedAt,
+      },
+      out: row => row,
+      where: incremental
+        ? and(sql`${customers.id} IN (SELECT customer_id FROM calls WHERE mechanic_id = ${user.id})`,
+          sql`(${win(customers.changeXid)} OR ${customers.id} IN (SELECT customer_id FROM ${callRows} c))`)
+        : sql`${customers.id} IN (SELECT customer_id FROM ${callRows} c)`,
+    },
+    ...recordSources(t => and(sql`${t.callId} IN ${scopeCalls}`, changed(t.changeXid, t.callId))),
+  ]
 
   // Calls taken away: changed in the window, not this mechanic's now, but assigned to them once.
-  const revoked = incremental
-    ? await tx.select({ id: calls.id }).from(calls).where(and(
+  const revoked = async () => incremental
+    ? (await tx.select({ id: calls.id }).from(calls).where(and(
         win(calls.changeXid),
         sql`${calls.mechanicId} IS DISTINCT FROM ${user.id}`,
         sql`EXISTS (SELECT 1 FROM call_events e WHERE e.call_id = ${calls.id} AND e.mechanic_id = ${user.id})`,
-      ))
+      ))).map(r => r.id)
     : []
-  return {
-    changes: { calls: callRows.map(strip), units: unitRows.map(strip), customers: customerRows, ...children, ...await library(tx, win) },
-    revokedCallIds: revoked.map(r => r.id),
-  }
+  return { sources, revoked }
 }
