@@ -16,7 +16,9 @@ afterAll(async () => {
 })
 
 let mech1: Awaited<ReturnType<typeof signedIn>>
-beforeAll(async () => { mech1 = await signedIn(DEMO.mech1) })
+beforeAll(async () => {
+  mech1 = await signedIn(DEMO.mech1)
+})
 
 /** A phone: its outbox, the last seq the server confirmed, and what it believes the call's cause is. */
 class Phone {
@@ -36,7 +38,7 @@ type Step
     | { kind: 'refresh', phone: 0 | 1 }
 
 const phone = fc.constantFrom(0 as const, 1 as const)
-const words = fc.string({ minLength: 1, maxLength: 12 }).map(s => s.replace(/\u0000/g, '').trim() || 'x')
+const words = fc.string({ minLength: 1, maxLength: 12 }).map(s => s.replaceAll(String.fromCharCode(0), '').trim() || 'x')
 const step: fc.Arbitrary<Step> = fc.oneof(
   fc.record({ kind: fc.constant('note' as const), phone, text: words }),
   fc.record({ kind: fc.constant('cause' as const), phone, text: words }),
@@ -111,8 +113,9 @@ describe('the protocol, under random interleavings', () => {
         expect(rows).toEqual([{ text: n.text }])
       }
       for (const p of phones) {
-        const stored = (await testPool().query('SELECT seq, status FROM sync_ops WHERE client_id = $1 ORDER BY seq', [p.device.clientId])).rows
-        expect(stored.map(r => r.seq)).toEqual(p.outbox.map(o => o.seq))
+        const sql = 'SELECT seq, status FROM sync_ops WHERE client_id = $1 ORDER BY seq'
+        const stored = (await testPool().query(sql, [p.device.clientId])).rows
+        expect(stored.map(r => Number(r.seq))).toEqual(p.outbox.map(o => o.seq))
       }
       for (const t of typed) {
         const { rows: [op] } = await testPool().query('SELECT status FROM sync_ops WHERE op_id = $1', [t.opId])

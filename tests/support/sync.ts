@@ -43,7 +43,8 @@ export class Device {
   }
 
   update(entity: string, entityId: string, changes: Record<string, unknown>, base?: Record<string, unknown>, baseVersion?: number) {
-    return this.op(entity, changes, { action: 'update', entityId, ...(base ? { base } : {}), ...(baseVersion !== undefined ? { baseVersion } : {}) })
+    const known = { ...(base ? { base } : {}), ...(baseVersion !== undefined ? { baseVersion } : {}) }
+    return this.op(entity, changes, { action: 'update', entityId, ...known })
   }
 
   push(ops: TestOp[], extra: Record<string, unknown> = {}) {
@@ -61,7 +62,9 @@ type Changes = Record<string, { id: string }[]>
  * Pulls from `cursor` until `done` holds for everything received so far. Transactions of other
  * databases on the shared cluster can hold the cursor back for a moment; nothing is ever lost.
  */
-export async function pullUntil(device: Device, cursor: string | undefined, done: (seen: Changes, revoked: Set<string>) => boolean, ms = 15_000) {
+export async function pullUntil(
+  device: Device, cursor: string | undefined, done: (seen: Changes, revoked: Set<string>) => boolean, ms = 15_000,
+) {
   const seen: Changes = {}
   const revoked = new Set<string>()
   const end = Date.now() + ms
@@ -89,7 +92,8 @@ export async function cleanupSyncData() {
   try {
     await client.query('BEGIN')
     const calls = made.calls, cards = made.cards
-    await client.query('DELETE FROM readings WHERE call_id = ANY($1) OR test_run_id IN (SELECT id FROM test_runs WHERE card_id = ANY($2))', [calls, cards])
+    await client.query(
+      'DELETE FROM readings WHERE call_id = ANY($1) OR test_run_id IN (SELECT id FROM test_runs WHERE card_id = ANY($2))', [calls, cards])
     for (const t of ['fault_codes', 'notes', 'photos', 'clock_events', 'part_lines', 'sign_offs', 'conflicts', 'call_events']) {
       await client.query(`DELETE FROM ${t} WHERE call_id = ANY($1)`, [calls])
     }
@@ -122,11 +126,13 @@ export async function makeCall(opts: { mechanicId?: string | null, status?: stri
   const status = opts.status ?? (mechanicId ? 'assigned' : 'received')
   await testPool().query(
     `INSERT INTO calls (id, status, customer_id, unit_id, location_text, complaint, mechanic_id, assigned_at, story_cause)
-     VALUES ($1, $2, $3, $4, 'Route 8 westbound shoulder, test', 'Test complaint: no crank', $5, CASE WHEN $5::uuid IS NULL THEN NULL ELSE now() END, $6)`,
+     VALUES ($1, $2, $3, $4, 'Route 8 westbound shoulder, test', 'Test complaint: no crank', $5,
+       CASE WHEN $5::uuid IS NULL THEN NULL ELSE now() END, $6)`,
     [id, status, IDS.customer, IDS.unit, mechanicId, opts.storyCause ?? null],
   )
   if (mechanicId) {
-    await testPool().query(`INSERT INTO call_events (call_id, kind, to_status, mechanic_id) VALUES ($1, 'assigned', 'assigned', $2)`, [id, mechanicId])
+    await testPool().query(`INSERT INTO call_events (call_id, kind, to_status, mechanic_id) VALUES ($1, 'assigned', 'assigned', $2)`,
+      [id, mechanicId])
   }
   return id
 }
@@ -148,7 +154,8 @@ export function jpegBytes(extra = 0) {
 export async function makeTestCard() {
   const cardId = randomUUID()
   made.cards.push(cardId)
-  await testPool().query(`INSERT INTO test_cards (id, slug, title, component_type) VALUES ($1, $2, 'Sync test card', 'sensor')`, [cardId, `sync-test-${cardId}`])
+  await testPool().query(`INSERT INTO test_cards (id, slug, title, component_type) VALUES ($1, $2, 'Sync test card', 'sensor')`,
+    [cardId, `sync-test-${cardId}`])
   // A definition the card schema accepts (a seeded card's), so the pull hands the card out.
   await testPool().query(`INSERT INTO test_card_versions (card_id, card_version, definition)
     SELECT $1, 1, v.definition FROM test_card_versions v JOIN test_cards c ON c.id = v.card_id AND v.card_version = c.current_version

@@ -91,7 +91,10 @@ export async function syncPull(user: User, q: { cursor?: string, clientId?: stri
       const taken = rows.slice(0, room)
       changes[s.key]!.push(...taken.map(row => (s.out ?? strip)(row)))
       // More rows here than room: the next page goes on after the last one given.
-      if (rows.length > room) { stop = { k, after: String(taken.at(-1)!.id) }; break }
+      if (rows.length > room) {
+        stop = { k, after: String(taken.at(-1)!.id) }
+        break
+      }
       room -= taken.length
       if (room === 0) {
         if (k < scope.sources.length - 1) stop = { k: k + 1, after: '' }
@@ -169,34 +172,51 @@ function workingSet(user: User) {
   )`
 }
 
+/** Ids of the calls any of whose records (the device's or the server's) changed in the window. */
+function callsWithChangedRecords(win: Win) {
+  const parts = Object.values(CALL_RECORD_TABLES).map(t => sql`SELECT ${t.callId} FROM ${t} WHERE ${win(t.changeXid)}`)
+  return sql`(${sql.join(parts, sql` UNION `)})`
+}
+
+/**
+ * A mechanic's pull. The first is the working set. Later ones bring every changed row on the
+ * mechanic's calls, and a call with it whenever one of its records changed, so a page never holds a
+ * record whose call the phone lacks (calls are walked first). A call outside the working set that
+ * changed, and a call assigned inside the window, come whole: the phone may never have held them.
+ */
 async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean) {
   const { calls, units, customers, callEvents } = tables
-  // Calls assigned to this mechanic inside the window come whole: their older records too.
-  const assigned = incremental
-    ? await tx.selectDistinct({ id: callEvents.callId }).from(callEvents).innerJoin(calls, eq(calls.id, callEvents.callId))
-        .where(and(
-          eq(calls.mechanicId, user.id), eq(callEvents.mechanicId, user.id), win(callEvents.changeXid),
-          sql`(${callEvents.kind} IN ('assigned', 'reassigned') OR ${callEvents.toStatus} = 'assigned')`,
-        ))
-    : []
-  const whole = assigned.map(r => r.id)
+  const mine = sql`(SELECT id FROM calls WHERE mechanic_id = ${user.id})`
+  let whole: string[] = []
+  if (incremental) {
+    const assigned = await tx.selectDistinct({ id: callEvents.callId }).from(callEvents).innerJoin(calls, eq(calls.id, callEvents.callId))
+      .where(and(
+        eq(calls.mechanicId, user.id), eq(callEvents.mechanicId, user.id), win(callEvents.changeXid),
+        sql`(${callEvents.kind} IN ('assigned', 'reassigned') OR ${callEvents.toStatus} = 'assigned')`,
+      ))
+    const outside = await tx.select({ id: calls.id }).from(calls).where(and(
+      eq(calls.mechanicId, user.id),
+      sql`${calls.id} NOT IN ${workingSet(user)}`,
+      sql`(${win(calls.changeXid)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`,
+    ))
+    whole = [...new Set([...assigned, ...outside].map(r => r.id))]
+  }
   const wholeOr = (col: PgColumn) => (whole.length ? inArray(col, whole) : sql`false`)
-  // The calls whose rows this pull may hand out, and which of them changed.
-  const scopeCalls = incremental ? sql`(SELECT id FROM calls WHERE mechanic_id = ${user.id})` : workingSet(user)
+  const scopeCalls = incremental ? mine : workingSet(user)
+  const callWhere = incremental
+    ? sql`(${win(calls.changeXid)} OR ${wholeOr(calls.id)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`
+    : undefined
   const changed = (col: PgColumn, callCol: PgColumn) => (incremental ? sql`(${win(col)} OR ${wholeOr(callCol)})` : undefined)
-  const callRows = sql`(SELECT unit_id, customer_id FROM calls WHERE id IN ${scopeCalls}
-    ${incremental ? sql`AND (${win(calls.changeXid)} OR ${wholeOr(calls.id)})` : sql``})`
+  // The units and customers of the calls this pull hands out.
+  const callRows = sql`(SELECT unit_id, customer_id FROM calls WHERE id IN ${scopeCalls} ${callWhere ? sql`AND ${callWhere}` : sql``})`
 
   const sources: Source[] = [
-    {
-      key: 'calls', table: calls,
-      where: and(sql`${calls.id} IN ${scopeCalls}`, eq(calls.mechanicId, user.id), changed(calls.changeXid, calls.id)),
-    },
+    { key: 'calls', table: calls, where: and(sql`${calls.id} IN ${scopeCalls}`, eq(calls.mechanicId, user.id), callWhere) },
     {
       key: 'units', table: units,
       where: incremental
         ? and(sql`${units.id} IN (SELECT unit_id FROM calls WHERE mechanic_id = ${user.id})`,
-          sql`(${win(units.changeXid)} OR ${units.id} IN (SELECT unit_id FROM ${callRows} c))`)
+            sql`(${win(units.changeXid)} OR ${units.id} IN (SELECT unit_id FROM ${callRows} c))`)
         : sql`${units.id} IN (SELECT unit_id FROM ${callRows} c)`,
     },
     {
@@ -209,7 +229,7 @@ async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean)
       out: row => row,
       where: incremental
         ? and(sql`${customers.id} IN (SELECT customer_id FROM calls WHERE mechanic_id = ${user.id})`,
-          sql`(${win(customers.changeXid)} OR ${customers.id} IN (SELECT customer_id FROM ${callRows} c))`)
+            sql`(${win(customers.changeXid)} OR ${customers.id} IN (SELECT customer_id FROM ${callRows} c))`)
         : sql`${customers.id} IN (SELECT customer_id FROM ${callRows} c)`,
     },
     ...recordSources(t => and(sql`${t.callId} IN ${scopeCalls}`, changed(t.changeXid, t.callId))),
