@@ -1,9 +1,10 @@
 // Small facts about a call that several phone screens need.
+import { isLockedStatus } from '#shared/utils/callStatus'
 import type { DeviceRow } from './fieldDb'
 
 /** Billed, paid or cancelled calls take no more field changes (the server would refuse them). */
 export function isCallClosed(call: DeviceRow): boolean {
-  return ['invoiced', 'paid', 'cancelled'].includes(String(call.status))
+  return isLockedStatus(String(call.status))
 }
 
 /** When a record was made: the device time for the phone's own, else the server's. */

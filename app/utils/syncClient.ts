@@ -4,6 +4,7 @@
 // What each answer does to the device is app/utils/syncApply.ts; when a pass runs, its backoff
 // and the one-tab lock are the sync store's (app/stores/sync.ts). Nothing leaves the outbox until
 // the server answered applied, duplicate or conflict.
+import { isLockedStatus } from '#shared/utils/callStatus'
 import { getClientId, getMeta, readBundles, readOutbox, setLibrary, setMeta, type DeviceRow } from './fieldDb'
 import { applyPull, applyPushResults, photoConfirmed, photoFailed, readPhotoQueue, realignSeq } from './syncApply'
 import {
@@ -20,7 +21,6 @@ export type SyncFailure = 'offline' | 'signin' | 'update' | 'invalid' | 'server'
 export type PassResult = { changedCalls: string[], cards: number }
 
 /** Calls whose truck stock the phone no longer needs. */
-const STOCK_DONE = ['invoiced', 'paid', 'cancelled']
 const JSON_HEADERS = { 'X-Wayside': '1', 'Content-Type': 'application/json', 'Accept': 'application/json' }
 
 /** Why a pass stopped; the sync store turns it into what the person reads and when to try again. */
@@ -123,7 +123,7 @@ async function pull(doFetch: SyncFetch, clientId: string): Promise<PassResult> {
 async function refreshStock(doFetch: SyncFetch) {
   const last = await getMeta<number>('stockFetchedAt')
   if (last && Date.now() - last < 15 * 60_000) return
-  const trucks = new Set((await readBundles()).filter(b => !STOCK_DONE.includes(String(b.call.status)))
+  const trucks = new Set((await readBundles()).filter(b => !isLockedStatus(String(b.call.status)))
     .map(b => b.call.serviceTruckId).filter((t): t is string => typeof t === 'string'))
   const found: DeviceRow[] = []
   for (const id of trucks) {

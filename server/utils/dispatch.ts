@@ -6,6 +6,7 @@ import type { z } from 'zod'
 import type { User } from '#auth-utils'
 import type { callAssignSchema, callCancelSchema, callCreateSchema, callPatchSchema } from '#shared/schemas/calls'
 import { CALL_EDIT_FIELDS } from '#shared/schemas/calls'
+import { moveCallStatus } from './callMove'
 import type { Tx } from './db'
 
 type CallRow = typeof tables.calls.$inferSelect
@@ -34,13 +35,8 @@ async function assignInTx(tx: Tx, call: CallRow, input: z.output<typeof callAssi
   const previous = call.mechanicId && call.mechanicId !== mechanic.id
     ? await tx.query.users.findFirst({ where: eq(tables.users.id, call.mechanicId), columns: { name: true } })
     : null
-  const now = new Date()
-  const [row] = await tx.update(tables.calls).set({
-    mechanicId: mechanic.id, serviceTruckId: truckId, status: 'assigned', assignedAt: now,
-    ...(call.status !== 'assigned' ? { statusChangedAt: now } : {}),
-  }).where(eq(tables.calls.id, call.id)).returning()
-  await tx.insert(tables.callEvents).values({
-    callId: call.id, kind: 'assigned', fromStatus: call.status, toStatus: 'assigned', mechanicId: mechanic.id, byUserId: user.id, at: now,
+  const row = await moveCallStatus(tx, call, {
+    to: 'assigned', kind: 'assigned', by: user.id, mechanicId: mechanic.id, also: { mechanicId: mechanic.id, serviceTruckId: truckId },
     note: previous ? `Reassigned from ${previous.name}` : call.mechanicId === mechanic.id ? 'Assigned again to the same mechanic' : null,
   })
   const mail = await queueAssignmentMail(tx, call.id, user)
@@ -129,12 +125,9 @@ export async function cancelCall(id: string, input: z.output<typeof callCancelSc
     if (!canMoveStatus(call.status, 'cancelled') || call.status === 'cancelled') {
       ruleError('reason', `A call that is ${STATUS_LABELS[call.status].toLowerCase()} cannot be cancelled`)
     }
-    const now = new Date()
-    const [row] = await tx.update(tables.calls).set({ status: 'cancelled', cancelReason: input.reason, cancelledAt: now,
-      statusChangedAt: now })
-      .where(eq(tables.calls.id, id)).returning()
-    await tx.insert(tables.callEvents).values({ callId: id, kind: 'status', fromStatus: call.status, toStatus: 'cancelled',
-      mechanicId: call.mechanicId, byUserId: user.id, note: input.reason, at: now })
+    const row = await moveCallStatus(tx, call, {
+      to: 'cancelled', by: user.id, mechanicId: call.mechanicId, note: input.reason, also: { cancelReason: input.reason },
+    })
     if (call.mechanicId) await queueCancellationMail(tx, id, user)
     return row!
   })

@@ -2,6 +2,7 @@ import { and, desc, eq, ne, sql, type SQL } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { z } from 'zod'
 import type { invoiceListQuerySchema } from '#shared/schemas/invoices'
+import { moveCallStatus } from './callMove'
 
 /** The rates in force: the newest row by effective date. */
 export async function currentRates(db: Db | Tx = useDb()) {
@@ -28,8 +29,7 @@ export async function draftInvoice(callId: string, user: User) {
       pricingInput: input, dueAt: new Date(Date.now() + netDays * 86_400_000),
     }).returning()
     await writePriced(tx, invoice!.id, priced)
-    await tx.update(tables.calls).set({ status: 'invoiced', invoicedAt: new Date(), statusChangedAt: new Date() }).where(eq(tables.calls.id, callId))
-    await tx.insert(tables.callEvents).values({ callId, kind: 'status', fromStatus: 'completed', toStatus: 'invoiced', byUserId: user.id, note: `Invoice W-${invoice!.number} drafted` })
+    await moveCallStatus(tx, call, { to: 'invoiced', by: user.id, note: `Invoice W-${invoice!.number} drafted` })
     return invoice!.id
   })
 }

@@ -7,6 +7,7 @@ import Stripe from 'stripe'
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
 import type { User } from '#auth-utils'
+import { moveCallStatus } from './callMove'
 import { idempotencyKeySchema, METHODS_WITH_REFERENCE, PAYMENT_METHOD_WORDS, type paymentRecordSchema } from '#shared/schemas/payments'
 
 let stripe: Stripe | undefined
@@ -85,12 +86,8 @@ export async function settleInvoiceMoney(tx: Tx, inv: InvoiceRow, byUserId: stri
 }
 
 async function moveCall(tx: Tx, callId: string, to: 'paid' | 'invoiced', byUserId: string | null, note: string) {
-  const from = to === 'paid' ? 'invoiced' : 'paid'
-  const now = new Date()
-  const [moved] = await tx.update(tables.calls)
-    .set({ status: to, paidAt: to === 'paid' ? now : null, statusChangedAt: now })
-    .where(and(eq(tables.calls.id, callId), eq(tables.calls.status, from))).returning({ id: tables.calls.id })
-  if (moved) await tx.insert(tables.callEvents).values({ callId, kind: 'status', fromStatus: from, toStatus: to, byUserId, note })
+  // Only from the status the invoice implies: a call moved on meanwhile is left as it is.
+  await moveCallStatus(tx, { id: callId, status: to === 'paid' ? 'invoiced' : 'paid' }, { to, by: byUserId, note })
 }
 
 export type PaymentResult = { paymentId: string, replayed: boolean }

@@ -78,6 +78,20 @@ export function canMoveStatus(from: CallStatus, to: CallStatus): boolean {
   return statusRank(to) > statusRank(from)
 }
 
+/**
+ * The time columns a move writes (call properties → value). Forward, or to the same status as a
+ * reassignment: its status's time. Back (a refund reopens a paid call): the later statuses' times
+ * cleared, its own kept. statusChangedAt whenever the status changes.
+ */
+export function statusTimes(from: CallStatus, to: CallStatus, at: Date): Record<string, Date | null> {
+  const set: Record<string, Date | null> = {}
+  const back = to !== 'cancelled' && from !== 'cancelled' && statusRank(to) < statusRank(from)
+  if (back) for (const s of STATUS_ORDER.slice(statusRank(to) + 1, statusRank(from) + 1)) set[STATUS_TIME_FIELD[s]] = null
+  else set[STATUS_TIME_FIELD[to]] = at
+  if (from !== to) set.statusChangedAt = at
+  return set
+}
+
 /** Moves each role may make from the field (the phone's status buttons, by sync); billing and assignment have their own routes. */
 export const FIELD_STATUS_TARGETS: Record<Role, readonly CallStatus[]> = {
   mechanic: ['en_route', 'on_site', 'completed'],

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import {
   BILLED_STATUSES, CALL_STATUSES, canMoveStatus, canSeeCall, canWriteCall, CLOSED_STATUSES, DONE_STATUSES, isLockedStatus,
-  LOCKED_STATUSES, OPEN_STATUSES, outcomeProblem, STATUS_TIME_FIELD,
+  LOCKED_STATUSES, OPEN_STATUSES, outcomeProblem, STATUS_TIME_FIELD, statusTimes,
 } from '#shared/utils/callStatus'
 import { calls, callStatusEnum } from '~~/server/db/schema'
 
@@ -48,5 +48,21 @@ describe('access', () => {
     expect(canSeeCall({ id: 'm2', role: 'mechanic' }, call)).toBe(false)
     expect(canWriteCall({ id: 'm2', role: 'mechanic' }, { mechanicId: null })).toBe(false)
     for (const role of ['dispatcher', 'office', 'admin'] as const) expect(canWriteCall({ id: 'x', role }, call)).toBe(true)
+  })
+})
+
+describe('the times a move writes', () => {
+  const at = new Date('2026-11-30T14:05:00Z')
+  it('forward: stamps the new status\'s time and when the status changed', () => {
+    expect(statusTimes('on_site', 'completed', at)).toEqual({ completedAt: at, statusChangedAt: at })
+    expect(statusTimes('assigned', 'cancelled', at)).toEqual({ cancelledAt: at, statusChangedAt: at })
+  })
+
+  it('a reassignment (same status) stamps the assignment, not a status change', () => {
+    expect(statusTimes('assigned', 'assigned', at)).toEqual({ assignedAt: at })
+  })
+
+  it('back (a refund reopens a paid call): the later times cleared, the earlier kept', () => {
+    expect(statusTimes('paid', 'invoiced', at)).toEqual({ paidAt: null, statusChangedAt: at })
   })
 })
