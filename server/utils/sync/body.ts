@@ -61,7 +61,9 @@ export function jsonDeeperThan(text: string, max: number): boolean {
       else if (c === 34) inString = false
     }
     else if (c === 34) inString = true
-    else if (c === 123 || c === 91) { if (++depth > max) return true }
+    else if (c === 123 || c === 91) {
+      if (++depth > max) return true
+    }
     else if (c === 125 || c === 93) depth--
   }
   return false

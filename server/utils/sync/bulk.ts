@@ -10,7 +10,9 @@ import type { Tx } from '../db'
  * The INSERT for `rows` (all with the same keys, named as the table's properties). Rows that clash
  * with an existing one are skipped, unless skipClashes is false (then the statement fails).
  */
-export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], opts: { returning?: boolean, skipClashes?: boolean } = {}): SQL {
+export function bulkInsertSql(
+  table: PgTable, rows: Record<string, unknown>[], opts: { returning?: boolean, skipClashes?: boolean } = {},
+): SQL {
   const columns = getTableColumns(table) as Record<string, PgColumn>
   const keys = Object.keys(rows[0] ?? {})
   const names = keys.map((key) => {
@@ -26,7 +28,8 @@ export function bulkInsertSql(table: PgTable, rows: Record<string, unknown>[], o
   const list = sql.join(names.map(n => sql.identifier(n)), sql`, `)
   const clashes = opts.skipClashes === false ? sql`` : sql` ON CONFLICT DO NOTHING`
   const returning = opts.returning === false ? sql`` : sql` RETURNING id`
-  return sql`INSERT INTO ${table} (${list}) SELECT ${list} FROM json_populate_recordset(NULL::${table}, ${JSON.stringify(records)}::json)${clashes}${returning}`
+  const source = sql`json_populate_recordset(NULL::${table}, ${JSON.stringify(records)}::json)`
+  return sql`INSERT INTO ${table} (${list}) SELECT ${list} FROM ${source}${clashes}${returning}`
 }
 
 /** Inserts `rows`, skipping those that clash with an existing row, and answers the ids written. */

@@ -21,10 +21,36 @@ function ruleFromReason(reason: string, status = 422): SyncRuleError {
   return at > 0 ? new SyncRuleError(reason.slice(0, at), reason.slice(at + 2), status) : new SyncRuleError('_', reason, status)
 }
 
+/** A conflict as the applier raises it: which field of which record, why, and the values to keep. */
+export interface RaisedConflict {
+  callId: string
+  entity: string
+  entityId: string
+  field: string
+  reason: string
+  opId: string
+  raisedBy: string
+  /** The value the device started from, when it said (a record sent for a billed call has none). */
+  base?: { value: unknown }
+  device: unknown
+  server: unknown
+}
+
+/** The one way the applier raises conflicts: rows kept with both values until a person settles them. */
+export async function raiseConflicts(tx: Tx, rows: RaisedConflict[]) {
+  if (!rows.length) return
+  const json = (v: unknown) => sql`${JSON.stringify(v ?? null)}::jsonb`
+  await tx.insert(tables.conflicts).values(rows.map(({ base, device, server, ...r }) => ({
+    ...r, ...(base ? { baseValue: json(base.value) } : {}), deviceValue: json(device), serverValue: json(server),
+  })))
+}
+
 export type ConflictChoice = 'device' | 'server' | 'value'
 export type ConflictRow = typeof tables.conflicts.$inferSelect
 
-export async function resolveConflictInTx(tx: Tx, user: User, conflictId: string, choice: ConflictChoice, value: unknown, opts: { hasValue: boolean }) {
+export async function resolveConflictInTx(
+  tx: Tx, user: User, conflictId: string, choice: ConflictChoice, value: unknown, opts: { hasValue: boolean },
+) {
   const { conflicts, calls } = tables
   const [conflict] = await tx.select().from(conflicts).where(eq(conflicts.id, conflictId)).for('update')
   const [call] = conflict ? await tx.select().from(calls).where(eq(calls.id, conflict.callId)).for('no key update') : []
@@ -50,7 +76,8 @@ export async function resolveConflictInTx(tx: Tx, user: User, conflictId: string
 
   if (conflict.status === 'resolved') {
     // Settled already: the same decision again is a no-op; a different one must not overturn it.
-    if (conflict.choice === choice && JSON.stringify(conflict.resolvedValue ?? null) === JSON.stringify(target ?? null)) return { conflict, call }
+    const same = conflict.choice === choice && JSON.stringify(conflict.resolvedValue ?? null) === JSON.stringify(target ?? null)
+    if (same) return { conflict, call }
     throw new SyncRuleError('conflictId', 'already settled', 409)
   }
 
@@ -58,7 +85,9 @@ export async function resolveConflictInTx(tx: Tx, user: User, conflictId: string
   if (choice !== 'server') {
     // The person decided: base is taken as the server's value, so only role, lock and order rules remain.
     const current = call[field as keyof CallRow]
-    const decision = mergeCallField({ field, device: target, server: current, base: { value: current }, role: user.role, serverStatus: call.status })
+    const decision = mergeCallField({
+      field, device: target, server: current, base: { value: current }, role: user.role, serverStatus: call.status,
+    })
     if (decision.action === 'reject') throw ruleFromReason(decision.reason, 403)
     if (decision.action === 'conflict' || decision.action === 'keep') throw ruleFromReason(decision.reason)
     if (decision.action === 'take') {
@@ -100,7 +129,10 @@ export async function resolveConflict(user: User, conflictId: string, choice: Co
   }
   catch (err) {
     if (!(err instanceof SyncRuleError)) throw err
-    throw createError({ status: err.status, statusText: err.status === 404 ? 'Not Found' : 'Cannot settle', message: err.message, data: { fields: { [err.field]: err.detail } } })
+    throw createError({
+      status: err.status, statusText: err.status === 404 ? 'Not Found' : 'Cannot settle', message: err.message,
+      data: { fields: { [err.field]: err.detail } },
+    })
   }
 }
 
@@ -111,14 +143,19 @@ export async function listConflicts(user: User, q: { callId?: string, status: 'o
   if (user.role === 'mechanic') where.push(eq(calls.mechanicId, user.id))
   if (q.callId) where.push(eq(conflicts.callId, q.callId))
   if (q.status !== 'all') where.push(eq(conflicts.status, q.status))
-  const rows = await useDb().select({ conflict: conflicts, callNumber: calls.number, callStatus: calls.status, customerName: customers.name })
+  const rows = await useDb()
+    .select({ conflict: conflicts, callNumber: calls.number, callStatus: calls.status, customerName: customers.name })
     .from(conflicts)
     .innerJoin(calls, eq(calls.id, conflicts.callId))
     .innerJoin(customers, eq(customers.id, calls.customerId))
     .where(where.length ? and(...where) : undefined)
     .orderBy(desc(conflicts.createdAt))
     .limit(500)
-  return { items: rows.map(r => ({ ...publicConflict(r.conflict), callNumber: r.callNumber, callStatus: r.callStatus, customerName: r.customerName })) }
+  return {
+    items: rows.map(r => ({
+      ...publicConflict(r.conflict), callNumber: r.callNumber, callStatus: r.callStatus, customerName: r.customerName,
+    })),
+  }
 }
 
 export function publicConflict(c: ConflictRow) {

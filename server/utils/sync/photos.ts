@@ -20,7 +20,10 @@ export function sniffImageType(b: Uint8Array): PhotoType | undefined {
 const storageKey = (id: string) => `photos:${id}`
 
 function photoRule(status: number, field: string, message: string): never {
-  throw createError({ status, statusText: status === 415 ? 'Unsupported Media Type' : 'Unprocessable', message: `${field}: ${message}`, data: { fields: { [field]: message } } })
+  throw createError({
+    status, statusText: status === 415 ? 'Unsupported Media Type' : 'Unprocessable', message: `${field}: ${message}`,
+    data: { fields: { [field]: message } },
+  })
 }
 
 async function photoWithAccess(event: H3Event, id: string) {
@@ -36,7 +39,9 @@ export async function putPhotoBytes(event: H3Event, id: string) {
   const declared = (getRequestHeader(event, 'x-content-sha256') ?? '').trim().toLowerCase()
   if (!/^[0-9a-f]{64}$/.test(declared)) photoRule(400, 'X-Content-Sha256', 'send the hex SHA-256 of the bytes')
   const type = (getRequestHeader(event, 'content-type') ?? '').split(';')[0]!.trim().toLowerCase()
-  if (!type.startsWith('image/') && type !== 'application/octet-stream') photoRule(415, 'Content-Type', 'send the photo as image/* or application/octet-stream')
+  if (!type.startsWith('image/') && type !== 'application/octet-stream') {
+    photoRule(415, 'Content-Type', 'send the photo as image/* or application/octet-stream')
+  }
   const max = Number(useRuntimeConfig().photoMaxBytes)
   assertDeclaredLength(event, max)
   const photo = await photoWithAccess(event, id)
@@ -51,14 +56,16 @@ export async function putPhotoBytes(event: H3Event, id: string) {
 
   const storage = useStorage('uploads')
   if (photo.storageKey && photo.uploadedAt && await storage.hasItem(photo.storageKey)) {
-    return { id, sha256: actual, contentType: photo.contentType, sizeBytes: photo.sizeBytes, uploadedAt: photo.uploadedAt, stored: 'already' as const }
+    const { contentType, sizeBytes, uploadedAt } = photo
+    return { id, sha256: actual, contentType, sizeBytes, uploadedAt, stored: 'already' as const }
   }
   const key = storageKey(id)
   await storage.setItemRaw(key, bytes)
   const [row] = await useDb().update(tables.photos)
     .set({ storageKey: key, uploadedAt: sql`now()`, contentType: sniffed, sizeBytes: bytes.length, sha256: actual })
     .where(eq(tables.photos.id, id)).returning()
-  return { id, sha256: actual, contentType: row!.contentType, sizeBytes: row!.sizeBytes, uploadedAt: row!.uploadedAt, stored: 'now' as const }
+  const { contentType, sizeBytes, uploadedAt } = row!
+  return { id, sha256: actual, contentType, sizeBytes, uploadedAt, stored: 'now' as const }
 }
 
 export async function getPhotoBytes(event: H3Event, id: string): Promise<Buffer> {

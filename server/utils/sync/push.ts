@@ -1,12 +1,16 @@
 // POST /api/sync/push: one transaction per push. The sync_clients row is locked first, so two
 // pushes from one device run one after the other and the second finds the first's ops already
 // stored (duplicates). Ops, their stored results and the client's last seq commit together.
+// A push runs with the fast strategy; if the database refuses a row it runs again, whole, with the
+// careful one (strategy.ts), which rejects only the refused ops.
 import { and, eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { PushBody, PushResult } from '#shared/schemas/sync'
-import { applySyncOps, isSyncDataError, SyncCarefulPass, type OpOutcome } from './apply'
+import { applySyncOps } from './apply'
+import type { OpOutcome } from './context'
 import { bulkInsertSql } from './bulk'
 import { pgErrorCode, withTxRetry } from './retry'
+import { CAREFUL_PASS, FAST_PASS, isDataRefusal, PushRefused, type ApplyStrategy } from './strategy'
 import { syncTestInjectSerializationFailure, syncTestPause } from './testHooks'
 
 /** An op past the next expected seq: nothing was applied; the device resends from expectedSeq. */
@@ -19,19 +23,23 @@ export class SyncSeqGapError extends Error {
 type Result = PushResult['results'][number]
 
 export async function syncPush(user: User, body: PushBody, meta: { userAgent?: string } = {}): Promise<PushResult> {
-  let answer: PushResult
-  try {
-    answer = await pushOnce(user, body, meta, false)
-  }
-  catch (err) {
-    if (!(err instanceof SyncCarefulPass)) throw err
-    answer = await pushOnce(user, body, meta, true)
-  }
+  const answer = await pushWith(FAST_PASS, user, body, meta) ?? await pushWith(CAREFUL_PASS, user, body, meta)
   await syncTestPause('after-commit')
-  return answer
+  return answer!
 }
 
-function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, careful: boolean): Promise<PushResult> {
+/** The push under one strategy; undefined when the fast pass met a refused row (and rolled back). */
+async function pushWith(strategy: ApplyStrategy, user: User, body: PushBody, meta: { userAgent?: string }) {
+  try {
+    return await pushOnce(user, body, meta, strategy)
+  }
+  catch (err) {
+    if (err instanceof PushRefused && strategy === FAST_PASS) return undefined
+    throw err
+  }
+}
+
+function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, strategy: ApplyStrategy): Promise<PushResult> {
   const photoMaxBytes = Number(useRuntimeConfig().photoMaxBytes)
   const userAgent = meta.userAgent?.slice(0, 300) ?? null
   return withTxRetry(() => useDb().transaction(async (tx) => {
@@ -61,7 +69,8 @@ function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, care
       const s = storedBySeq.get(op.seq)
       if (s && s.opId !== op.opId) {
         // The seq was used by another op of this device: this one was never applied.
-        results.set(op.opId, { opId: op.opId, seq: op.seq, status: 'rejected', reason: `seq: ${op.seq} was already used by another op from this device` })
+        const reason = `seq: ${op.seq} was already used by another op from this device`
+        results.set(op.opId, { opId: op.opId, seq: op.seq, status: 'rejected', reason })
         continue
       }
       const r: Result = { opId: op.opId, seq: op.seq, status: 'duplicate' }
@@ -79,10 +88,11 @@ function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, care
     }
 
     let outcomes: OpOutcome[] = []
-    let deferred: SQL[] = []
-    if (fresh.length) ({ outcomes, deferred } = await applySyncOps(tx, user, fresh, { photoMaxBytes }, careful))
+    let closing: SQL[] = []
+    if (fresh.length) ({ outcomes, closing } = await applySyncOps(tx, user, fresh, { photoMaxBytes }, strategy))
     const lastSeq = fresh.length ? fresh[fresh.length - 1]!.seq : client.lastSeq
-    const advance = sql`UPDATE sync_clients SET last_seq = ${lastSeq}, last_seen_at = now(), user_agent = coalesce(${userAgent}, user_agent) WHERE id = ${client.id}`
+    const advance = sql`UPDATE sync_clients SET last_seq = ${lastSeq}, last_seen_at = now(),
+      user_agent = coalesce(${userAgent}, user_agent) WHERE id = ${client.id}`
     if (fresh.length) {
       // The ops' stored results and the new last seq in one statement.
       const opRows = fresh.map((op, i) => ({
@@ -90,12 +100,12 @@ function pushOnce(user: User, body: PushBody, meta: { userAgent?: string }, care
         status: outcomes[i]!.status, version: outcomes[i]!.version ?? null, reason: outcomes[i]!.reason ?? null,
       }))
       // The fast pass's last inserts, the ops' stored results and the new last seq: one statement.
-      const parts = [...deferred, bulkInsertSql(syncOps, opRows, { returning: false })].map((q, i) => sql`${sql.raw(`w${i}`)} AS (${q})`)
+      const parts = [...closing, bulkInsertSql(syncOps, opRows, { returning: false })].map((q, i) => sql`${sql.raw(`w${i}`)} AS (${q})`)
       try {
         await tx.execute(sql`WITH ${sql.join(parts, sql`, `)} ${advance}`)
       }
       catch (err) {
-        throw !careful && isSyncDataError(err) ? new SyncCarefulPass(err) : err
+        throw strategy === FAST_PASS && isDataRefusal(err) ? new PushRefused(err) : err
       }
       fresh.forEach((op, i) => {
         const o = outcomes[i]!
