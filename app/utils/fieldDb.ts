@@ -71,8 +71,11 @@ export interface CollectionRows {
   readings: DeviceRecord<ReadingWire>
   faultCodes: DeviceRecord<FaultCodeWire>
   notes: DeviceRecord<NoteWire>
-  /** `thumb`: a small copy kept on the phone only; `uploadedAt`: the server confirmed the bytes. */
-  photos: DeviceRecord<PhotoWire & { thumb: string, uploadedAt: string }>
+  /**
+   * `thumb`: a small copy kept on the phone only; `uploadedAt`: the server confirmed the bytes;
+   * `notAdded`: why the server kept the photo as a conflict instead (a billed call), its bytes not sent.
+   */
+  photos: DeviceRecord<PhotoWire & { thumb: string, uploadedAt: string, notAdded: string }>
   clockEvents: DeviceRecord<ClockEventWire>
   partLines: DeviceRecord<PartLineWire>
   testRuns: DeviceRecord<TestRunWire>

@@ -36,13 +36,34 @@ async function trimJournal(store: IDBObjectStore) {
   for (const k of keys.slice(0, keys.length - JOURNAL_KEEP)) store.delete(k)
 }
 
+/**
+ * A photo's record was answered. Applied: its bytes may go up now. Kept as a conflict (the call was
+ * billed): the server has no photo row to take bytes, so the upload is settled with the conflict,
+ * never retried; the record on the phone says why, the conflict waits for the office.
+ */
+async function photoOpAnswered(tx: IDBTransaction, e: OutboxEntry, status: string, reason?: string | null) {
+  const photos = tx.objectStore('photos')
+  const p = await promisifyRequest<QueuedPhoto | undefined>(photos.get(e.entityId))
+  if (status !== 'conflict') {
+    if (p) photos.put({ ...p, opApplied: true }, p.id)
+    return
+  }
+  if (p) photos.delete(p.id)
+  const calls = tx.objectStore('calls')
+  const b = await promisifyRequest<CallBundle | undefined>(calls.get(e.callId))
+  const rec = b?.records.photos?.[e.entityId]
+  if (b && rec) {
+    rec.notAdded = reason ?? 'The call was billed; the office keeps the photo as a change to settle'
+    calls.put(b, b.id)
+  }
+}
+
 /** Records what the server said about each sent op. Returns how many of them it answered. */
 export async function applyPushResults(sent: readonly OutboxEntry[], answer: PushResult): Promise<number> {
   const byOp = new Map(sent.map(e => [e.opId, e]))
   return deviceTx(['outbox', 'journal', 'photos', 'calls'], 'readwrite', async (tx) => {
     const outbox = tx.objectStore('outbox')
     const journal = tx.objectStore('journal')
-    const photos = tx.objectStore('photos')
     let answered = 0
     for (const r of answer.results) {
       const e = byOp.get(r.opId)
@@ -55,10 +76,7 @@ export async function applyPushResults(sent: readonly OutboxEntry[], answer: Pus
       }
       outbox.delete(e.seq)
       journal.put(journalOf(e, r.status, r.reason), e.seq)
-      if (e.entity === 'photo' && e.action === 'create') {
-        const p = await promisifyRequest<QueuedPhoto | undefined>(photos.get(e.entityId))
-        if (p) photos.put({ ...p, opApplied: true }, p.id)
-      }
+      if (e.entity === 'photo' && e.action === 'create') await photoOpAnswered(tx, e, r.status, r.reason)
     }
     // Ops the answer did not mention stay pending, counted as one more try.
     const named = new Set(answer.results.map(r => r.opId))

@@ -57,6 +57,22 @@ describe('photo queue', () => {
     expect((await readBundle(CALL_ID))?.records.photos[id]?.uploadedAt).toBeTruthy()
   })
 
+  it('stops for good when the server keeps the photo as a conflict (a billed call): no upload, no retry', async () => {
+    const id = await useFieldStore().addPhoto(CALL_ID, { bytes: jpegish(), contentType: 'image/jpeg' })
+    const reason = 'callId: the call is invoiced; the photo is kept for the office to add to a credit note or a follow-up call'
+    server.script = async (url, init) => {
+      if (url !== '/api/sync/push') return undefined
+      const { ops } = JSON.parse(String(init.body)) as { ops: { opId: string, seq: number }[] }
+      return json(200, { lastSeq: ops.at(-1)!.seq, results: ops.map(o => ({ opId: o.opId, seq: o.seq, status: 'conflict', reason })) })
+    }
+    await useSyncStore().runOnce({ fetch: server.fetch })
+    await useSyncStore().runOnce({ fetch: server.fetch })
+    expect(server.requests.some(r => r.method === 'PUT')).toBe(false)
+    expect(await readOutbox()).toEqual([])
+    expect(await readPhotoQueue()).toEqual([])
+    expect((await readBundle(CALL_ID))?.records.photos[id]?.notAdded).toBe(reason)
+  })
+
   it('keeps the bytes when the server refuses them', async () => {
     await useFieldStore().addPhoto(CALL_ID, { bytes: jpegish(), contentType: 'image/jpeg' })
     server.script = (url, init) => (init.method === 'PUT' ? json(422, { statusText: 'Not an image' }) : undefined)
