@@ -42,7 +42,9 @@ export interface CallView {
 }
 
 function codeLabel(r: DeviceRow) {
-  try { return describeFaultCode({ code: r.code as string | null, spn: r.spn as number | null, fmi: r.fmi as number | null }).label }
+  try {
+    return describeFaultCode({ code: r.code as string | null, spn: r.spn as number | null, fmi: r.fmi as number | null }).label
+  }
   catch { return String(r.code ?? `SPN ${r.spn} FMI ${r.fmi}`) }
 }
 
@@ -108,7 +110,9 @@ export const useFieldStore = defineStore('field', () => {
   }
 
   /** Changes fields of a fault code or test run (clearing a code, adding steps to a run). */
-  async function updateRecord(entity: UpdatableEntity, id: string, changes: Record<string, unknown>, base?: Record<string, unknown>): Promise<void> {
+  async function updateRecord(
+    entity: UpdatableEntity, id: string, changes: Record<string, unknown>, base?: Record<string, unknown>,
+  ): Promise<void> {
     const bundle = (await readBundles()).find(b => b.records[RECORD_COLLECTION[entity]]?.[id])
     if (!bundle) throw new Error('That record is not on the phone')
     const rec = bundle.records[RECORD_COLLECTION[entity]][id]!
@@ -116,7 +120,10 @@ export const useFieldStore = defineStore('field', () => {
       entity, entityId: id, action: 'update', changes,
       base: base ?? pick(rec, Object.keys(changes)),
       baseVersion: typeof rec.version === 'number' ? rec.version : undefined,
-      apply: (b, _at, checked) => { const r = b.records[RECORD_COLLECTION[entity]][id]; if (r) Object.assign(r, checked) },
+      apply: (b, _at, checked) => {
+        const r = b.records[RECORD_COLLECTION[entity]][id]
+        if (r) Object.assign(r, checked)
+      },
     }])
     await afterWrite(bundle.id)
   }
@@ -130,7 +137,9 @@ export const useFieldStore = defineStore('field', () => {
    * A call change and records that belong with it (a status step and its clock event) in one
    * transaction, so one never syncs without the other.
    */
-  async function writeCall(callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[]) {
+  async function writeCall(
+    callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
+  ) {
     const bundle = await readBundle(callId)
     if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
     const list: LocalChange[] = []
@@ -151,13 +160,16 @@ export const useFieldStore = defineStore('field', () => {
    * A photo: its record op and its bytes (with their SHA-256) queued in one transaction. The
    * bytes go up on their own queue once the server applied the record.
    */
-  async function addPhoto(callId: string, photo: { bytes: ArrayBuffer, contentType: string, caption?: string, thumb?: string }): Promise<string> {
+  async function addPhoto(
+    callId: string, photo: { bytes: ArrayBuffer, contentType: string, caption?: string, thumb?: string },
+  ): Promise<string> {
     const id = crypto.randomUUID()
     const sha256 = await sha256Hex(photo.bytes)
     const fields: Record<string, unknown> = { callId, contentType: photo.contentType, sizeBytes: photo.bytes.byteLength, sha256 }
     if (photo.caption) fields.caption = photo.caption
     const change = createChange('photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
-    change.photo = { id, callId, bytes: photo.bytes, sha256, contentType: photo.contentType, size: photo.bytes.byteLength, opApplied: false, tries: 0 }
+    const { bytes, contentType } = photo
+    change.photo = { id, callId, bytes, sha256, contentType, size: bytes.byteLength, opApplied: false, tries: 0 }
     await commitChanges(callId, [change])
     await afterWrite(callId)
     return id
@@ -169,7 +181,10 @@ export const useFieldStore = defineStore('field', () => {
     if (choice === 'value') changes.value = value
     await commitChanges(callId, [{
       entity: 'conflictResolution', entityId: conflictId, action: 'create', changes,
-      apply: (b) => { const c = b.records.conflicts[conflictId]; if (c) c.pendingChoice = choice },
+      apply: (b) => {
+        const c = b.records.conflicts[conflictId]
+        if (c) c.pendingChoice = choice
+      },
     }])
     await afterWrite(callId)
   }
@@ -188,7 +203,9 @@ export const useFieldStore = defineStore('field', () => {
 })
 
 /** A create op; `localOnly` fields (a thumbnail) stay on the phone and are not sent. */
-function createChange(entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {}): LocalChange {
+function createChange(
+  entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {},
+): LocalChange {
   return {
     entity, entityId: id, action: 'create', changes: fields,
     apply: (b, at, checked) => { b.records[RECORD_COLLECTION[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },

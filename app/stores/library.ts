@@ -53,7 +53,9 @@ export const useLibraryStore = defineStore('library', () => {
   }
 
   // A sync that brought cards while a card list is open shows them at once.
-  watch(() => useSyncStore().libraryPulls, () => { if (loaded.value) void ensure() })
+  watch(() => useSyncStore().libraryPulls, () => {
+    if (loaded.value) void ensure()
+  })
 
   return { cards, fetchedAt, loaded, ensure, card, getRun, saveRun, dropRun, runsOfCall }
 })

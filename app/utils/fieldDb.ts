@@ -123,11 +123,15 @@ export async function getMeta<T>(key: string): Promise<T | undefined> {
   return deviceTx(['meta'], 'readonly', tx => promisifyRequest<T | undefined>(tx.objectStore('meta').get(key)))
 }
 export async function setMeta(key: string, value: unknown): Promise<void> {
-  await deviceTx(['meta'], 'readwrite', (tx) => { tx.objectStore('meta').put(value, key) })
+  await deviceTx(['meta'], 'readwrite', (tx) => {
+    tx.objectStore('meta').put(value, key)
+  })
 }
 
 export async function setLibrary(key: string, value: unknown): Promise<void> {
-  await deviceTx(['library'], 'readwrite', (tx) => { tx.objectStore('library').put(value, key) })
+  await deviceTx(['library'], 'readwrite', (tx) => {
+    tx.objectStore('library').put(value, key)
+  })
 }
 
 /** What one local change does: the op to queue and how the call's bundle changes with it. */
@@ -200,7 +204,10 @@ function checkedChange(c: LocalChange): LocalChange {
 }
 
 export async function readOutbox(): Promise<OutboxEntry[]> {
-  return deviceTx(['outbox'], 'readonly', async tx => (await promisifyRequest<OutboxEntry[]>(tx.objectStore('outbox').getAll())).sort((a, b) => a.seq - b.seq))
+  return deviceTx(['outbox'], 'readonly', async (tx) => {
+    const all = await promisifyRequest<OutboxEntry[]>(tx.objectStore('outbox').getAll())
+    return all.sort((a, b) => a.seq - b.seq)
+  })
 }
 
 export async function readJournal(limit = 100): Promise<JournalEntry[]> {
@@ -244,7 +251,10 @@ export async function claimDevice(userId: string): Promise<'mine' | 'cleared' | 
     const meta = tx.objectStore('meta')
     const owner = await promisifyRequest<string | undefined>(meta.get('ownerId'))
     if (owner === userId) return 'mine'
-    if (owner === undefined) { meta.put(userId, 'ownerId'); return 'mine' }
+    if (owner === undefined) {
+      meta.put(userId, 'ownerId')
+      return 'mine'
+    }
     const waiting = await promisifyRequest<number>(tx.objectStore('outbox').count())
     const photos = await promisifyRequest<number>(tx.objectStore('photos').count())
     if (waiting + photos > 0) return 'foreign'

@@ -70,7 +70,8 @@ export async function applyPushResults(sent: readonly OutboxEntry[], answer: Pus
       if (!e) continue
       answered++
       if (r.status === 'rejected') {
-        outbox.put({ ...e, state: 'rejected', reason: r.reason ?? 'Refused by the server', tries: e.tries + 1 } satisfies OutboxEntry, e.seq)
+        const reason = r.reason ?? 'Refused by the server'
+        outbox.put({ ...e, state: 'rejected', reason, tries: e.tries + 1 } satisfies OutboxEntry, e.seq)
         journal.put(journalOf(e, 'rejected', r.reason), e.seq)
         continue
       }
@@ -108,7 +109,10 @@ export async function realignSeq(expectedSeq: number): Promise<void> {
     if (rest.length && rest[0]!.seq > expectedSeq) {
       for (const e of rest) outbox.delete(e.seq)
       let seq = expectedSeq - 1
-      for (const e of rest) { seq += 1; outbox.put({ ...e, seq }, seq) }
+      for (const e of rest) {
+        seq += 1
+        outbox.put({ ...e, seq }, seq)
+      }
       // Read in this transaction, so an op written meanwhile by another tab is renumbered too.
       tx.objectStore('meta').put(seq, 'seq')
     }
@@ -150,7 +154,10 @@ export async function photoConfirmed(id: string, sha256: string): Promise<void> 
     const calls = tx.objectStore('calls')
     const b = await promisifyRequest<CallBundle | undefined>(calls.get(p.callId))
     const rec = b?.records.photos[id]
-    if (b && rec) { rec.uploadedAt = rec.uploadedAt ?? new Date().toISOString(); calls.put(b, b.id) }
+    if (b && rec) {
+      rec.uploadedAt = rec.uploadedAt ?? new Date().toISOString()
+      calls.put(b, b.id)
+    }
   })
 }
 
@@ -220,17 +227,33 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     for (const b of bundles.values()) {
       const unit = b.call.unitId ? lookups.units?.[String(b.call.unitId)] : undefined
       const customer = lookups.customers?.[String(b.call.customerId)]
-      if (unit && unit !== b.unit) { b.unit = unit; changed.add(b.id) }
-      if (customer && customer !== b.customer) { b.customer = customer; changed.add(b.id) }
+      if (unit && unit !== b.unit) {
+        b.unit = unit
+        changed.add(b.id)
+      }
+      if (customer && customer !== b.customer) {
+        b.customer = customer
+        changed.add(b.id)
+      }
     }
     for (const id of answer.revokedCallIds) {
       const b = bundles.get(id)
       if (!b) continue
       const stillWaiting = [...waiting.values()].some(list => list.some(e => e.callId === id))
-      if (stillWaiting) { b.revoked = true; changed.add(id) }
-      else { callsStore.delete(id); bundles.delete(id); changed.delete(id) }
+      if (stillWaiting) {
+        b.revoked = true
+        changed.add(id)
+      }
+      else {
+        callsStore.delete(id)
+        bundles.delete(id)
+        changed.delete(id)
+      }
     }
-    for (const id of changed) { const b = bundles.get(id); if (b) callsStore.put(b, id) }
+    for (const id of changed) {
+      const b = bundles.get(id)
+      if (b) callsStore.put(b, id)
+    }
 
     await storeCards(lib, ch.testCards ?? [], (await promisifyRequest<unknown>(tx.objectStore('meta').get('cursor'))) === undefined)
     const rateRows = Array.isArray(ch.rates) ? ch.rates : ch.rates ? [ch.rates] : []
@@ -257,7 +280,10 @@ async function storeCards(lib: IDBObjectStore, pulled: readonly Record<string, u
   for (const row of pulled) {
     const card = cardOf(row)
     if (!card) continue
-    if (!card.active) { list.delete(card.id); continue }
+    if (!card.active) {
+      list.delete(card.id)
+      continue
+    }
     list.set(card.id, card)
     lib.put(card, cardKey(card.id, card.version))
   }

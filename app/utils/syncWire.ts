@@ -34,8 +34,12 @@ export const photoPutAnswerSchema = z.object({ sha256: z.string().regex(/^[0-9a-
 /** Parses a response body as JSON and checks it; undefined when it is anything else. */
 export function parseAnswer<T>(schema: z.ZodType<T>, text: string): T | undefined {
   let json: unknown
-  try { json = JSON.parse(text) }
-  catch { return undefined }
+  try {
+    json = JSON.parse(text)
+  }
+  catch {
+    return undefined
+  }
   const r = schema.safeParse(json)
   return r.success ? r.data : undefined
 }

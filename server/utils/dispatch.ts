@@ -106,7 +106,8 @@ export async function updateCall(id: string, patch: z.output<typeof callPatchSch
     }
     const unitId = changes.unitId === undefined ? call.unitId : changes.unitId
     if (unitId && !(await unitBelongsTo(tx, unitId, customerId))) ruleError('unitId', 'This unit is not one of the customer\'s')
-    const changed = CALL_EDIT_FIELDS.filter(f => f in changes && JSON.stringify(changes[f as keyof typeof changes]) !== JSON.stringify(call[f]))
+    const differs = (f: (typeof CALL_EDIT_FIELDS)[number]) => JSON.stringify(changes[f as keyof typeof changes]) !== JSON.stringify(call[f])
+    const changed = CALL_EDIT_FIELDS.filter(f => f in changes && differs(f))
     if (!changed.length) return call
     const [row] = await tx.update(tables.calls).set(changes).where(and(eq(tables.calls.id, id), eq(tables.calls.version,
       version))).returning()
@@ -138,7 +139,9 @@ export async function suggestionsFor(call: CallRow) {
   const db = useDb()
   const { users, serviceTrucks } = tables
   // Named outright: drizzle may leave columns unqualified, which would bind them to the subquery's table.
-  const load = sql<number>`(SELECT count(*)::int FROM calls mc WHERE mc.mechanic_id = "users"."id" AND mc.status IN (${sql.join(WORKING_STATUSES.map(s => sql`${s}`), sql`, `)}) AND mc.id <> ${call.id})`
+  const working = sql.join(WORKING_STATUSES.map(s => sql`${s}`), sql`, `)
+  const load = sql<number>`(SELECT count(*)::int FROM calls mc
+    WHERE mc.mechanic_id = "users"."id" AND mc.status IN (${working}) AND mc.id <> ${call.id})`
   const rows = await db.select({
     id: users.id, name: users.name, phone: users.phone, onDuty: users.onDuty, lastLat: users.lastLat, lastLon: users.lastLon,
     lastPositionAt: users.lastPositionAt, openCalls: load, homeTruck: { id: serviceTrucks.id, name: serviceTrucks.name },

@@ -16,9 +16,12 @@ export async function draftInvoice(callId: string, user: User) {
   return useDb().transaction(async (tx) => {
     const [call] = await tx.select().from(tables.calls).where(eq(tables.calls.id, callId)).for('update')
     if (!call) throw createError({ status: 404, statusText: 'No such call' })
-    const [open] = await tx.select({ id: tables.invoices.id }).from(tables.invoices).where(and(eq(tables.invoices.callId, callId), ne(tables.invoices.status, 'void')))
+    const { invoices } = tables
+    const [open] = await tx.select({ id: invoices.id }).from(invoices).where(and(eq(invoices.callId, callId), ne(invoices.status, 'void')))
     if (open) ruleError('callId', 'This call already has an invoice')
-    if (call.status !== 'completed') ruleError('callId', `Only a call whose work is done can be billed (this one is ${STATUS_LABELS[call.status].toLowerCase()})`)
+    if (!isBillableStatus(call.status)) {
+      ruleError('callId', `Only a call whose work is done can be billed (this one is ${STATUS_LABELS[call.status].toLowerCase()})`)
+    }
     const [customer] = await tx.select().from(tables.customers).where(eq(tables.customers.id, call.customerId))
     const rates = await currentRates(tx)
     const input = await pricingInputFor(tx, call, rates, customer?.taxExempt ?? false)
@@ -50,8 +53,17 @@ export async function getInvoice(id: string) {
   return {
     ...rest,
     money: invoiceMoney(rest),
-    customer: { id: customer.id, name: customer.name, billingEmail: customer.billingEmail, billingTerms: customer.billingTerms, netDays: customer.netDays, taxExempt: customer.taxExempt },
-    call: { id: call.id, number: call.number, status: call.status, outcome: call.outcome, locationText: call.locationText, complaint: call.complaint, poNumber: call.poNumber, authLimitCents: call.authLimitCents, storyComplaint: call.storyComplaint, storyCause: call.storyCause, storyCorrection: call.storyCorrection, completedAt: call.completedAt, unit: call.unit ? { unitNumber: call.unit.unitNumber, vin: call.unit.vin, yearMakeModel: call.unit.yearMakeModel } : null },
+    customer: {
+      id: customer.id, name: customer.name, billingEmail: customer.billingEmail, billingTerms: customer.billingTerms,
+      netDays: customer.netDays, taxExempt: customer.taxExempt,
+    },
+    call: {
+      id: call.id, number: call.number, status: call.status, outcome: call.outcome, locationText: call.locationText,
+      complaint: call.complaint, poNumber: call.poNumber, authLimitCents: call.authLimitCents,
+      storyComplaint: call.storyComplaint, storyCause: call.storyCause,
+      storyCorrection: call.storyCorrection, completedAt: call.completedAt,
+      unit: call.unit ? { unitNumber: call.unit.unitNumber, vin: call.unit.vin, yearMakeModel: call.unit.yearMakeModel } : null,
+    },
   }
 }
 export type InvoiceDetail = NonNullable<Awaited<ReturnType<typeof getInvoice>>>

@@ -56,7 +56,9 @@ export function pgErrorOf(err: unknown): { code?: string, constraint?: string } 
   return { code: e?.code ?? e?.cause?.code, constraint: e?.constraint ?? e?.cause?.constraint }
 }
 
-async function sumOf(q: PromiseLike<{ n: number }[]>) { return (await q)[0]?.n ?? 0 }
+async function sumOf(q: PromiseLike<{ n: number }[]>) {
+  return (await q)[0]?.n ?? 0
+}
 
 /**
  * Recounts what the invoice has received, less refunds, and what credit notes took off; moves the
@@ -92,7 +94,9 @@ async function moveCall(tx: Tx, callId: string, to: 'paid' | 'invoiced', byUserI
 
 export type PaymentResult = { paymentId: string, replayed: boolean }
 
-function invoiceNo(inv: InvoiceRow) { return `W-${inv.number}` }
+function invoiceNo(inv: InvoiceRow) {
+  return `W-${inv.number}`
+}
 
 /** Refuses a second intent on an invoice with nothing left to pay, saying what settled it. */
 async function requireBalance(tx: Tx, inv: InvoiceRow) {

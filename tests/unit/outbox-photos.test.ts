@@ -7,25 +7,32 @@ import { FakeSyncServer, json } from './fakeSyncServer'
 import { CALL_ID, freshDevice, reloadApp, seedCall } from './outbox-support'
 
 let server: FakeSyncServer
-beforeEach(async () => { await freshDevice(); await seedCall(); server = new FakeSyncServer() })
+beforeEach(async () => {
+  await freshDevice()
+  await seedCall()
+  server = new FakeSyncServer()
+})
 
 const jpegish = () => new Uint8Array([0xFF, 0xD8, 0xFF, 0xE0, ...Array.from({ length: 2000 }, (_, i) => i % 251), 0xFF, 0xD9]).buffer
 
 describe('photo queue', () => {
   it('hashes with SHA-256', async () => {
     // FIPS 180-4 example: SHA-256("abc")
-    expect(await sha256Hex(new TextEncoder().encode('abc').buffer as ArrayBuffer)).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad')
+    const digest = await sha256Hex(new TextEncoder().encode('abc').buffer as ArrayBuffer)
+    expect(digest).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad')
   })
 
   it('keeps the bytes as an ArrayBuffer, with the op, in one write', async () => {
-    const id = await useFieldStore().addPhoto(CALL_ID, { bytes: jpegish(), contentType: 'image/jpeg', caption: 'Harness', thumb: 'data:image/jpeg;base64,AA==' })
+    const thumb = 'data:image/jpeg;base64,AA=='
+    const id = await useFieldStore().addPhoto(CALL_ID, { bytes: jpegish(), contentType: 'image/jpeg', caption: 'Harness', thumb })
     const [q] = await readPhotoQueue()
     expect(q?.id).toBe(id)
     expect(q?.bytes).toBeInstanceOf(ArrayBuffer)
     expect(q?.bytes.byteLength).toBe(2006)
     expect(q?.opApplied).toBe(false)
     const [op] = await readOutbox()
-    expect(op).toMatchObject({ entity: 'photo', entityId: id, changes: { callId: CALL_ID, contentType: 'image/jpeg', sizeBytes: 2006, sha256: q?.sha256, caption: 'Harness' } })
+    const changes = { callId: CALL_ID, contentType: 'image/jpeg', sizeBytes: 2006, sha256: q?.sha256, caption: 'Harness' }
+    expect(op).toMatchObject({ entity: 'photo', entityId: id, changes })
     expect(op?.changes.thumb).toBeUndefined() // the thumbnail stays on the phone
   })
 

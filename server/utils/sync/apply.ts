@@ -20,7 +20,6 @@ import { applySettlement } from './settle'
 import type { ApplyStrategy } from './strategy'
 import { applyCallUpdate, applyRecordUpdate } from './updates'
 
-
 type Billed = { index: number, op: Op, entity: RecordEntityName, data: Record<string, unknown> }
 
 /**
