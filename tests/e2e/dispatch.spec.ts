@@ -1,4 +1,5 @@
 import { expect, test, type Locator, type Page } from '@playwright/test'
+import { randomUUID } from 'node:crypto'
 import { PHONE, signIn } from './helpers'
 import { seedId } from '../../server/db/seed/ids'
 import { testPool } from '../support/db'
@@ -293,4 +294,31 @@ test('the office settles a change made on a phone and in the office from the sam
   await expect(page.getByRole('region', { name: 'Story' }).getByText('Connector pin 2 pushed back; re-pinned')).toBeVisible()
   const { rows: [after] } = await testPool().query('SELECT status, choice FROM conflicts WHERE id = $1', [conflict.id])
   expect(after).toEqual({ status: 'resolved', choice: 'value' })
+})
+
+test('work sent for a billed call is named in words, and only keeping the billed record settles it', async ({ page }) => {
+  await signIn(page, 'dispatch@wayside.test')
+  const callId = randomUUID()
+  await testPool().query(
+    `INSERT INTO calls (id, status, outcome, customer_id, location_text, complaint, mechanic_id, invoiced_at)
+     VALUES ($1, 'invoiced', 'repaired', $2, 'Quarry gate', 'Gauge reads cold', $3, now())`,
+    [callId, seedId('customer:bluestem'), seedId('user:mech1')],
+  )
+  // As the applier keeps it: the part line the phone sent, no value in the record.
+  const sent = { callId, partNumber: 'CTS-100', description: 'Coolant temperature sensor', quantity: 1 }
+  await testPool().query(
+    `INSERT INTO conflicts (call_id, entity, entity_id, field, device_value, server_value, reason, raised_by)
+     VALUES ($1, 'partLine', $2, 'callId', $3, 'null', $4, $5)`,
+    [callId, randomUUID(), JSON.stringify(sent),
+      'callId: the call is invoiced; the part line is kept for the office to add to a credit note or a follow-up call', seedId('user:mech1')],
+  )
+  await page.goto(`/calls/${callId}`)
+  const region = page.getByRole('region', { name: /Changes to settle/ })
+  await expect(region).toContainText('1 open')
+  await expect(region).toContainText('Part line sent after billing: Part CTS-100 × 1')
+  await expect(region.getByRole('button', { name: 'Keep the phone\'s' })).toHaveCount(0)
+  await expect(region.getByLabel('Or write another value')).toHaveCount(0)
+  await page.screenshot({ path: 'tests/e2e/screenshots/call-billed-conflict-1280.png' })
+  await region.getByRole('button', { name: 'Keep the billed record' }).click()
+  await expect(page.getByRole('region', { name: /Changes to settle/ })).toContainText('0 open')
 })
