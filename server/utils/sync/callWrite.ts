@@ -29,7 +29,9 @@ export async function writeCallChanges(
 ): Promise<CallRow> {
   const { status: to, ...rest } = changes as Partial<Record<CallSyncField, unknown>> & { status?: CallStatus }
   const also = rest as Partial<CallRow>
-  const row = to !== undefined && to !== call.status
+  const moving = to !== undefined && to !== call.status
+  if (!moving && !Object.keys(also).length) return call
+  const row = moving
     ? await moveCallStatus(tx, call, { to, by: user.id, at: moveTime(call, opts.deviceAt), also })
     : (await tx.update(tables.calls).set(also).where(eq(tables.calls.id, call.id)).returning())[0]
   if (!row) throw new Error(`call ${call.id} left its status while it was locked`)
