@@ -12,3 +12,4 @@ export type BillingDeskView = Answer<'/api/billing/desk', 'get'>
 export type TruckListView = Answer<'/api/service-trucks', 'get'>
 export type TruckStockView = Answer<'/api/service-trucks/:id/stock', 'get'>
 export type StockMovesView = Answer<'/api/service-trucks/:id/moves', 'get'>
+export type AgingView = Answer<'/api/billing/aging', 'get'>
