@@ -1,11 +1,17 @@
 // Wayside's whole data model. Rows the device syncs carry a UUID key the device may make,
 // `version` and `updatedAt` (both set by the `wayside_touch` trigger, never by the device) and
-// `changeXid`, the writing transaction's id, which drives incremental pull (see server/utils/pull.ts).
+// `changeXid`, the writing transaction's id, which drives incremental pull (see server/utils/sync/pull.ts).
+// Enums take their values from the shared lists the schemas and rules use.
 import { relations, sql } from 'drizzle-orm'
 import {
   bigint, boolean, check, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable,
   serial, text, timestamp, uniqueIndex, uuid,
 } from 'drizzle-orm/pg-core'
+import { CALL_OUTCOMES, CALL_STATUSES } from '../../shared/utils/callStatus'
+import { ROLES } from '../../shared/utils/roles'
+import { DERATE_STATES } from '../../shared/schemas/calls'
+import { CLOCK_KINDS, FAULT_STATES, READING_QUANTITIES } from '../../shared/schemas/syncRecords'
+import { SYNC_OP_STATUSES } from '../../shared/schemas/sync'
 
 const xid8 = customType<{ data: string }>({ dataType: () => 'xid8' })
 
@@ -19,19 +25,19 @@ const synced = {
   changeXid: xid8('change_xid').notNull().default(sql`pg_current_xact_id()`),
 }
 
-export const roleEnum = pgEnum('role', ['mechanic', 'dispatcher', 'office', 'admin'])
-export const callStatusEnum = pgEnum('call_status', ['received', 'assigned', 'en_route', 'on_site', 'completed', 'invoiced', 'paid', 'cancelled'])
-export const callOutcomeEnum = pgEnum('call_outcome', ['repaired', 'towed', 'parts_ordered', 'no_fault_found'])
+export const roleEnum = pgEnum('role', ROLES)
+export const callStatusEnum = pgEnum('call_status', CALL_STATUSES)
+export const callOutcomeEnum = pgEnum('call_outcome', CALL_OUTCOMES)
 export const billingTermsEnum = pgEnum('billing_terms', ['card', 'account'])
-export const derateEnum = pgEnum('derate_state', ['none', 'derated', 'countdown', 'shutdown'])
-export const quantityEnum = pgEnum('reading_quantity', ['resistance', 'voltage', 'temperature', 'pressure', 'concentration', 'other'])
+export const derateEnum = pgEnum('derate_state', DERATE_STATES)
+export const quantityEnum = pgEnum('reading_quantity', READING_QUANTITIES)
 export const verdictEnum = pgEnum('verdict', ['pass', 'low', 'high'])
-export const clockKindEnum = pgEnum('clock_kind', ['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'])
-export const faultStateEnum = pgEnum('fault_state', ['active', 'stored'])
+export const clockKindEnum = pgEnum('clock_kind', CLOCK_KINDS)
+export const faultStateEnum = pgEnum('fault_state', FAULT_STATES)
 export const invoiceStatusEnum = pgEnum('invoice_status', ['draft', 'sent', 'paid', 'void'])
 export const invoiceLineKindEnum = pgEnum('invoice_line_kind', ['labor', 'travel', 'minimum', 'part', 'core', 'fee'])
 export const paymentMethodEnum = pgEnum('payment_method', ['card', 'account'])
-export const syncOpStatusEnum = pgEnum('sync_op_status', ['applied', 'duplicate', 'conflict', 'rejected'])
+export const syncOpStatusEnum = pgEnum('sync_op_status', SYNC_OP_STATUSES)
 export const conflictStatusEnum = pgEnum('conflict_status', ['open', 'resolved'])
 
 // ── People ────────────────────────────────────────────────────────────────────────────────

@@ -8,9 +8,6 @@ import { CALL_EDIT_FIELDS, DERATE_LABELS, LAMP_LABELS } from '#shared/schemas/ca
 import type { Tx } from './db'
 
 type CallRow = typeof tables.calls.$inferSelect
-const OPEN_WORK = ['assigned', 'en_route', 'on_site'] as const
-/** Statuses a call may be (re)assigned from: not yet finished. */
-const ASSIGNABLE = ['received', 'assigned', 'en_route', 'on_site'] as const
 
 async function activeMechanic(tx: Tx, mechanicId: string, field = 'mechanicId') {
   const m = await tx.query.users.findFirst({ where: eq(tables.users.id, mechanicId) })
@@ -26,7 +23,8 @@ async function usableTruck(tx: Tx, truckId: string, field = 'serviceTruckId') {
 
 /** Sets mechanic and truck, moves the call to assigned and records it; inside the caller's transaction. */
 async function assignInTx(tx: Tx, call: CallRow, input: z.output<typeof callAssignSchema>, user: User) {
-  if (!(ASSIGNABLE as readonly string[]).includes(call.status)) {
+  // A call may be (re)assigned until its work is finished.
+  if (!isOpenStatus(call.status)) {
     ruleError('mechanicId', `A call that is ${STATUS_LABELS[call.status].toLowerCase()} cannot be assigned`)
   }
   const mechanic = await activeMechanic(tx, input.mechanicId)
@@ -139,7 +137,7 @@ export async function suggestionsFor(call: CallRow) {
   const db = useDb()
   const { users, serviceTrucks } = tables
   // Named outright: drizzle may leave columns unqualified, which would bind them to the subquery's table.
-  const load = sql<number>`(SELECT count(*)::int FROM calls mc WHERE mc.mechanic_id = "users"."id" AND mc.status IN (${sql.join(OPEN_WORK.map(s => sql`${s}`), sql`, `)}) AND mc.id <> ${call.id})`
+  const load = sql<number>`(SELECT count(*)::int FROM calls mc WHERE mc.mechanic_id = "users"."id" AND mc.status IN (${sql.join(WORKING_STATUSES.map(s => sql`${s}`), sql`, `)}) AND mc.id <> ${call.id})`
   const rows = await db.select({
     id: users.id, name: users.name, phone: users.phone, onDuty: users.onDuty, lastLat: users.lastLat, lastLon: users.lastLon,
     lastPositionAt: users.lastPositionAt, openCalls: load, homeTruck: { id: serviceTrucks.id, name: serviceTrucks.name },

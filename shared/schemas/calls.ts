@@ -1,12 +1,11 @@
 import { z } from 'zod'
-import { optText, recordId, versionField } from './fields'
+import { noNul, NUL_MESSAGE, optText, recordId, versionField } from './fields'
 import { customerCreateSchema } from './customers'
 import { unitDraftSchema } from './units'
+import { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus } from '../utils/callStatus'
 
-export const CALL_STATUSES = ['received', 'assigned', 'en_route', 'on_site', 'completed', 'invoiced', 'paid', 'cancelled'] as const
-export const CALL_OUTCOMES = ['repaired', 'towed', 'parts_ordered', 'no_fault_found'] as const
-export type CallStatus = (typeof CALL_STATUSES)[number]
-export type CallOutcome = (typeof CALL_OUTCOMES)[number]
+// The statuses and outcomes live with the call module (shared/utils/callStatus.ts).
+export { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus }
 
 /** Query of GET /api/calls; `status` may list several, comma-separated. */
 export const callListQuerySchema = z.object({
@@ -58,12 +57,16 @@ export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
 const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
 const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
 
-const dispatchFields = {
-  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)'),
+/** The dispatch fields as the office edits them; sync's call fields take the same schemas. */
+export const dispatchFields = {
+  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)')
+    .refine(noNul, NUL_MESSAGE),
   lat: latField,
   lon: lonField,
-  complaint: z.string({ message: 'Write the driver\'s complaint' }).trim().min(1, 'Write the driver\'s complaint').max(2000, 'Complaint is too long (at most 2000 characters)'),
-  lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters'), { message: 'Lamps must be a list' }).max(12, 'At most 12 lamps'),
+  complaint: z.string({ message: 'Write the driver\'s complaint' }).trim().min(1, 'Write the driver\'s complaint')
+    .max(2000, 'Complaint is too long (at most 2000 characters)').refine(noNul, NUL_MESSAGE),
+  lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters').refine(noNul, NUL_MESSAGE), { message: 'Lamps must be a list' })
+    .max(12, 'At most 12 lamps'),
   derate: z.enum(DERATE_STATES, { message: 'Pick how the engine runs' }),
   derateNote: optText(300, 'Derate note'),
   loaded: z.boolean({ message: 'Loaded must be yes or no' }),
@@ -142,7 +145,8 @@ export const callAssignSchema = z.object({
 })
 
 export const callCancelSchema = z.object({
-  reason: z.string({ message: 'Say why the call is cancelled' }).trim().min(3, 'Say why the call is cancelled').max(500, 'Reason is too long (at most 500 characters)'),
+  reason: z.string({ message: 'Say why the call is cancelled' }).trim().min(3, 'Say why the call is cancelled')
+    .max(500, 'Reason is too long (at most 500 characters)').refine(noNul, NUL_MESSAGE),
   version: versionField.optional(),
 })
 

@@ -3,9 +3,13 @@ import { z } from 'zod'
 // Small field builders the office forms share. An empty box means "none": '' becomes null, and
 // undefined stays undefined so a PATCH leaves the field alone.
 
+/** PostgreSQL text cannot hold a NUL character: refuse it here, naming the field, not at the database. */
+export const noNul = (s: string | null | undefined) => !s?.includes('\u0000')
+export const NUL_MESSAGE = 'May not contain a NUL character'
+
 /** Optional free text; '' and spaces become null. */
 export const optText = (max: number, label = 'This') =>
-  z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long (at most ${max} characters)`)
+  z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long (at most ${max} characters)`).refine(noNul, NUL_MESSAGE)
     .nullable().optional().transform(v => (v === '' ? null : v))
 
 /** Optional whole number within a range; null clears it. */
