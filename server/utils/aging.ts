@@ -1,5 +1,6 @@
 // Fleet accounts: what each customer owes, by how long it has been past due. An invoice's open
-// balance is its total less the money counted against it; days past due are counted between
+// balance is its total less the money counted against it (payments less refunds, `paid_cents`) and
+// its credit notes (`credited_cents`), both kept by server/utils/payments.ts; days past due are counted between
 // local calendar days in the business's time zone (the rates in force), so an invoice due
 // yesterday evening is one day late this morning, whatever the server's clock zone.
 import { sql } from 'drizzle-orm'
@@ -24,9 +25,7 @@ export async function agingRows(): Promise<AgingRow[]> {
   const zone = (await ratesInForce())?.timeZone ?? 'UTC'
   const res = await useDb().execute(sql`
     WITH open AS (
-      SELECT i.customer_id,
-        i.total_cents - coalesce((SELECT sum(p.amount_cents) FROM payments p
-          WHERE p.invoice_id = i.id AND p.status IN ('succeeded', 'posted', 'recorded')), 0) AS balance,
+      SELECT i.customer_id, i.total_cents - i.paid_cents - i.credited_cents AS balance,
         (now() AT TIME ZONE ${zone})::date - (coalesce(i.due_at, i.sent_at) AT TIME ZONE ${zone})::date AS late
       FROM invoices i
       WHERE i.status IN ('sent', 'paid') AND i.sent_at IS NOT NULL

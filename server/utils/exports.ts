@@ -4,9 +4,6 @@ import { sql } from 'drizzle-orm'
 import type { ReportRange } from '#shared/schemas/reports'
 import type { CsvColumn } from './csv'
 
-/** Money that counts against an invoice (a held card payment does not). */
-const COUNTED = sql`('succeeded', 'posted', 'recorded')`
-
 const INVOICE_STATUS: Record<string, string> = { draft: 'Draft', sent: 'Sent', paid: 'Paid', void: 'Void' }
 const METHOD: Record<string, string> = {
   card: 'Card', account: 'Fleet account', check: 'Check', bank_transfer: 'Bank transfer', cash: 'Cash',
@@ -29,6 +26,7 @@ interface InvoiceExportRow {
   taxCents: number
   totalCents: number
   paidCents: number
+  creditedCents: number
   balanceCents: number
 }
 
@@ -39,13 +37,12 @@ export async function invoiceExportRows(range: ReportRange): Promise<InvoiceExpo
     SELECT i.number, to_char(i.sent_at AT TIME ZONE ${zone}, 'YYYY-MM-DD') AS "issuedOn",
       to_char(i.due_at AT TIME ZONE ${zone}, 'YYYY-MM-DD') AS "dueOn", i.status::text AS status, c.name AS customer,
       u.unit_number AS unit, ca.number AS "callNumber", ca.po_number AS po, i.subtotal_cents AS "subtotalCents",
-      i.tax_cents AS "taxCents", i.total_cents AS "totalCents", coalesce(p.paid, 0)::int AS "paidCents",
-      CASE WHEN i.status = 'void' THEN 0 ELSE i.total_cents - coalesce(p.paid, 0) END::int AS "balanceCents"
+      i.tax_cents AS "taxCents", i.total_cents AS "totalCents", i.paid_cents AS "paidCents", i.credited_cents AS "creditedCents",
+      CASE WHEN i.status = 'void' THEN 0 ELSE i.total_cents - i.paid_cents - i.credited_cents END AS "balanceCents"
     FROM invoices i
     JOIN customers c ON c.id = i.customer_id
     JOIN calls ca ON ca.id = i.call_id
     LEFT JOIN units u ON u.id = ca.unit_id
-    LEFT JOIN LATERAL (SELECT sum(amount_cents) AS paid FROM payments WHERE invoice_id = i.id AND status IN ${COUNTED}) p ON true
     WHERE i.sent_at IS NOT NULL
       AND (i.sent_at AT TIME ZONE ${zone})::date BETWEEN ${range.from}::date AND ${range.to}::date
     ORDER BY i.number`)
@@ -62,17 +59,26 @@ interface PaymentExportRow {
   amountCents: number
 }
 
-/** Payments received between `from` and `to`, inclusive, by their local date. */
+/**
+ * Money received between `from` and `to`, inclusive, by the day it came in (the day the office
+ * entered for a check or transfer, else the local day it was recorded), and money given back as
+ * refunds: rows of their own with a negative amount.
+ */
 export async function paymentExportRows(range: ReportRange): Promise<PaymentExportRow[]> {
   const zone = await businessZone()
   const res = await useDb().execute(sql`
-    SELECT to_char(p.created_at AT TIME ZONE ${zone}, 'YYYY-MM-DD') AS "receivedOn", i.number AS "invoiceNumber",
-      c.name AS customer, p.method::text AS method, p.provider_ref AS reference, p.status, p.amount_cents AS "amountCents"
-    FROM payments p
-    JOIN invoices i ON i.id = p.invoice_id
-    JOIN customers c ON c.id = i.customer_id
-    WHERE (p.created_at AT TIME ZONE ${zone})::date BETWEEN ${range.from}::date AND ${range.to}::date
-    ORDER BY p.created_at, p.id`)
+    SELECT * FROM (
+      SELECT to_char(coalesce(p.received_on, (p.created_at AT TIME ZONE ${zone})::date), 'YYYY-MM-DD') AS "receivedOn",
+        i.number AS "invoiceNumber", c.name AS customer, p.method::text AS method, coalesce(p.reference, p.provider_ref) AS reference,
+        p.status, p.amount_cents AS "amountCents", p.created_at AS at
+      FROM payments p JOIN invoices i ON i.id = p.invoice_id JOIN customers c ON c.id = i.customer_id
+      UNION ALL
+      SELECT to_char(r.created_at AT TIME ZONE ${zone}, 'YYYY-MM-DD'), i.number, c.name, p.method::text,
+        coalesce(r.provider_ref, p.reference, p.provider_ref), 'refunded', -r.amount_cents, r.created_at
+      FROM refunds r JOIN payments p ON p.id = r.payment_id JOIN invoices i ON i.id = r.invoice_id JOIN customers c ON c.id = i.customer_id
+    ) m
+    WHERE "receivedOn"::date BETWEEN ${range.from}::date AND ${range.to}::date
+    ORDER BY "receivedOn", at`)
   return res.rows as unknown as PaymentExportRow[]
 }
 
@@ -89,6 +95,7 @@ export const INVOICE_COLUMNS: CsvColumn<InvoiceExportRow>[] = [
   { header: 'Tax', kind: 'money', value: r => r.taxCents },
   { header: 'Total', kind: 'money', value: r => r.totalCents },
   { header: 'Paid', kind: 'money', value: r => r.paidCents },
+  { header: 'Credited', kind: 'money', value: r => r.creditedCents },
   { header: 'Balance', kind: 'money', value: r => r.balanceCents },
 ]
 

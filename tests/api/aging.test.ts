@@ -24,6 +24,8 @@ async function invoice(daysAgo: number, opts: { status?: string, paidCents?: num
   if (opts.paidCents) {
     const pay = `INSERT INTO payments (invoice_id, method, amount_cents, status) VALUES ($1, 'account', $2, 'posted')`
     await db.query(pay, [invoiceId, opts.paidCents])
+    // What server/utils/payments.ts keeps on the invoice when money comes in.
+    await db.query('UPDATE invoices SET paid_cents = $2 WHERE id = $1', [invoiceId, opts.paidCents])
   }
 }
 

@@ -25,6 +25,8 @@ async function invoiceFor(name: string, sentAt: string, opts: { paidCents?: numb
   if (opts.paidCents) {
     await db.query(`INSERT INTO payments (invoice_id, method, amount_cents, status, provider_ref, created_at)
       VALUES ($1, 'card', $2, 'succeeded', $3, $4)`, [invoiceId, opts.paidCents, `=cmd|' /C calc'!A0 ${invoiceId}`, sentAt])
+    // What server/utils/payments.ts keeps on the invoice when money comes in.
+    await db.query('UPDATE invoices SET paid_cents = $2 WHERE id = $1', [invoiceId, opts.paidCents])
   }
   return r.rows[0].number as number
 }
@@ -47,6 +49,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   const db = testPool()
+  await db.query('DELETE FROM refunds WHERE invoice_id = ANY($1)', [made.invoices])
   await db.query('DELETE FROM payments WHERE invoice_id = ANY($1)', [made.invoices])
   await db.query('DELETE FROM invoices WHERE id = ANY($1)', [made.invoices])
   await db.query('DELETE FROM calls WHERE id = ANY($1)', [made.calls])
@@ -62,7 +65,7 @@ describe('GET /api/exports/invoices', () => {
     expect(r.headers.get('content-disposition')).toContain('invoices-2025-02-01-to-2025-02-28.csv')
     const { header, rows } = parse(r.body)
     expect(header).toEqual(['Invoice number', 'Issued', 'Due', 'Status', 'Customer', 'Unit', 'Call number', 'PO', 'Subtotal', 'Tax',
-      'Total', 'Paid', 'Balance'])
+      'Total', 'Paid', 'Credited', 'Balance'])
     const customers = rows.map(x => x[4])
     for (const name of NASTY) expect(customers).toContain(`'${name}`)
     // Quoted in the file itself, so no spreadsheet reads the cell as the start of a formula.
@@ -75,7 +78,7 @@ describe('GET /api/exports/invoices', () => {
     const row = rows.find(x => x[4] === '\'+1')!
     // 10000 + 500 cents = $105.00, due 30 days after 10 February = 12 March.
     expect(row.slice(1, 4)).toEqual(['2025-02-10', '2025-03-12', 'Sent'])
-    expect(row.slice(8)).toEqual(['100.00', '5.00', '105.00', '0.00', '105.00'])
+    expect(row.slice(8)).toEqual(['100.00', '5.00', '105.00', '0.00', '0.00', '105.00'])
   })
 
   it('keeps a negative balance a number the spreadsheet adds up (overpaid: 105.00 − 120.00 = −15.00)', async () => {
@@ -83,8 +86,8 @@ describe('GET /api/exports/invoices', () => {
     const { rows } = parse((await office.get('/api/exports/invoices?from=2025-02-01&to=2025-02-28')).body)
     const row = rows.find(x => x[0] === String(number))!
     expect(row[7]).toBe('\'-PO-7')
-    expect(row.slice(11)).toEqual(['120.00', '-15.00'])
-    expect(Number(row[12])).toBe(-15)
+    expect(row.slice(11)).toEqual(['120.00', '0.00', '-15.00'])
+    expect(Number(row[13])).toBe(-15)
   })
 
   it('reads the issue date in the business\'s time zone', async () => {
@@ -114,6 +117,21 @@ describe('GET /api/exports/payments', () => {
     expect(row[3]).toBe('Card')
     expect(row[4]).toMatch(/^'=cmd\|/)
     expect(row[6]).toBe('105.00')
+  })
+
+  it('lists a refund as a row of its own with a negative amount the spreadsheet reads as a number', async () => {
+    const number = await invoiceFor('Refunded Rigs', '2025-02-16T18:00:00Z', { paidCents: 10500 })
+    const db = testPool()
+    const payment = 'SELECT p.id, p.invoice_id FROM payments p JOIN invoices i ON i.id = p.invoice_id WHERE i.number = $1'
+    const pay = await db.query(payment, [number])
+    await db.query(`INSERT INTO refunds (payment_id, invoice_id, amount_cents, reason, created_at)
+      VALUES ($1, $2, 2550, 'Core returned', '2025-02-20T18:00:00Z')`, [pay.rows[0].id, pay.rows[0].invoice_id])
+    const r = await office.get('/api/exports/payments?from=2025-02-01&to=2025-02-28')
+    const rows = parse(r.body).rows.filter(x => x[1] === String(number))
+    // $105.00 in on the 16th, $25.50 of it back on the 20th.
+    expect(rows.map(x => [x[0], x[5], x[6]])).toEqual([['2025-02-16', 'succeeded', '105.00'], ['2025-02-20', 'refunded', '-25.50']])
+    expect(r.body).toContain(',-25.50')
+    expect(Number(rows[1]![6])).toBe(-25.5)
   })
 })
 
