@@ -17,8 +17,8 @@ async function invoice(daysAgo: number, opts: { status?: string, paidCents?: num
   await db.query(`INSERT INTO calls (id, status, customer_id, unit_id, location_text, complaint)
     VALUES ($1, 'invoiced', $2, $3, 'Aging test yard', 'Aging test')`, [callId, customerId, IDS.unit])
   await db.query(`INSERT INTO invoices (id, call_id, customer_id, status, subtotal_cents, tax_cents, total_cents, sent_at, due_at)
-    VALUES ($1, $2, $3, $4, 10000, 0, 10000,
-      CASE WHEN $4 = 'draft' THEN NULL ELSE now() - interval '100 days' END,
+    VALUES ($1, $2, $3, $4::invoice_status, 10000, 0, 10000,
+      CASE WHEN $4::invoice_status = 'draft' THEN NULL ELSE now() - interval '100 days' END,
       ((((now() AT TIME ZONE 'America/Chicago')::date - $5::int) + time '12:00') AT TIME ZONE 'America/Chicago'))`,
   [invoiceId, callId, customerId, opts.status ?? 'sent', daysAgo])
   if (opts.paidCents) {
