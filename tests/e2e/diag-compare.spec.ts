@@ -62,6 +62,8 @@ test('like sensors at 360 px: refused running, compared after a cold soak with t
     await page.getByLabel(`Exhaust temperature ${n} (°C)`).fill(v)
   }
   await expect(page.getByRole('heading', { name: /Exhaust temperature 3 disagrees: 40.5 °C above the median/ })).toBeVisible()
+  // Iglewicz and Hoaglin: cut-off 3.5 × MAD / 0.6745 with MAD 1 °C is 5.19 °C, said to a tenth
+  await expect(page.getByText(/flagged when it is more than 5\.2\s°C from it/)).toBeVisible()
   await expect.poll(() => page.evaluate(() => (window as unknown as { canvasTexts: { text: string }[] }).canvasTexts.map(t => t.text)))
     .toEqual(expect.arrayContaining([expect.stringMatching(/^Exhaust temperature 1 {2}−0\.5 °C$/)]))
   const texts = await page.evaluate(() => (window as unknown as { canvasTexts: { text: string, x: number }[] }).canvasTexts)

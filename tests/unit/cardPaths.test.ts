@@ -75,8 +75,10 @@ describe('every path of every seeded card', () => {
         expect(p.visits.map(v => v.step.id).filter(id => wiring.includes(id)).sort(), `${route} → ${c!.id}`).toEqual([...wiring].sort())
       }
       else {
+        // the part's own readings on the path do not show it good: its latest check failed
         const own = p.visits.filter(v => v.step.checks === c!.condemns)
-        expect(own.some(v => FAILED.includes(v.verdict)), `${route} → ${c!.id} condemns ${c!.condemns}`).toBe(true)
+        expect(own.length, `${route} → ${c!.id} condemns ${c!.condemns} without checking it`).toBeGreaterThan(0)
+        expect(FAILED, `${route} → ${c!.id} condemns ${c!.condemns} after it read good`).toContain(own.at(-1)!.verdict)
       }
     }
     // every conclusion is the end of some path
@@ -102,6 +104,16 @@ describe('every path of every seeded card', () => {
     }
   })
 
+  it.each(cards.map(c => [c.slug, c.def] as const))('%s: carries its cautions, and names where each number comes from', (_slug, def) => {
+    // the product's rule: work that can hurt someone shows the usual caution and defers to local practice and the maker
+    expect(def.cautions.length).toBeGreaterThan(0)
+    expect(def.cautions.join(' ')).toMatch(/maker|local rules|licensed practice/)
+    // each source is a named standard, regulation, manual or the project's REFERENCES.md, or says it is common practice or from memory
+    expect(def.sources?.length).toBeGreaterThan(0)
+    // ("The same check: …" continues the source named just before it)
+    for (const s of def.sources!) expect(s).toMatch(/REFERENCES\.md|CFR|IEC|ISO|SAE|manual|common practice|from memory|maker’s|^The same check/)
+  })
+
   it('the sensor-circuit and condition cards are the ones the codes need', () => {
     // our own library: exhaust and coolant temperatures each have a circuit card and a condition card
     const kinds = Object.fromEntries(cards.map(c => [c.slug, c.def.kind]))
@@ -116,6 +128,15 @@ describe('every path of every seeded card', () => {
     }
   })
 
+  it('the DPF pressure sensor is condemned only once the controller followed both the unplugged and the jumpered value', () => {
+    // common practice: unplugged alone reads low on an open signal wire too; pulled up to its 5 V supply it must read high
+    const def = cards.find(c => c.slug === 'dpf-pressure-sensor')!.def
+    for (const p of walk(def).filter(x => x.end === 'replace-sensor')) {
+      const way = Object.fromEntries(p.visits.map(v => [v.step.id, v.verdict]))
+      expect(way).toMatchObject({ 'ref-loaded': 'pass', 'return-drop': 'pass', 'unplugged': 'pass', 'jumpered': 'pass' })
+    }
+  })
+
   it('the walker finds what a broken card hides', () => {
     // a check that cannot fail proves nothing: hand the walker a card whose pass way replaces the sensor
     const bad = structuredClone(cards.find(c => c.slug === 'egt-rtd-sensor')!.def)
@@ -124,5 +145,11 @@ describe('every path of every seeded card', () => {
     const wrong = walk(bad).filter(p => p.end === 'replace-sensor' && !failedSensor(p))
     expect(wrong.length).toBeGreaterThan(0)
     expect(cardDefinitionSchema.safeParse(bad).success).toBe(false)
+    // and one that replaces the sensor after a second, good reading of it
+    const late = structuredClone(cards.find(c => c.slug === 'egt-rtd-sensor')!.def)
+    late.steps.find(s => s.id === 'new-sensor-ohms')!.checks = 'sensor'
+    const lastSensorCheck = (p: Path) => p.visits.filter(v => v.step.checks === 'sensor').at(-1)!
+    const readGood = walk(late).filter(p => p.end === 'replace-sensor' && lastSensorCheck(p).verdict === 'pass')
+    expect(readGood.length).toBeGreaterThan(0)
   })
 })

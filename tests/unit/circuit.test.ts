@@ -1,13 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import { CIRCUIT_LIMITS, classifySensorCircuit } from '../../shared/utils/circuit'
-import { ntcResistanceBeta } from '../../shared/utils/ntc'
 
-// A 10 kΩ / 3950 K coolant-temperature thermistor at 20 °C ambient, ±5 %: the Beta equation (REFERENCES §2)
-const ectSpec = { nominal: ntcResistanceBeta(20, 10000, 3950), tolerancePct: 5 }
+// A 10 kΩ thermistor at 20 °C, ±5 %: Murata NCP15XH103 table, 20 °C row 12 081 Ω (REFERENCES §2)
+const ectSpec = { nominal: 12081, tolerancePct: 5 }
 
 describe('classifySensorCircuit', () => {
   it('all good', () => {
-    // REFERENCES §7: reference 4.8–5.2 V; common practice: ground ≤ 5 Ω; Beta equation spec
+    // REFERENCES §7: reference 4.8–5.2 V; common practice: ground ≤ 5 Ω; Murata table at 20 °C ±5 %: 11 477–12 685 Ω
     const r = classifySensorCircuit({ refVolts: 5.01, groundOhms: 0.4, sensorOhms: 12400, expectedSensor: ectSpec })
     expect(r.verdict).toBe('ok')
     expect(r.findings).toHaveLength(3)
@@ -74,7 +73,7 @@ describe('classifySensorCircuit', () => {
   })
 
   it('sensor out of spec', () => {
-    // Beta equation (REFERENCES §2), 10 kΩ / 3950 K at 20 °C = 12 535 Ω; 8 kΩ is far below that ±5 % window
+    // Murata NCP15XH103 table (REFERENCES §2), 20 °C row 12 081 Ω; 8 kΩ is far below its ±5 % window
     const r = classifySensorCircuit({ sensorOhms: 8000, expectedSensor: ectSpec })
     expect(r.verdict).toBe('sensor_out_of_spec')
     expect(r.findings[0]).toMatch(/8 kΩ.*below spec/)

@@ -12,6 +12,8 @@ export const BACK_PROBE = 'Never push a probe into the front of a connector pin:
   + 'or the pin spreads and makes a new fault.'
 export const JUMPER = 'Jumper only the sensor’s own signal and return pins, with a fused lead; never jumper a sensor wire to battery '
   + 'positive.'
+export const JUMPER_SUPPLY = 'Jumper only the harness’s own signal pin to its own 5 V supply pin, with a fused lead and the sensor '
+  + 'unplugged; never jumper a sensor wire to battery positive.'
 export const RUNNING = 'With the engine running, keep hands, sleeves, leads and hair clear of the fan and belts, set the parking brakes, '
   + 'chock the wheels, and have nobody in the cab who might move the truck.'
 export const BATTERY = 'Batteries give off hydrogen that a spark can ignite: eye protection and gloves on, no flames or sparks near them, '

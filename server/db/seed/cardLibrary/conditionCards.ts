@@ -3,6 +3,7 @@
 // circuit good, clear the codes".
 import type { CardDefinitionInput } from '../../../../shared/schemas/testCards'
 import { DEFER, DEF_SPLASH, FAN, FUEL_PRESSURE, HOT_COOLANT, HOT_EXHAUST, PARKED_REGEN, RUNNING, TRAFFIC } from './cautions'
+import { fault, good, refer, yesNo } from './steps'
 
 const condition = (spns: number[]) => spns.map(spn => `SPN ${spn} FMI condition`)
 
@@ -31,107 +32,75 @@ export const ENGINE_OVERTEMP_CARD: CardDefinitionInput = {
   ],
   sources: ['Cooling-system checks: common practice; the maker’s thermostat and cap ratings apply'],
   steps: [
-    {
-      id: 'confirm', title: 'Is it really hot?', measure: 'yes_no', conditions: 'running',
+    yesNo('confirm', 'Is it really hot?', {
+      conditions: 'running',
       component: 'Thermostat housing and upper hose',
       instruction: 'With the engine at its working temperature, compare the coolant temperature in live data with a thermometer on the '
         + 'thermostat housing and the upper hose. Do they agree within about 10 °C?',
-      passAnswer: 'yes',
-      next: { pass: 'level', fail: 'reading-wrong' },
-    },
-    {
-      id: 'level', title: 'Coolant level and leaks', measure: 'yes_no', conditions: 'key_off', checks: 'coolant-level',
+    }, { yes: 'level', no: 'reading-wrong' }),
+    yesNo('level', 'Coolant level and leaks', {
+      conditions: 'key_off', checks: 'coolant-level',
       component: 'Surge tank, hoses, radiator, water pump',
       instruction: 'Engine off and cool (see the cautions). Is the coolant at the cold mark in the surge tank, with no leak under the '
         + 'truck, at the hoses, the radiator, the water pump’s weep hole or the heater lines?',
-      passAnswer: 'yes',
-      next: { pass: 'cap', fail: 'fill-and-find-leak' },
-    },
-    {
-      id: 'cap', title: 'Pressure cap holds', measure: 'yes_no', checks: 'cap',
+    }, { yes: 'cap', no: 'fill-and-find-leak' }),
+    yesNo('cap', 'Pressure cap holds', {
+      checks: 'cap',
       component: 'Pressure cap',
       instruction: 'Test the cap on a pressure tester with the right adapter: does it hold its rated pressure (stamped on the cap) without '
         + 'leaking down?',
-      passAnswer: 'yes',
-      next: { pass: 'fan', fail: 'replace-cap' },
-    },
-    {
-      id: 'fan', title: 'Fan engages', measure: 'yes_no', conditions: 'running', checks: 'fan',
+    }, { yes: 'fan', no: 'replace-cap' }),
+    yesNo('fan', 'Fan engages', {
+      conditions: 'running', checks: 'fan',
       component: 'Fan and fan drive',
       instruction: 'Engine running hot, or the fan commanded on with the scan tool: does the fan engage fully (roar, strong airflow), and '
         + 'disengage again when commanded off?',
-      passAnswer: 'yes',
-      next: { pass: 'airflow', fail: 'repair-fan' },
-    },
-    {
-      id: 'airflow', title: 'Air passes through the cores', measure: 'yes_no', checks: 'airflow',
+    }, { yes: 'airflow', no: 'repair-fan' }),
+    yesNo('airflow', 'Air passes through the cores', {
+      checks: 'airflow',
       component: 'Radiator, charge-air cooler, condenser, shroud',
       instruction: 'Look between the stacked cores with a light: no mud, chaff, bugs or plastic blocking them, fins not flattened, the '
         + 'shroud and its seals in place and the fan centred in it. Is the airflow clear?',
-      passAnswer: 'yes',
-      next: { pass: 'thermostat', fail: 'clean-cores' },
-    },
-    {
-      id: 'thermostat', title: 'Thermostats open', measure: 'yes_no', conditions: 'running', checks: 'thermostat',
+    }, { yes: 'thermostat', no: 'clean-cores' }),
+    yesNo('thermostat', 'Thermostats open', {
+      conditions: 'running', checks: 'thermostat',
       component: 'Upper radiator hose',
       instruction: 'Warm the engine with the fan off. Once the coolant passes the thermostats’ opening temperature (stamped on them), the '
         + 'upper radiator hose should turn hot quickly. Does it?',
-      passAnswer: 'yes',
-      next: { pass: 'radiator-flow', fail: 'replace-thermostat' },
-    },
-    {
-      id: 'radiator-flow', title: 'Radiator core warm all across', measure: 'yes_no', conditions: 'running', checks: 'radiator',
+    }, { yes: 'radiator-flow', no: 'replace-thermostat' }),
+    yesNo('radiator-flow', 'Radiator core warm all across', {
+      conditions: 'running', checks: 'radiator',
       component: 'Radiator core',
       instruction: 'Engine hot, thermostats open: scan the radiator core with an infrared thermometer from side to side and top to bottom. '
         + 'Is it warm all across, with no cold bands (blocked tubes)?',
-      passAnswer: 'yes',
-      next: { pass: 'combustion-gas', fail: 'radiator-blocked' },
-    },
-    {
-      id: 'combustion-gas', title: 'No combustion gas in the coolant', measure: 'yes_no', conditions: 'running', checks: 'head-gasket',
+    }, { yes: 'combustion-gas', no: 'radiator-blocked' }),
+    yesNo('combustion-gas', 'No combustion gas in the coolant', {
+      conditions: 'running', checks: 'head-gasket',
       component: 'Surge tank',
       instruction: 'Run a combustion-leak test at the surge tank (block-tester fluid), or watch for a stream of bubbles with the engine '
         + 'running. Is the coolant free of combustion gas?',
-      passAnswer: 'yes',
-      next: { pass: 'no-cause', fail: 'combustion-leak' },
-    },
+    }, { yes: 'no-cause', no: 'combustion-leak' }),
   ],
   conclusions: [
-    {
-      id: 'reading-wrong', text: 'The reading does not match the engine: run the coolant temperature sensor card', kind: 'refer',
-      detail: 'A sensor reading high but in range sets a data-valid code; the sensor card judges it at its own temperature.',
-    },
-    {
-      id: 'fill-and-find-leak', text: 'Find and fix the leak, then fill and bleed the system', kind: 'fault', condemns: 'coolant-level',
-      detail: 'A pressure test of the cold system finds slow leaks; bleed the air out as the maker says and check the level again after a '
-        + 'run.',
-    },
-    {
-      id: 'replace-cap', text: 'Replace the pressure cap', kind: 'fault', condemns: 'cap',
-      detail: 'Use a cap of the same rating; check the filler neck seat is not damaged.',
-    },
-    {
-      id: 'repair-fan', text: 'Repair the fan drive or its control', kind: 'fault', condemns: 'fan',
-      detail: 'Check the air or electrical supply to the fan clutch and its command first, then the clutch itself.',
-    },
-    {
-      id: 'clean-cores', text: 'Clean the cores and restore the shroud', kind: 'fault', condemns: 'airflow',
-      detail: 'Wash from the fan side outward at low pressure; straighten fins; refit shroud seals.',
-    },
-    {
-      id: 'replace-thermostat', text: 'Replace the thermostats', kind: 'fault', condemns: 'thermostat',
-      detail: 'Fit the maker’s rating and new seals; bleed the air out.',
-    },
-    { id: 'radiator-blocked', text: 'Radiator blocked inside: flush or recore it', kind: 'fault', condemns: 'radiator' },
-    {
-      id: 'combustion-leak', text: 'Combustion gas in the coolant: engine repair needed', kind: 'refer', condemns: 'head-gasket',
-      detail: 'A head gasket, a cracked head or an injector sleeve: refer the truck to a shop; do not run it hot.',
-    },
-    {
-      id: 'no-cause', text: 'No cause found yet: check the water pump, the coolant mix and the load', kind: 'refer',
-      detail: 'Check the water pump drive and impeller, the coolant’s mix and condition, and whether the truck was overloaded or climbing '
-        + 'in heat; compare with the maker’s procedure.',
-    },
+    refer('reading-wrong', 'The reading does not match the engine: run the coolant temperature sensor card',
+      'A sensor reading high but in range sets a data-valid code; the sensor card judges it at its own temperature.'),
+    fault('fill-and-find-leak', 'Find and fix the leak, then fill and bleed the system', 'coolant-level',
+      'A pressure test of the cold system finds slow leaks; bleed the air out as the maker says and check the level again after a '
+      + 'run.'),
+    fault('replace-cap', 'Replace the pressure cap', 'cap',
+      'Use a cap of the same rating; check the filler neck seat is not damaged.'),
+    fault('repair-fan', 'Repair the fan drive or its control', 'fan',
+      'Check the air or electrical supply to the fan clutch and its command first, then the clutch itself.'),
+    fault('clean-cores', 'Clean the cores and restore the shroud', 'airflow',
+      'Wash from the fan side outward at low pressure; straighten fins; refit shroud seals.'),
+    fault('replace-thermostat', 'Replace the thermostats', 'thermostat',
+      'Fit the maker’s rating and new seals; bleed the air out.'),
+    fault('radiator-blocked', 'Radiator blocked inside: flush or recore it', 'radiator'),
+    refer('combustion-leak', 'Combustion gas in the coolant: engine repair needed',
+      'A head gasket, a cracked head or an injector sleeve: refer the truck to a shop; do not run it hot.', 'head-gasket'),
+    refer('no-cause', 'No cause found yet: check the water pump, the coolant mix and the load',
+      'Check the water pump drive and impeller, the coolant’s mix and condition, and whether the truck was overloaded or climbing '
+      + 'in heat; compare with the maker’s procedure.'),
   ],
 }
 
@@ -153,69 +122,49 @@ export const AFTERTREATMENT_OVERTEMP_CARD: CardDefinitionInput = {
   ],
   sources: ['After-treatment checks: common practice; the maker’s regeneration limits apply'],
   steps: [
-    {
-      id: 'soak-compare', title: 'Exhaust sensors agree at rest', measure: 'yes_no', conditions: 'key_on_engine_off',
+    yesNo('soak-compare', 'Exhaust sensors agree at rest', {
+      conditions: 'key_on_engine_off',
       component: 'Scan tool, live data',
       instruction: 'After a cold soak (8 h or more), key on, engine off: do all the exhaust temperatures read within about 10 °C of each '
         + 'other and of the air? (Running, they differ by design.)',
-      passAnswer: 'yes',
-      next: { pass: 'oil-coolant', fail: 'sensor-first' },
-    },
-    {
-      id: 'oil-coolant', title: 'No oil or coolant reaching the exhaust', measure: 'yes_no', checks: 'engine-leak',
+    }, { yes: 'oil-coolant', no: 'sensor-first' }),
+    yesNo('oil-coolant', 'No oil or coolant reaching the exhaust', {
+      checks: 'engine-leak',
       component: 'Turbocharger outlet, exhaust joints, intake boots',
       instruction: 'Look for oil or coolant getting into the exhaust: a wet turbo outlet or exhaust joints, oil in the intake boots, blue '
         + 'or white smoke, coolant use. Is the exhaust dry and clean?',
-      passAnswer: 'yes',
-      next: { pass: 'doser-idle', fail: 'engine-leak' },
-    },
-    {
-      id: 'doser-idle', title: 'DOC no hotter than its inlet at idle', measure: 'yes_no', conditions: 'running', checks: 'doser',
+    }, { yes: 'doser-idle', no: 'engine-leak' }),
+    yesNo('doser-idle', 'DOC no hotter than its inlet at idle', {
+      conditions: 'running', checks: 'doser',
       component: 'Scan tool, live data',
       instruction: 'Engine idling, no regeneration running: is the DOC outlet temperature within about 30 °C of the DOC inlet? A leaking '
         + 'doser or a dribbling injector burns fuel on the DOC and makes its outlet hotter.',
-      passAnswer: 'yes',
-      next: { pass: 'parked-regen', fail: 'doser-leak' },
-    },
-    {
-      id: 'doser-leak', title: 'Doser holds', measure: 'yes_no', checks: 'doser',
+    }, { yes: 'parked-regen', no: 'doser-leak' }),
+    yesNo('doser-leak', 'Doser holds', {
+      checks: 'doser',
       component: 'Exhaust doser (hydrocarbon injector)',
       instruction: 'Run the maker’s doser leak test, or with the engine running and the doser not commanded, look at its nozzle: no fuel '
         + 'at the tip. Does it hold?',
-      passAnswer: 'yes',
-      next: { pass: 'injectors', fail: 'replace-doser' },
-    },
-    {
-      id: 'parked-regen', title: 'Parked regeneration stays within limits', measure: 'yes_no', conditions: 'running', checks: 'doc',
+    }, { yes: 'injectors', no: 'replace-doser' }),
+    yesNo('parked-regen', 'Parked regeneration stays within limits', {
+      conditions: 'running', checks: 'doc',
       component: 'Scan tool, parked regeneration',
       instruction: 'Run a parked regeneration from the scan tool (see the cautions). As dosing starts, does the DOC outlet climb well '
         + 'above its inlet, and do all temperatures stay within the maker’s limits to the end?',
-      passAnswer: 'yes',
-      next: { pass: 'regen-done', fail: 'doc-face' },
-    },
+    }, { yes: 'regen-done', no: 'doc-face' }),
   ],
   conclusions: [
-    { id: 'sensor-first', text: 'One sensor disagrees at rest: run the exhaust temperature sensor card on it first', kind: 'refer' },
-    {
-      id: 'engine-leak', text: 'Stop oil or coolant reaching the exhaust before any regeneration', kind: 'fault', condemns: 'engine-leak',
-      detail: 'Turbo seals, a leaking injector or a head gasket: burning oil or coolant overheats the DPF and can crack it.',
-    },
-    {
-      id: 'injectors', text: 'Doser holds: look for an injector that dribbles', kind: 'refer',
-      detail: 'A cylinder contribution or cut-out test with the scan tool, and the maker’s procedure.',
-    },
-    {
-      id: 'replace-doser', text: 'Replace the exhaust doser', kind: 'fault', condemns: 'doser',
-      detail: 'Check the DOC face for fuel soaking before the next regeneration.',
-    },
-    {
-      id: 'doc-face', text: 'DOC not lighting off or temperatures out of limits: inspect the DOC', kind: 'fault', condemns: 'doc',
-      detail: 'Look at the DOC face for soot or oil glazing; clean or replace it as the maker says.',
-    },
-    {
-      id: 'regen-done', text: 'Parked regeneration completed within limits', kind: 'ok',
-      detail: 'The cause was soot load; clear the codes and verify with a drive, and note the duty cycle (long idling builds soot).',
-    },
+    refer('sensor-first', 'One sensor disagrees at rest: run the exhaust temperature sensor card on it first'),
+    fault('engine-leak', 'Stop oil or coolant reaching the exhaust before any regeneration', 'engine-leak',
+      'Turbo seals, a leaking injector or a head gasket: burning oil or coolant overheats the DPF and can crack it.'),
+    refer('injectors', 'Doser holds: look for an injector that dribbles',
+      'A cylinder contribution or cut-out test with the scan tool, and the maker’s procedure.'),
+    fault('replace-doser', 'Replace the exhaust doser', 'doser',
+      'Check the DOC face for fuel soaking before the next regeneration.'),
+    fault('doc-face', 'DOC not lighting off or temperatures out of limits: inspect the DOC', 'doc',
+      'Look at the DOC face for soot or oil glazing; clean or replace it as the maker says.'),
+    good('regen-done', 'Parked regeneration completed within limits',
+      'The cause was soot load; clear the codes and verify with a drive, and note the duty cycle (long idling builds soot).'),
   ],
 }
 
@@ -240,25 +189,19 @@ export const DEF_CARD: CardDefinitionInput = {
     'Handheld refractometers read to about ±0.5 %: common practice',
   ],
   steps: [
-    {
-      id: 'sample-look', title: 'Sample clear and clean', measure: 'yes_no', checks: 'def',
+    yesNo('sample-look', 'Sample clear and clean', {
+      checks: 'def',
       instruction: 'Take a sample from the tank into a clean cup. Is it clear, with no crystals, oil or fuel sheen, colour or dirt?',
-      passAnswer: 'yes',
-      next: { pass: 'hydrocarbon', fail: 'contaminated' },
-    },
-    {
-      id: 'hydrocarbon', title: 'No fuel or oil (test strip)', measure: 'yes_no', checks: 'def',
+    }, { yes: 'hydrocarbon', no: 'contaminated' }),
+    yesNo('hydrocarbon', 'No fuel or oil (test strip)', {
+      checks: 'def',
       instruction: 'Dip a hydrocarbon test strip in the sample as its maker says. Does it show no fuel or oil?',
-      passAnswer: 'yes',
-      next: { pass: 'coolant', fail: 'contaminated' },
-    },
-    {
-      id: 'coolant', title: 'No coolant in the DEF', measure: 'yes_no', checks: 'def-heater',
+    }, { yes: 'coolant', no: 'contaminated' }),
+    yesNo('coolant', 'No coolant in the DEF', {
+      checks: 'def-heater',
       instruction: 'Where the DEF tank is heated by engine coolant, a leaking heater coil puts coolant in the DEF: a green, orange or pink '
         + 'tint, a sweet smell, a DEF level that rose, or coolant lost. Is the DEF free of coolant?',
-      passAnswer: 'yes',
-      next: { pass: 'def-pct', fail: 'coolant-in-def' },
-    },
+    }, { yes: 'def-pct', no: 'coolant-in-def' }),
     {
       id: 'def-pct', title: 'DEF concentration', measure: 'concentration', checks: 'def',
       component: 'DEF tank',
@@ -277,30 +220,18 @@ export const DEF_CARD: CardDefinitionInput = {
     },
   ],
   conclusions: [
-    {
-      id: 'def-ok', text: 'DEF within specification', kind: 'ok',
-      detail: 'The fluid is good: if the code stays, the DEF quality sensor or its wiring is next (maker’s procedure).',
-    },
-    {
-      id: 'diluted', text: 'DEF diluted: drain, flush and refill with fresh DEF', kind: 'fault', condemns: 'def',
-      detail: 'Find how water got in (wrong fill, rain through the cap).',
-    },
-    {
-      id: 'too-strong', text: 'DEF too strong: drain and refill with fresh DEF', kind: 'fault', condemns: 'def',
-      detail: 'Old or evaporated DEF concentrates; check the stock it came from.',
-    },
-    {
-      id: 'contaminated', text: 'DEF contaminated: drain and clean the tank before refilling', kind: 'fault', condemns: 'def',
-      detail: 'Fuel or oil in the DEF system can damage the pump, lines and catalyst: do not run the dosing system; follow the maker’s '
-        + 'procedure.',
-    },
-    {
-      id: 'coolant-in-def', text: 'Coolant in the DEF: pressure-test the tank’s heater coil', kind: 'fault', condemns: 'def-heater',
-      detail: 'Drain and clean the DEF tank, repair or replace the heater, and check the coolant level.',
-    },
-    {
-      id: 'lab-check', text: 'Both samples just outside: confirm before draining', kind: 'refer',
-      detail: 'Read it with a second refractometer or send a sample to a lab before draining a tank that may be good.',
-    },
+    good('def-ok', 'DEF within specification',
+      'The fluid is good: if the code stays, the DEF quality sensor or its wiring is next (maker’s procedure).'),
+    fault('diluted', 'DEF diluted: drain, flush and refill with fresh DEF', 'def',
+      'Find how water got in (wrong fill, rain through the cap).'),
+    fault('too-strong', 'DEF too strong: drain and refill with fresh DEF', 'def',
+      'Old or evaporated DEF concentrates; check the stock it came from.'),
+    fault('contaminated', 'DEF contaminated: drain and clean the tank before refilling', 'def',
+      'Fuel or oil in the DEF system can damage the pump, lines and catalyst: do not run the dosing system; follow the maker’s '
+      + 'procedure.'),
+    fault('coolant-in-def', 'Coolant in the DEF: pressure-test the tank’s heater coil', 'def-heater',
+      'Drain and clean the DEF tank, repair or replace the heater, and check the coolant level.'),
+    refer('lab-check', 'Both samples just outside: confirm before draining',
+      'Read it with a second refractometer or send a sample to a lab before draining a tank that may be good.'),
   ],
 }

@@ -1,6 +1,7 @@
 // Batteries, cranking and charging, and a smart sensor on the CAN bus.
 import type { CardDefinitionInput } from '../../../../shared/schemas/testCards'
 import { BACK_PROBE, BATTERY, DEFER, HOT_EXHAUST, KEY_OFF, RUNNING, TRAFFIC } from './cautions'
+import { fault, good, refer, yesNo } from './steps'
 
 export const BATTERY_CARD: CardDefinitionInput = {
   title: 'Batteries: each one isolated, charged and load tested',
@@ -29,17 +30,15 @@ export const BATTERY_CARD: CardDefinitionInput = {
     'Load test at half the cold-cranking rating for 15 s, least voltage by temperature (from memory)',
   ],
   steps: [
-    {
-      id: 'isolate', title: 'Each battery on its own', measure: 'yes_no', conditions: 'key_off',
+    yesNo('isolate', 'Each battery on its own', {
+      conditions: 'key_off',
       component: 'Battery box',
       instruction: 'Key off, lights off, and the truck stood at least an hour with nothing charging (or switch the headlights on for a '
         + 'minute and off to take off surface charge). '
         + 'Disconnect each battery’s cables, negative first, so each stands alone: in parallel they read the average and hide a bad one. '
         + 'On a 24 V system each 12 V battery is read alone too. '
         + 'Is the battery you are testing now on its own?',
-      passAnswer: 'yes',
-      next: { pass: 'soc', fail: 'isolate-first' },
-    },
+    }, { yes: 'soc', no: 'isolate-first' }),
     {
       id: 'soc', title: 'State of charge from resting voltage', measure: 'calc', conditions: 'key_off', checks: 'charge',
       component: 'One 12 V battery', pins: 'On its posts, not the cable clamps',
@@ -75,23 +74,15 @@ export const BATTERY_CARD: CardDefinitionInput = {
     },
   ],
   conclusions: [
-    {
-      id: 'isolate-first', text: 'Isolate the batteries first, then run the card again', kind: 'refer',
-      detail: 'Batteries in a pack read the average: a shorted or sulphated one hides behind the good ones.',
-    },
-    {
-      id: 'charge-first', text: 'Charge this battery, let it rest, then test it again', kind: 'refer',
-      detail: 'Slow-charge to full, let it stand an hour (or remove the surface charge) and run the card again; one that will not take a '
-        + 'charge fails its load test.',
-    },
-    {
-      id: 'battery-good', text: 'This battery is good: test the next one the same way', kind: 'ok',
-      detail: 'When every battery is good, run the cranking and charging card for the cables, starter and alternator.',
-    },
-    {
-      id: 'replace-battery', text: 'Replace this battery', kind: 'fault', condemns: 'battery',
-      detail: 'Fit the same type and rating, test the others in the pack, and follow the fleet’s practice on replacing a pack together.',
-    },
+    refer('isolate-first', 'Isolate the batteries first, then run the card again',
+      'Batteries in a pack read the average: a shorted or sulphated one hides behind the good ones.'),
+    refer('charge-first', 'Charge this battery, let it rest, then test it again',
+      'Slow-charge to full, let it stand an hour (or remove the surface charge) and run the card again; one that will not take a '
+      + 'charge fails its load test.'),
+    good('battery-good', 'This battery is good: test the next one the same way',
+      'When every battery is good, run the cranking and charging card for the cables, starter and alternator.'),
+    fault('replace-battery', 'Replace this battery', 'battery',
+      'Fit the same type and rating, test the others in the pack, and follow the fleet’s practice on replacing a pack together.'),
   ],
 }
 
@@ -120,13 +111,10 @@ export const CRANKING_CHARGING_CARD: CardDefinitionInput = {
     'Ripple under 0.5 V AC: common practice',
   ],
   steps: [
-    {
-      id: 'batteries-first', title: 'Batteries tested good first', measure: 'yes_no',
+    yesNo('batteries-first', 'Batteries tested good first', {
       instruction: 'Has every battery passed the battery card today? A weak battery makes every cranking reading look like a cable or a '
         + 'starter fault.',
-      passAnswer: 'yes',
-      next: { pass: 'crank-volts', fail: 'battery-card' },
-    },
+    }, { yes: 'crank-volts', no: 'battery-card' }),
     {
       id: 'crank-volts', title: 'Voltage while cranking', measure: 'calc', conditions: 'cranking', checks: 'cranking',
       component: 'Battery pack', pins: 'Positive to negative post of the pack',
@@ -158,14 +146,12 @@ export const CRANKING_CHARGING_CARD: CardDefinitionInput = {
       spec: { kind: 'range', max: 0.5 },
       next: { pass: 'system-good', fail: 'replace-alternator' },
     },
-    {
-      id: 'belt', title: 'Belt and pulley sound', measure: 'yes_no', checks: 'belt',
+    yesNo('belt', 'Belt and pulley sound', {
+      checks: 'belt',
       component: 'Alternator drive belt',
       instruction: 'Engine off. Is the belt tensioned to the maker’s figure, not glazed or cracked, the tensioner working and the pulley '
         + 'not slipping on its shaft?',
-      passAnswer: 'yes',
-      next: { pass: 'charge-drop', fail: 'repair-belt' },
-    },
+    }, { yes: 'charge-drop', no: 'repair-belt' }),
     {
       id: 'charge-drop', title: 'Charging cable drop', measure: 'voltage', conditions: 'running', checks: 'wiring',
       component: 'Charging cable', pins: 'Alternator output terminal to battery positive post',
@@ -174,46 +160,34 @@ export const CRANKING_CHARGING_CARD: CardDefinitionInput = {
       spec: { kind: 'range', max: 0.5 },
       next: { pass: 'alt-current', fail: 'repair-charge-cable' },
     },
-    {
-      id: 'alt-current', title: 'Alternator current near its rating', measure: 'yes_no', conditions: 'running', checks: 'alternator',
+    yesNo('alt-current', 'Alternator current near its rating', {
+      conditions: 'running', checks: 'alternator',
       component: 'Alternator output cable', pins: 'Clamp meter around the output cable',
       instruction: 'Load the system (a carbon pile across the batteries, or every load on) at fast idle: does the alternator put out close '
         + 'to its rated current (on its label), at least 90 %?',
-      passAnswer: 'yes',
-      next: { pass: 'ripple', fail: 'replace-alternator' },
-    },
-    {
-      id: 'sense-lead', title: 'Sense lead reads what the batteries do', measure: 'yes_no', conditions: 'running', checks: 'sense-lead',
+    }, { yes: 'ripple', no: 'replace-alternator' }),
+    yesNo('sense-lead', 'Sense lead reads what the batteries do', {
+      conditions: 'running', checks: 'sense-lead',
       component: 'Alternator remote sense lead',
       instruction: 'If the alternator has a remote sense lead, does it read the same as the battery posts within 0.2 V with the engine '
         + 'running? (No sense lead: answer yes.)',
-      passAnswer: 'yes',
-      next: { pass: 'replace-alternator', fail: 'repair-sense-lead' },
-    },
+    }, { yes: 'replace-alternator', no: 'repair-sense-lead' }),
   ],
   conclusions: [
-    { id: 'battery-card', text: 'Test the batteries first (battery card)', kind: 'refer' },
-    {
-      id: 'starter-draw', text: 'Cranking voltage low with good batteries: measure the starter’s current', kind: 'refer',
-      detail: 'A clamp meter on the starter cable while cranking; compare with the maker’s figure before condemning the starter or the '
-        + 'engine’s drag.',
-    },
-    {
-      id: 'repair-cables', text: 'Repair the cranking cable or connection with the drop', kind: 'fault', condemns: 'wiring',
-      detail: 'Measure across each connection on the high side to find the one that loses the voltage; clean or replace it.',
-    },
-    { id: 'repair-belt', text: 'Repair the alternator drive', kind: 'fault', condemns: 'belt' },
-    { id: 'repair-charge-cable', text: 'Repair the charging cable or its fuse link', kind: 'fault', condemns: 'wiring' },
-    { id: 'repair-sense-lead', text: 'Repair the alternator’s sense lead', kind: 'fault', condemns: 'sense-lead' },
-    {
-      id: 'replace-alternator', text: 'Replace the alternator', kind: 'fault', condemns: 'alternator',
-      detail: 'Its output, current or ripple failed with a sound belt and cables. Fit a matching unit, then measure the charging voltage '
-        + 'again.',
-    },
-    {
-      id: 'system-good', text: 'Cranking and charging good', kind: 'ok',
-      detail: 'If the complaint was a flat battery, look for a draw with the key off (parasitic draw) next.',
-    },
+    refer('battery-card', 'Test the batteries first (battery card)'),
+    refer('starter-draw', 'Cranking voltage low with good batteries: measure the starter’s current',
+      'A clamp meter on the starter cable while cranking; compare with the maker’s figure before condemning the starter or the '
+      + 'engine’s drag.'),
+    fault('repair-cables', 'Repair the cranking cable or connection with the drop', 'wiring',
+      'Measure across each connection on the high side to find the one that loses the voltage; clean or replace it.'),
+    fault('repair-belt', 'Repair the alternator drive', 'belt'),
+    fault('repair-charge-cable', 'Repair the charging cable or its fuse link', 'wiring'),
+    fault('repair-sense-lead', 'Repair the alternator’s sense lead', 'sense-lead'),
+    fault('replace-alternator', 'Replace the alternator', 'alternator',
+      'Its output, current or ripple failed with a sound belt and cables. Fit a matching unit, then measure the charging voltage '
+      + 'again.'),
+    good('system-good', 'Cranking and charging good',
+      'If the complaint was a flat battery, look for a draw with the key off (parasitic draw) next.'),
   ],
 }
 
@@ -243,14 +217,12 @@ export const NOX_CARD: CardDefinitionInput = {
     'Supply and ground drops: common practice',
   ],
   steps: [
-    {
-      id: 'look', title: 'Look at the wiring and connectors first', measure: 'yes_no', conditions: 'key_off', checks: 'wiring',
+    yesNo('look', 'Look at the wiring and connectors first', {
+      conditions: 'key_off', checks: 'wiring',
       component: 'NOx sensor module, its probe lead and connectors',
       instruction: 'Key off. Look at the sensor module and both its connectors (the probe lead and the harness): latched, dry, pins clean, '
         + 'the probe lead clear of the exhaust and not pulled tight. Is everything sound?',
-      passAnswer: 'yes',
-      next: { pass: 'power-drop', fail: 'repair-found' },
-    },
+    }, { yes: 'power-drop', no: 'repair-found' }),
     {
       id: 'power-drop', title: 'Power feed under load', measure: 'voltage', conditions: 'key_on_engine_off', checks: 'wiring',
       component: 'NOx module connector, plugged in', pins: 'Battery positive post to the module’s power pin, back-probed',
@@ -290,36 +262,26 @@ export const NOX_CARD: CardDefinitionInput = {
       spec: { kind: 'range', min: 1.5, max: 3 },
       next: { pass: 'talks', fail: 'repair-can' },
     },
-    {
-      id: 'talks', title: 'The sensor answers on the bus', measure: 'yes_no', conditions: 'key_on_engine_off', checks: 'nox-sensor',
+    yesNo('talks', 'The sensor answers on the bus', {
+      conditions: 'key_on_engine_off', checks: 'nox-sensor',
       component: 'Scan tool',
       instruction: 'Clear the codes and let the sensor warm up (engine running if its maker says). Does the scan tool see the sensor and '
         + 'its readings, with no code coming back?',
-      passAnswer: 'yes',
-      next: { pass: 'sensor-good', fail: 'replace-nox' },
-    },
+    }, { yes: 'sensor-good', no: 'replace-nox' }),
   ],
   conclusions: [
-    { id: 'repair-found', text: 'Repair the wiring or connector you found, then run the card again', kind: 'fault', condemns: 'wiring' },
-    { id: 'repair-power', text: 'Repair the sensor’s power feed (fuse, relay or wire)', kind: 'fault', condemns: 'wiring' },
-    { id: 'repair-ground', text: 'Repair the sensor’s ground', kind: 'fault', condemns: 'wiring' },
-    {
-      id: 'fix-termination', text: 'Repair the CAN bus: termination or a short between the lines', kind: 'fault', condemns: 'wiring',
-      detail: 'About 120 Ω: find the missing terminator or the open line; about 40 Ω: the extra terminator; near 0: the short between '
-        + 'CAN-H and CAN-L.',
-    },
-    {
-      id: 'repair-can', text: 'Repair the CAN line that sits off its resting voltage', kind: 'fault', condemns: 'wiring',
-      detail: 'Look for a line shorted to ground or to power, or a module dragging it (unplug modules one at a time).',
-    },
-    {
-      id: 'replace-nox', text: 'Replace the NOx sensor', kind: 'fault', condemns: 'nox-sensor',
-      detail: 'Power, ground and bus are good and the sensor still does not answer. Some makers need the new sensor registered: follow the '
-        + 'maker’s procedure.',
-    },
-    {
-      id: 'sensor-good', text: 'Power, ground and bus good, and the sensor answers: look for an intermittent', kind: 'ok',
-      detail: 'Check the probe lead near the exhaust and the connector for heat damage; verify with a drive.',
-    },
+    fault('repair-found', 'Repair the wiring or connector you found, then run the card again', 'wiring'),
+    fault('repair-power', 'Repair the sensor’s power feed (fuse, relay or wire)', 'wiring'),
+    fault('repair-ground', 'Repair the sensor’s ground', 'wiring'),
+    fault('fix-termination', 'Repair the CAN bus: termination or a short between the lines', 'wiring',
+      'About 120 Ω: find the missing terminator or the open line; about 40 Ω: the extra terminator; near 0: the short between '
+      + 'CAN-H and CAN-L.'),
+    fault('repair-can', 'Repair the CAN line that sits off its resting voltage', 'wiring',
+      'Look for a line shorted to ground or to power, or a module dragging it (unplug modules one at a time).'),
+    fault('replace-nox', 'Replace the NOx sensor', 'nox-sensor',
+      'Power, ground and bus are good and the sensor still does not answer. Some makers need the new sensor registered: follow the '
+      + 'maker’s procedure.'),
+    good('sensor-good', 'Power, ground and bus good, and the sensor answers: look for an intermittent',
+      'Check the probe lead near the exhaust and the connector for heat damage; verify with a drive.'),
   ],
 }
