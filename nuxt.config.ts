@@ -32,11 +32,16 @@ export default defineNuxtConfig({
     // Photo bytes: a folder for the fs driver here; server/plugins/storage.ts mounts it.
     uploadsDir: '.data/uploads',
     uploadsS3Bucket: '',
+    // Sign-in limiter (server/utils/loginLimiter.ts): failures per account at one address, then
+    // a pause of loginLockMinutes; a much higher bound per address over the same window.
     loginMaxFailures: 5,
-    loginMaxFailuresPerAddress: 20,
+    loginMaxFailuresPerAddress: 100,
     loginLockMinutes: 15,
+    // Behind a load balancer: take the client's address from X-Forwarded-For (NUXT_TRUST_PROXY=true).
+    trustProxy: false,
     session: {
-      cookie: { sameSite: 'lax', httpOnly: true, secure: false },
+      // Secure unless the local scripts (plain http on 127.0.0.1) set NUXT_SESSION_COOKIE_SECURE=false.
+      cookie: { sameSite: 'lax', httpOnly: true, secure: true },
       maxAge: 60 * 60 * 24 * 14,
     },
     public: {

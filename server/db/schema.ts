@@ -55,12 +55,26 @@ export const users = pgTable('users', {
   check('users_lon_range', sql`${t.lastLon} IS NULL OR ${t.lastLon} BETWEEN -180 AND 180`),
 ])
 
-/** Failed sign-ins per key (`email:…` or `ip:…`), for slowing and then refusing guesses. */
+/**
+ * Sign-in tries reserved per key (`acct:<email>|<ip>` or `ip:<ip>`) within a window that starts at
+ * the first try; `lockedUntil` is the pause after a key used up its bound (server/utils/loginLimiter.ts).
+ */
 export const loginAttempts = pgTable('login_attempts', {
   key: text('key').primaryKey(),
   failures: integer('failures').notNull().default(0),
   lastFailureAt: ts('last_failure_at').notNull().defaultNow(),
   lockedUntil: ts('locked_until'),
+  windowStartedAt: ts('window_started_at').notNull().defaultNow(),
+})
+
+/**
+ * Each person's session epoch, sealed into their session cookie at sign-in and compared on every
+ * request: signing out or a new password moves it on, which ends every session made before.
+ */
+export const sessionEpochs = pgTable('session_epochs', {
+  userId: uuid('user_id').primaryKey().references(() => users.id, { onDelete: 'cascade' }),
+  epoch: integer('epoch').notNull().default(0),
+  changedAt: ts('changed_at').notNull().defaultNow(),
 })
 
 // ── Our business ──────────────────────────────────────────────────────────────────────────
