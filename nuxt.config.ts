@@ -1,3 +1,5 @@
+import { fileURLToPath } from 'node:url'
+
 // Wayside: one Nuxt app for the mechanic's phone and the office's desktop.
 export default defineNuxtConfig({
   modules: ['@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt'],
@@ -65,6 +67,14 @@ export default defineNuxtConfig({
     tsConfig: { compilerOptions: { noUncheckedIndexedAccess: true } },
   },
   telemetry: false,
+  hooks: {
+    // Our error handler first (503 for a database that does not answer, request ids in JSON
+    // errors), then Nuxt's, which renders app/error.vue for pages.
+    'nitro:config'(config) {
+      const nuxtHandlers = [config.errorHandler].flat().filter((h): h is string => typeof h === 'string')
+      config.errorHandler = [fileURLToPath(new URL('./server/error.ts', import.meta.url)), ...nuxtHandlers]
+    },
+  },
   // Lint with Nuxt's own config and its stylistic rules (npm run lint; part of npm test).
   eslint: { config: { stylistic: true } },
   pwa: {

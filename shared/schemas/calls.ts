@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { optText, recordId, versionField } from './fields'
+import { cleanText, requiredText, searchQuery } from './text'
 import { customerCreateSchema } from './customers'
 import { unitDraftSchema } from './units'
 
@@ -25,7 +26,7 @@ export const callListQuerySchema = z.object({
   mechanicId: z.string().uuid('Not a valid mechanic id').optional(),
   customerId: z.string().uuid('Not a valid customer id').optional(),
   unitId: z.string().uuid('Not a valid unit id').optional(),
-  q: z.string().trim().max(100).optional(),
+  q: searchQuery,
   sort: z.enum(['number', 'receivedAt', 'statusChangedAt', 'status']).optional(),
   dir: z.enum(['asc', 'desc']).optional(),
   page: z.coerce.number({ message: 'Page must be a number' }).int().min(1).max(10_000).default(1),
@@ -59,16 +60,17 @@ const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'La
 const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
 
 const dispatchFields = {
-  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)'),
+  locationText: requiredText(300, 'Location', { missing: 'Say where the truck is' }),
   lat: latField,
   lon: lonField,
-  complaint: z.string({ message: 'Write the driver\'s complaint' }).trim().min(1, 'Write the driver\'s complaint').max(2000, 'Complaint is too long (at most 2000 characters)'),
-  lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters'), { message: 'Lamps must be a list' }).max(12, 'At most 12 lamps'),
+  complaint: requiredText(2000, 'Complaint', { multiline: true, missing: 'Write the driver\'s complaint' }),
+  lamps: z.array(cleanText('A lamp name').min(1, 'Name the lamp').max(40, 'A lamp name is at most 40 characters'),
+    { message: 'Lamps must be a list' }).max(12, 'At most 12 lamps'),
   derate: z.enum(DERATE_STATES, { message: 'Pick how the engine runs' }),
   derateNote: optText(300, 'Derate note'),
   loaded: z.boolean({ message: 'Loaded must be yes or no' }),
   hazmat: z.boolean({ message: 'Hazmat must be yes or no' }),
-  safetyNotes: optText(1000, 'Safety notes'),
+  safetyNotes: optText(1000, 'Safety notes', { multiline: true }),
   callerName: optText(120, 'Caller name'),
   callerPhone: optText(40, 'Caller phone'),
   poNumber: optText(60, 'PO number'),
@@ -142,7 +144,8 @@ export const callAssignSchema = z.object({
 })
 
 export const callCancelSchema = z.object({
-  reason: z.string({ message: 'Say why the call is cancelled' }).trim().min(3, 'Say why the call is cancelled').max(500, 'Reason is too long (at most 500 characters)'),
+  reason: requiredText(500, 'Reason', { multiline: true, missing: 'Say why the call is cancelled' })
+    .min(3, 'Say why the call is cancelled'),
   version: versionField.optional(),
 })
 

@@ -4,6 +4,7 @@ import { z } from 'zod'
 import { parseDtc } from '../utils/dtc'
 import { specBounds } from '../utils/spec'
 import { READING_QUANTITIES } from './sync'
+import { cleanText, requiredText } from './text'
 
 export { READING_QUANTITIES }
 export type ReadingQuantity = (typeof READING_QUANTITIES)[number]
@@ -23,7 +24,8 @@ const keypadNumber = (v: unknown) => (typeof v === 'string' ? (v.trim() === '' ?
 const num = (label: string) => z.number({ message: `${label} must be a number` })
 export const typedNumber = (label: string, check: (n: z.ZodNumber) => z.ZodNumber = n => n) => z.preprocess(keypadNumber, check(num(label)))
 const optTypedNumber = (label: string, check: (n: z.ZodNumber) => z.ZodNumber = n => n) => z.preprocess(keypadNumber, check(num(label)).optional())
-const optText = (max: number, label: string) => z.string().trim().max(max, `${label} is too long (at most ${max} characters)`)
+const optText = (max: number, label: string, multiline = false) => cleanText(label, { multiline })
+  .max(max, `${label} is too long (at most ${max} characters)`)
   .optional().transform(v => (v ? v : undefined))
 
 export const readingSpecSchema = z.object({
@@ -40,10 +42,10 @@ export const readingSpecSchema = z.object({
   })
 
 export const readingInputSchema = z.object({
-  label: z.string().trim().min(1, 'Say what was measured').max(120, 'Label is too long'),
+  label: requiredText(120, 'Label', { missing: 'Say what was measured' }),
   quantity: z.enum(READING_QUANTITIES, { message: 'Pick what kind of value it is' }),
   value: typedNumber('Value'),
-  unit: z.string().trim().min(1, 'Pick the unit').max(16, 'Unit is too long'),
+  unit: requiredText(16, 'Unit', { missing: 'Pick the unit' }),
   component: optText(120, 'Where taken'),
   pins: optText(60, 'Pins'),
   conditions: optText(120, 'Conditions'),
@@ -53,7 +55,7 @@ export type ReadingInput = z.input<typeof readingInputSchema>
 
 export const faultCodeInputSchema = z.object({
   form: z.enum(['j2012', 'j1939']),
-  code: z.string().optional(),
+  code: cleanText('Code').max(40, 'Code is too long').optional(),
   spn: optTypedNumber('SPN'),
   fmi: optTypedNumber('FMI'),
   state: z.enum(['active', 'stored'], { message: 'Pick active or stored' }),
@@ -71,15 +73,15 @@ export const faultCodeInputSchema = z.object({
   : { spn: v.spn as number, fmi: v.fmi as number, state: v.state, count: v.count }))
 
 export const noteInputSchema = z.object({
-  text: z.string().trim().min(1, 'Write the note first').max(4000, 'Note is too long (at most 4000 characters)'),
+  text: requiredText(4000, 'Note', { multiline: true, missing: 'Write the note first' }),
 })
 
 const cents = (label: string) => optTypedNumber(label, n => n.min(0, `${label} cannot be negative`).max(10_000_000, `${label} is too large`))
   .transform(v => (v === undefined ? undefined : Math.round(v * 100)))
 
 export const partLineInputSchema = z.object({
-  partNumber: z.string().trim().min(1, 'Part number is required').max(40, 'Part number is too long'),
-  description: z.string().trim().min(1, 'Description is required').max(200, 'Description is too long'),
+  partNumber: requiredText(40, 'Part number', { missing: 'Part number is required' }),
+  description: requiredText(200, 'Description', { missing: 'Description is required' }),
   quantity: typedNumber('Quantity', n => n.gt(0, 'Quantity must be above 0').max(1000, 'Quantity is too large')),
   unitPrice: cents('Unit price'),
   corePrice: cents('Core charge'),
@@ -87,13 +89,13 @@ export const partLineInputSchema = z.object({
 }).transform(({ unitPrice, corePrice, ...p }) => ({ ...p, unitPriceCents: unitPrice ?? 0, coreChargeCents: corePrice ?? 0 }))
 
 export const storyInputSchema = z.object({
-  storyComplaint: z.string().trim().max(4000, 'Complaint is too long'),
-  storyCause: z.string().trim().max(4000, 'Cause is too long'),
-  storyCorrection: z.string().trim().max(4000, 'Correction is too long'),
+  storyComplaint: cleanText('Complaint', { multiline: true }).max(4000, 'Complaint is too long'),
+  storyCause: cleanText('Cause', { multiline: true }).max(4000, 'Cause is too long'),
+  storyCorrection: cleanText('Correction', { multiline: true }).max(4000, 'Correction is too long'),
 })
 
 export const signOffInputSchema = z.object({
-  driverName: z.string().trim().min(1, 'Write the driver\'s name').max(120, 'Name is too long'),
+  driverName: requiredText(120, 'Name', { missing: 'Write the driver\'s name' }),
   signature: z.string({ message: 'The driver signs in the box first' })
     .startsWith('data:image/png;base64,', 'The driver signs in the box first')
     .max(400_000, 'The signature is too large; clear it and sign again'),
@@ -102,7 +104,7 @@ export const signOffInputSchema = z.object({
 export const verificationInputSchema = z.object({
   codesCleared: z.boolean(),
   liveValuesChecked: z.boolean(),
-  liveValuesNote: optText(500, 'Live values note'),
+  liveValuesNote: optText(500, 'Live values note', true),
   testDriveKm: optTypedNumber('Test drive distance', n => n.min(0, 'Distance cannot be negative').max(2000, 'Distance is too large')),
   testDriveMinutes: optTypedNumber('Test drive time', n => n.min(0, 'Time cannot be negative').max(1440, 'Time is too long')),
   lampsOff: z.boolean(),
@@ -111,5 +113,5 @@ export const verificationInputSchema = z.object({
 export type VerificationInput = z.input<typeof verificationInputSchema>
 
 export const followUpInputSchema = z.object({
-  followUp: z.string().trim().min(1, 'Say what still needs doing').max(1000, 'Follow-up is too long'),
+  followUp: requiredText(1000, 'Follow-up', { multiline: true, missing: 'Say what still needs doing' }),
 })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { cleanText } from './text'
 
 export const INVOICE_STATUSES = ['draft', 'sent', 'paid', 'void'] as const
 export type InvoiceStatus = (typeof INVOICE_STATUSES)[number]
@@ -20,7 +21,7 @@ export const invoiceListQuerySchema = z.object({
  */
 export const invoicePaySchema = z.object({
   method: z.enum(['card', 'account'], { message: 'Choose card or account' }),
-  paymentMethod: z.string().trim().min(3, 'Enter the payment method reference').max(100).optional(),
+  paymentMethod: cleanText('Payment method reference').min(3, 'Enter the payment method reference').max(100).optional(),
 }).refine(v => v.method !== 'card' || !!v.paymentMethod, { message: 'Enter the payment method reference', path: ['paymentMethod'] })
 
 export type InvoicePayInput = z.infer<typeof invoicePaySchema>

@@ -4,6 +4,7 @@
 // a conclusion (so no loop a mechanic could never leave).
 import { z } from 'zod'
 import { parseCodePattern } from '../utils/faultMatch'
+import { cleanText } from './text'
 
 export const NUMERIC_MEASURES = ['resistance', 'voltage', 'temperature', 'pressure', 'concentration'] as const
 export const CARD_MEASURES = [...NUMERIC_MEASURES, 'yes_no', 'choice'] as const
@@ -33,8 +34,9 @@ const num = (what: string) => z.number({ message: `${what} must be a number` }).
 const positive = (what: string) => num(what).positive(`${what} must be more than 0`)
 const id = z.string({ message: 'Give an id' }).trim()
   .regex(/^[a-z][a-z0-9_-]{0,39}$/, 'Use lower-case letters, digits, - or _, starting with a letter (at most 40)')
-const text = (what: string, max: number) => z.string({ message: `Enter ${what}` }).trim().min(1, `Enter ${what}`).max(max, `Keep ${what} under ${max} characters`)
-const optText = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters`).optional()
+const text = (what: string, max: number, multiline = false) => cleanText(what, { multiline, missing: `Enter ${what}` })
+  .min(1, `Enter ${what}`).max(max, `Keep ${what} under ${max} characters`)
+const optText = (max: number, multiline = false) => cleanText('This', { multiline }).max(max, `Keep it under ${max} characters`).optional()
 
 // Computed specs and nominal specs take one tolerance: absolute (in the base unit) or percent.
 const tolerance = {
@@ -65,7 +67,7 @@ const target = z.string({ message: 'Pick where this leads' }).trim().min(1, 'Pic
 export const cardStepSchema = z.object({
   id,
   title: text('a short title', 80),
-  instruction: text('what to do', 1000),
+  instruction: text('what to do', 1000, true),
   measure: z.enum(CARD_MEASURES, { message: 'Pick what to measure' }),
   conditions: z.enum(CARD_CONDITIONS, { message: 'Pick the conditions' }).optional(),
   component: optText(120),
@@ -114,7 +116,7 @@ export const cardConclusionSchema = z.object({
   id,
   text: text('the conclusion', 200),
   kind: z.enum(CONCLUSION_KINDS, { message: 'Pick fault, ok or refer' }),
-  detail: optText(1000),
+  detail: optText(1000, true),
 })
 export type CardConclusion = z.infer<typeof cardConclusionSchema>
 
@@ -127,7 +129,7 @@ function checkCodePattern(p: string, ctx: z.RefinementCtx) {
 export const cardDefinitionSchema = z.object({
   title: text('a title', 120),
   componentType: text('the component type', 60),
-  summary: optText(500),
+  summary: optText(500, true),
   codePatterns: z.array(
     z.string({ message: 'Write a code like P0544, P20* or SPN 3242 FMI *' }).trim().toUpperCase().superRefine(checkCodePattern),
   ).max(40, 'At most 40 code patterns').default([]),

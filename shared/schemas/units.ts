@@ -1,14 +1,15 @@
 import { z } from 'zod'
 import { vinProblem } from '../utils/vin'
 import { optInt, optText, pageQuery, recordId, versionField } from './fields'
+import { cleanText, requiredText } from './text'
 
 export const ODOMETER_UNITS = ['km', 'mi'] as const
 
-const vinField = z.string({ message: 'VIN must be text' }).trim().toUpperCase().max(40, 'A VIN has 17 characters')
+const vinField = cleanText('VIN').toUpperCase().max(40, 'A VIN has 17 characters')
   .nullable().optional().transform(v => (v === '' ? null : v))
 
 const unitFields = {
-  unitNumber: z.string({ message: 'Enter the customer\'s unit number' }).trim().min(1, 'Enter the customer\'s unit number').max(40, 'Unit number is too long (at most 40 characters)'),
+  unitNumber: requiredText(40, 'Unit number', { missing: 'Enter the customer\'s unit number' }),
   vin: vinField,
   vinOverrideReason: optText(300, 'The reason'),
   yearMakeModel: optText(120, 'Year, make and model'),
@@ -16,7 +17,7 @@ const unitFields = {
   odometer: optInt(0, 9_999_999, 'Odometer'),
   odometerUnit: z.enum(ODOMETER_UNITS, { message: 'Odometer is in km or mi' }),
   engineHours: z.number({ message: 'Engine hours must be a number' }).min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
-  notes: optText(2000, 'Notes'),
+  notes: optText(2000, 'Notes', { multiline: true }),
 }
 
 /**
