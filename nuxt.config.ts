@@ -2,7 +2,10 @@ import { fileURLToPath } from 'node:url'
 
 // Wayside: one Nuxt app for the mechanic's phone and the office's desktop.
 export default defineNuxtConfig({
-  modules: ['@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  modules: [
+    '@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils',
+    '@vueuse/nuxt', 'nuxt-security',
+  ],
   devtools: { enabled: false },
   app: {
     head: {
@@ -110,5 +113,44 @@ export default defineNuxtConfig({
     },
     client: { installPrompt: false, periodicSyncForUpdates: 3600 },
     devOptions: { enabled: false },
+  },
+  // Security headers and the content security policy (nuxt-security 2.5: the line that runs on
+  // Node 20). Its rate limiter is off (in one process's memory; the sign-in limiter lives in
+  // PostgreSQL), its size limiter too (server/middleware/bodyLimit.ts caps bodies by route), and
+  // its XSS filter and CORS handler (Vue escapes output; the API is same-origin only).
+  security: {
+    rateLimiter: false,
+    requestSizeLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+    // Keep console output: the phone's sync reports through it and the browser tests read it.
+    removeLoggers: false,
+    nonce: true,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ['\'self\''],
+        'base-uri': ['\'none\''],
+        'object-src': ['\'none\''],
+        'frame-ancestors': ['\'self\''],
+        'form-action': ['\'self\''],
+        // Nuxt's entry and inline payload carry the per-request nonce (prerendered pages such as
+        // the offline shell get hashes instead); 'strict-dynamic' lets those load the route chunks.
+        'script-src': ['\'self\'', '\'strict-dynamic\'', '\'nonce-{{nonce}}\''],
+        'script-src-attr': ['\'none\''],
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
+        // Photos waiting on the phone are shown from blob: URLs; the signature is a data: PNG.
+        'img-src': ['\'self\'', 'data:', 'blob:'],
+        'font-src': ['\'self\'', 'data:'],
+        'connect-src': ['\'self\''],
+        'worker-src': ['\'self\''],
+        'manifest-src': ['\'self\''],
+        // HTTPS is the load balancer's job; upgrading here would break plain http on 127.0.0.1.
+        'upgrade-insecure-requests': false,
+      },
+      referrerPolicy: 'same-origin',
+      // The phone asks for its position (with consent) and may use the camera for photos.
+      permissionsPolicy: { 'camera': ['self'], 'geolocation': ['self'], 'microphone': [], 'display-capture': [], 'fullscreen': ['self'] },
+    },
   },
 })
