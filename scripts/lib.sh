@@ -49,6 +49,11 @@ ensure_chromium() {
   command -v chromium >/dev/null || apt_install chromium
 }
 
+# pdftoppm renders invoice PDFs to PNG for the browser tests' screenshots.
+ensure_poppler() {
+  command -v pdftoppm >/dev/null || apt_install poppler-utils
+}
+
 ensure_node_modules() {
   local want have=""
   want="$(sha256sum "$ROOT/package-lock.json" | cut -d' ' -f1)"

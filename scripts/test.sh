@@ -24,6 +24,7 @@ export NUXT_UPLOADS_DIR="$DATA/test-uploads-$SLOT"
 
 ensure_node_modules
 want e2e && ensure_chromium
+want e2e && ensure_poppler
 ensure_cluster_running
 export NUXT_DATABASE_URL="postgres://wayside@127.0.0.1:$PGPORT/$TEST_DB"
 export WAYSIDE_PG_BIN="$PGBIN"

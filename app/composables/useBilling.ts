@@ -1,13 +1,14 @@
-import type { InvoicePayInput } from '#shared/schemas/invoices'
+import type { InvoiceAdjustmentInput, InvoicePayInput } from '#shared/schemas/invoices'
 
 export const BILLING_READY_KEY = 'billing-ready'
 export const INVOICES_KEY = 'billing-invoices'
+export const BILLING_DESK_KEY = 'billing-desk'
 export const invoiceKey = (id: string) => `invoice-${id}`
 
 export function useBilling() {
   async function draft(callId: string) {
     const inv = await $fetch<{ id: string }>('/api/invoices', { method: 'POST', body: { callId } })
-    await Promise.all([refreshNuxtData(BILLING_READY_KEY), refreshNuxtData(INVOICES_KEY)])
+    await Promise.all([refreshNuxtData(BILLING_READY_KEY), refreshNuxtData(INVOICES_KEY), refreshNuxtData(BILLING_DESK_KEY)])
     return inv
   }
   async function send(id: string) {
@@ -18,5 +19,10 @@ export function useBilling() {
     await $fetch(`/api/invoices/${id}/pay`, { method: 'POST', body: input })
     await refreshNuxtData(invoiceKey(id))
   }
-  return { draft, send, pay }
+  /** One change to a draft, with its reason; the page shows the repriced invoice. */
+  async function adjust(id: string, input: InvoiceAdjustmentInput) {
+    await $fetch(`/api/invoices/${id}/adjustments`, { method: 'POST', body: input })
+    await Promise.all([refreshNuxtData(invoiceKey(id)), refreshNuxtData(BILLING_DESK_KEY)])
+  }
+  return { draft, send, pay, adjust }
 }

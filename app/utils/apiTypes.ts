@@ -8,3 +8,5 @@ type Answer<Route extends keyof InternalApi, M extends keyof InternalApi[Route]>
 export type CallRecordView = Extract<Answer<'/api/calls/:id', 'get'>, { view: 'office' }>
 export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
 export type UnitView = Answer<'/api/units/:id', 'get'>
+export type InvoiceView = Answer<'/api/invoices/:id', 'get'>
+export type BillingDeskView = Answer<'/api/billing/desk', 'get'>

@@ -123,11 +123,35 @@ export const rates = pgTable('rates', {
   taxRateBasisPoints: integer('tax_rate_basis_points').notNull().default(0),
   laborTaxable: boolean('labor_taxable').notNull().default(false),
   averageRoadKph: integer('average_road_kph').notNull().default(70),
+  // Defaults reproduce the prices of rates set before these settings existed.
+  travelBasis: text('travel_basis').notNull().default('distance'),
+  travelCentsPerHour: integer('travel_cents_per_hour').notNull().default(0),
+  roadFactorPct: integer('road_factor_pct').notNull().default(100),
+  travelTaxable: boolean('travel_taxable').notNull().default(false),
+  partsTaxable: boolean('parts_taxable').notNull().default(true),
+  coresTaxable: boolean('cores_taxable').notNull().default(false),
+  feesTaxable: boolean('fees_taxable').notNull().default(false),
+  shopSuppliesBasisPoints: integer('shop_supplies_basis_points').notNull().default(0),
+  shopSuppliesCapCents: integer('shop_supplies_cap_cents'),
+  environmentalFeeCents: integer('environmental_fee_cents').notNull().default(0),
+  timeZone: text('time_zone').notNull().default('UTC'),
+  openMinute: integer('open_minute').notNull().default(0),
+  closeMinute: integer('close_minute').notNull().default(1440),
+  openDays: jsonb('open_days').$type<number[]>().notNull().default([1, 2, 3, 4, 5, 6, 7]),
+  holidays: jsonb('holidays').$type<string[]>().notNull().default([]),
+  // The business as its invoices print it.
+  businessName: text('business_name').notNull().default(''),
+  businessPhone: text('business_phone').notNull().default(''),
+  businessEmail: text('business_email').notNull().default(''),
+  remitAddress: text('remit_address').notNull().default(''),
   effectiveFrom: ts('effective_from').notNull().defaultNow(),
   ...synced,
 }, t => [
   check('rates_travel_unit', sql`${t.travelUnit} IN ('km', 'mi')`),
   check('rates_nonneg', sql`${t.laborCentsPerHour} >= 0 AND ${t.travelCentsPerUnit} >= 0 AND ${t.partsMarkupPct} >= 0 AND ${t.taxRateBasisPoints} >= 0 AND ${t.averageRoadKph} > 0`),
+  check('rates_travel_basis', sql`${t.travelBasis} IN ('distance', 'time')`),
+  check('rates_hours', sql`${t.openMinute} BETWEEN 0 AND 1440 AND ${t.closeMinute} BETWEEN 0 AND 1440`),
+  check('rates_fees_nonneg', sql`${t.travelCentsPerHour} >= 0 AND ${t.shopSuppliesBasisPoints} >= 0 AND ${t.environmentalFeeCents} >= 0 AND ${t.roadFactorPct} >= 100`),
 ])
 
 // ── Fleets and units ──────────────────────────────────────────────────────────────────────
@@ -348,6 +372,8 @@ export const photos = pgTable('photos', {
   sha256: text('sha256'),
   storageKey: text('storage_key'),
   uploadedAt: ts('uploaded_at'),
+  /** Set by the office: the photo goes on the invoice the customer receives. */
+  showCustomer: boolean('show_customer').notNull().default(false),
   ...synced,
 }, t => [index('photos_call_idx').on(t.callId), index('photos_change_idx').on(t.changeXid)])
 
@@ -395,6 +421,8 @@ export const invoices = pgTable('invoices', {
   taxCents: integer('tax_cents').notNull().default(0),
   totalCents: integer('total_cents').notNull().default(0),
   ratesId: uuid('rates_id').references(() => rates.id),
+  /** What the draft was priced from (shared/utils/billing.ts PricingInput without the office's changes). */
+  pricingInput: jsonb('pricing_input').$type<Record<string, unknown>>(),
   dueAt: ts('due_at'),
   sentAt: ts('sent_at'),
   paidAt: ts('paid_at'),
@@ -416,7 +444,29 @@ export const invoiceLines = pgTable('invoice_lines', {
   unitCents: integer('unit_cents').notNull(),
   amountCents: integer('amount_cents').notNull(),
   taxable: boolean('taxable').notNull(),
+  /** The pricing's key for this line (labor, part:<id>, office:<id>…), which the office's changes name. */
+  key: text('key'),
+  /** Where the figures come from: clock event ids, the part line, the rate, or the office. */
+  source: jsonb('source').$type<Record<string, unknown>>(),
 }, t => [index('invoice_lines_invoice_idx').on(t.invoiceId)])
+
+/** The office's changes to a draft, in order: who, when, why, the line before and after. */
+export const invoiceAdjustments = pgTable('invoice_adjustments', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  invoiceId: uuid('invoice_id').notNull().references(() => invoices.id, { onDelete: 'cascade' }),
+  action: text('action').notNull(),
+  lineKey: text('line_key'),
+  /** The change as the pricing replays it (a PriceAdjustment). */
+  change: jsonb('change').$type<Record<string, unknown>>().notNull(),
+  before: jsonb('before').$type<Record<string, unknown>>(),
+  after: jsonb('after').$type<Record<string, unknown>>(),
+  reason: text('reason').notNull(),
+  byUserId: uuid('by_user_id').notNull().references(() => users.id),
+  at: ts('at').notNull().defaultNow(),
+}, t => [
+  index('invoice_adjustments_invoice_idx').on(t.invoiceId, t.at),
+  check('invoice_adjustments_action', sql`${t.action} IN ('add', 'change', 'remove', 'road')`),
+])
 
 export const payments = pgTable('payments', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -547,6 +597,11 @@ export const invoicesRelations = relations(invoices, ({ one, many }) => ({
   customer: one(customers, { fields: [invoices.customerId], references: [customers.id] }),
   lines: many(invoiceLines),
   payments: many(payments),
+  adjustments: many(invoiceAdjustments),
+}))
+export const invoiceAdjustmentsRelations = relations(invoiceAdjustments, ({ one }) => ({
+  invoice: one(invoices, { fields: [invoiceAdjustments.invoiceId], references: [invoices.id] }),
+  by: one(users, { fields: [invoiceAdjustments.byUserId], references: [users.id] }),
 }))
 export const invoiceLinesRelations = relations(invoiceLines, ({ one }) => ({ invoice: one(invoices, { fields: [invoiceLines.invoiceId], references: [invoices.id] }) }))
 export const paymentsRelations = relations(payments, ({ one }) => ({ invoice: one(invoices, { fields: [payments.invoiceId], references: [invoices.id] }) }))

@@ -10,16 +10,6 @@ export async function currentRates(db: Db | Tx = useDb()) {
   return r
 }
 
-/** Round trip from the service truck's yard to the call, in the rates' unit. */
-async function travelDistance(tx: Tx, call: typeof tables.calls.$inferSelect, unit: 'km' | 'mi') {
-  if (call.lat == null || call.lon == null || !call.serviceTruckId) return 0
-  const [yard] = await tx.select({ lat: tables.yards.lat, lon: tables.yards.lon }).from(tables.serviceTrucks)
-    .innerJoin(tables.yards, eq(tables.yards.id, tables.serviceTrucks.yardId)).where(eq(tables.serviceTrucks.id, call.serviceTruckId))
-  if (!yard) return 0
-  const km = 2 * haversineKm(yard, { lat: call.lat, lon: call.lon })
-  return unit === 'mi' ? km / 1.609344 : km
-}
-
 /** Drafts the invoice from the synced record and closes the call to further field changes. */
 export async function draftInvoice(callId: string, user: User) {
   return useDb().transaction(async (tx) => {
@@ -30,21 +20,14 @@ export async function draftInvoice(callId: string, user: User) {
     if (call.status !== 'completed') ruleError('callId', `Only a call whose work is done can be billed (this one is ${STATUS_LABELS[call.status].toLowerCase()})`)
     const [customer] = await tx.select().from(tables.customers).where(eq(tables.customers.id, call.customerId))
     const rates = await currentRates(tx)
-    const clock = await tx.select().from(tables.clockEvents).where(eq(tables.clockEvents.callId, callId))
-    const parts = await tx.select().from(tables.partLines).where(eq(tables.partLines.callId, callId))
-    const { laborMs } = clockTotals(clock.map(c => ({ kind: c.kind, at: c.deviceAt ?? c.createdAt })), call.completedAt ?? new Date())
-    const priced = priceCall({
-      rates: { ...rates, travelUnit: rates.travelUnit as 'km' | 'mi' },
-      laborMs, travelDistance: await travelDistance(tx, call, rates.travelUnit as 'km' | 'mi'),
-      parts, taxExempt: customer?.taxExempt ?? false,
-    })
+    const input = await pricingInputFor(tx, call, rates, customer?.taxExempt ?? false)
+    const priced = priceOrRefuse(input, [], 'callId')
     const netDays = customer?.billingTerms === 'account' ? (customer.netDays ?? 30) : 0
     const [invoice] = await tx.insert(tables.invoices).values({
       callId, customerId: call.customerId, status: 'draft', ratesId: rates.id,
-      subtotalCents: priced.subtotalCents, taxCents: priced.taxCents, totalCents: priced.totalCents,
-      dueAt: new Date(Date.now() + netDays * 86_400_000),
+      pricingInput: input, dueAt: new Date(Date.now() + netDays * 86_400_000),
     }).returning()
-    await tx.insert(tables.invoiceLines).values(priced.lines.map((l, i) => ({ ...l, invoiceId: invoice!.id, sort: i })))
+    await writePriced(tx, invoice!.id, priced)
     await tx.update(tables.calls).set({ status: 'invoiced', invoicedAt: new Date(), statusChangedAt: new Date() }).where(eq(tables.calls.id, callId))
     await tx.insert(tables.callEvents).values({ callId, kind: 'status', fromStatus: 'completed', toStatus: 'invoiced', byUserId: user.id, note: `Invoice W-${invoice!.number} drafted` })
     return invoice!.id

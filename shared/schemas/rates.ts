@@ -1,7 +1,16 @@
 import { z } from 'zod'
+import { isTimeZone } from '../utils/businessHours'
 
-const cents = (label: string) => z.number({ message: `${label} must be an amount` }).int(`${label} must be whole cents`).min(0, `${label} cannot be negative`).max(100_000_000, `${label} is too large`)
-const whole = (label: string, min: number, max: number) => z.number({ message: `${label} must be a number` }).int(`${label} must be a whole number`).min(min, `${label} cannot be below ${min}`).max(max, `${label} cannot be above ${max}`)
+const cents = (label: string) => z.number({ message: `${label} must be an amount` }).int(`${label} must be whole cents`)
+  .min(0, `${label} cannot be negative`).max(100_000_000, `${label} is too large`)
+const whole = (label: string, min: number, max: number, above = `${label} cannot be above ${max}`) => z
+  .number({ message: `${label} must be a number` }).int(`${label} must be a whole number`)
+  .min(min, `${label} cannot be below ${min}`).max(max, above)
+const yes = (label: string) => z.boolean({ message: `Say whether ${label} are taxed` })
+const text = (label: string, max: number) => z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long`)
+
+/** Highest tax rate accepted, in basis points (30 %): a higher figure is a typing slip. */
+export const MAX_TAX_BASIS_POINTS = 3000
 
 /** The admin's rates (POST /api/rates makes a new set in force from now). */
 export const ratesSchema = z.object({
@@ -9,11 +18,34 @@ export const ratesSchema = z.object({
   afterHoursMultiplierPct: whole('After-hours multiplier', 100, 400),
   minimumLaborTenths: whole('Minimum labor', 0, 100),
   roadCallMinimumCents: cents('Road-call minimum'),
+  travelBasis: z.enum(['distance', 'time'], { message: 'Travel is billed by distance or by clocked time' }).default('distance'),
   travelCentsPerUnit: cents('Travel rate'),
   travelUnit: z.enum(['km', 'mi'], { message: 'Travel is billed per km or per mile' }),
+  travelCentsPerHour: cents('Travel time rate').default(0),
+  roadFactorPct: whole('Road factor', 100, 300, 'Road factor cannot be above 3.00').default(100),
   partsMarkupPct: whole('Parts markup', 0, 500),
-  taxRateBasisPoints: whole('Tax rate', 0, 5000),
-  laborTaxable: z.boolean({ message: 'Say whether labor is taxed' }),
+  taxRateBasisPoints: whole('Tax rate', 0, MAX_TAX_BASIS_POINTS, 'Tax rate cannot be above 30 %'),
+  laborTaxable: yes('labor and the road-call minimum'),
+  travelTaxable: yes('travel charges').default(false),
+  partsTaxable: yes('parts').default(true),
+  coresTaxable: yes('core charges').default(false),
+  feesTaxable: yes('shop supplies and fees').default(false),
+  shopSuppliesBasisPoints: whole('Shop supplies', 0, 2500, 'Shop supplies cannot be above 25 % of labor').default(0),
+  shopSuppliesCapCents: cents('Shop supplies cap').nullable().default(null),
+  environmentalFeeCents: cents('Environmental fee').default(0),
   averageRoadKph: whole('Average road speed', 5, 150),
-})
+  timeZone: z.string({ message: 'Choose the time zone' })
+    .refine(isTimeZone, 'Not a time zone this system knows (use a name like America/Chicago)').default('UTC'),
+  openMinute: whole('Opening time', 0, 1440).default(0),
+  closeMinute: whole('Closing time', 0, 1440).default(1440),
+  openDays: z.array(whole('Open day', 1, 7), { message: 'List the open days' }).max(7).default([1, 2, 3, 4, 5, 6, 7]),
+  holidays: z.array(z.iso.date('Holidays are dates like 2026-12-25'), { message: 'List the holidays' })
+    .max(60, 'At most 60 holidays').default([]),
+  businessName: text('Business name', 120).default(''),
+  businessPhone: text('Business phone', 40).default(''),
+  businessEmail: text('Business e-mail', 200).default(''),
+  remitAddress: text('Remit-to address', 300).default(''),
+}).refine(r => r.closeMinute > r.openMinute || (r.openMinute === 0 && r.closeMinute === 0),
+  { message: 'Closing time must be after opening time', path: ['closeMinute'] })
 export type RatesInput = z.input<typeof ratesSchema>
+export type Rates = z.output<typeof ratesSchema>

@@ -29,7 +29,8 @@ describe('database', () => {
     await admin.end()
   })
 
-  it('applies the migrations to an empty database and seeds twice without duplicating anything', async () => {
+  // Four tsx runs: on a busy shared machine this takes longer than a unit of work usually may.
+  it('applies the migrations to an empty database and seeds twice without duplicating anything', { timeout: 240_000 }, async () => {
     run('server/db/migrate.ts')
     run('server/db/seed/index.ts')
     const client = new pg.Client({ connectionString: scratchUrl })

@@ -3,7 +3,7 @@ import { idParamsSchema } from '#shared/schemas/users'
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'office', 'admin')
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  const invoice = await getInvoice(id)
+  const invoice = await invoiceView(id)
   if (!invoice) throw createError({ status: 404, statusText: 'No such invoice' })
   return invoice
 })

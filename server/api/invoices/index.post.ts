@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   const { callId } = await readValidatedBody(event, validateWith(invoiceCreateSchema))
   const id = await draftInvoice(callId, user)
   setResponseStatus(event, 201)
-  return getInvoice(id)
+  return invoiceView(id)
 })

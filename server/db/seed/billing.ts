@@ -3,7 +3,7 @@
 import { eq } from 'drizzle-orm'
 import type { NodePgDatabase } from 'drizzle-orm/node-postgres'
 import * as t from '../schema'
-import { clockTotals, priceCall } from '../../../shared/utils/billing'
+import { billingRatesOf, priceCall } from '../../../shared/utils/billing'
 import { seedId } from './ids'
 
 type Db = NodePgDatabase<typeof t>
@@ -21,14 +21,18 @@ export async function seedBilling(db: Db) {
     if (!call || !customer) continue
     const clock = await db.select().from(t.clockEvents).where(eq(t.clockEvents.callId, callId))
     const parts = await db.select().from(t.partLines).where(eq(t.partLines.callId, callId))
-    const { laborMs } = clockTotals(clock.map(c => ({ kind: c.kind, at: c.deviceAt ?? c.createdAt })), call.completedAt ?? new Date())
-    const priced = priceCall({ rates: { ...rates, travelUnit: rates.travelUnit as 'km' | 'mi' }, laborMs, travelDistance: 24, parts, taxExempt: customer.taxExempt })
+    const priced = priceCall({
+      rates: billingRatesOf(rates),
+      clock: clock.map(c => ({ id: c.id, kind: c.kind, at: c.deviceAt ?? c.createdAt })), clockUntil: call.completedAt ?? new Date(),
+      distance: { straightKm: null, roadKm: 24 }, parts, taxExempt: customer.taxExempt,
+    })
     await db.insert(t.invoices).values({
       id: invoiceId, callId, customerId: customer.id, status, ratesId: rates.id,
       subtotalCents: priced.subtotalCents, taxCents: priced.taxCents, totalCents: priced.totalCents,
       dueAt: call.invoicedAt, sentAt: call.invoicedAt, paidAt: status === 'paid' ? call.paidAt : null,
     })
-    await db.insert(t.invoiceLines).values(priced.lines.map((l, i) => ({ ...l, id: seedId(`invoice-line:${key}:${i}`), invoiceId, sort: i })))
+    const lines = priced.lines.map(({ adjusted: _a, ...l }, i) => ({ ...l, id: seedId(`invoice-line:${key}:${i}`), invoiceId, sort: i }))
+    await db.insert(t.invoiceLines).values(lines)
     if (status === 'paid') {
       await db.insert(t.payments).values({ id: seedId(`payment:${key}`), invoiceId, method: 'card', amountCents: priced.totalCents, providerRef: `pi_seed_${key}`, status: 'succeeded' })
     }

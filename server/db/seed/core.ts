@@ -66,6 +66,12 @@ export async function seedCore(db: Db) {
     id: seedId('rates:2026'), laborCentsPerHour: 14500, afterHoursMultiplierPct: 150, minimumLaborTenths: 10,
     roadCallMinimumCents: 12500, travelCentsPerUnit: 225, travelUnit: 'km', partsMarkupPct: 25,
     taxRateBasisPoints: 725, laborTaxable: false, averageRoadKph: 70, effectiveFrom: new Date('2026-01-01T00:00:00Z'),
+    travelBasis: 'distance', roadFactorPct: 130, partsTaxable: true, coresTaxable: false, travelTaxable: false, feesTaxable: true,
+    shopSuppliesBasisPoints: 500, shopSuppliesCapCents: 3500, environmentalFeeCents: 650,
+    timeZone: 'America/Chicago', openMinute: 7 * 60, closeMinute: 18 * 60, openDays: [1, 2, 3, 4, 5],
+    holidays: ['2026-01-01', '2026-05-25', '2026-07-03', '2026-09-07', '2026-11-26', '2026-12-25'],
+    businessName: 'Two Rivers Road Service', businessPhone: '555-0100', businessEmail: 'billing@tworivers-road.test',
+    remitAddress: 'Two Rivers Road Service, 14 Quarry Spur, Harrow Bend, MN 55099',
   }).onConflictDoNothing()
 
   await db.insert(t.users).values(DEMO_USERS.map(u => ({

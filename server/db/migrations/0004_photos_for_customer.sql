@@ -1,0 +1,1 @@
+ALTER TABLE "photos" ADD COLUMN "show_customer" boolean DEFAULT false NOT NULL;

@@ -1,0 +1,48 @@
+// The PDF's type: Atkinson Hyperlegible for our look, and, for the characters it lacks (Ω, μ, ≤, √,
+// Greek), Noto Sans and Noto Sans Math from the same @fontsource packages, all bundled in
+// server/assets/fonts. pdfkit has no font fallback, so text is cut into runs, each set in the first
+// face of the chain that has every one of its characters.
+import * as fontkit from 'fontkit'
+
+export type Face = { name: string, has: (codePoint: number) => boolean }
+
+/** Splits text into runs of one face each; a character no face has stays with its neighbours' face. */
+export function fontRuns(text: string, chain: readonly Face[]): { face: string, text: string }[] {
+  const runs: { face: string, text: string }[] = []
+  for (const ch of text) {
+    const cp = ch.codePointAt(0)!
+    const isSpace = /\s/.test(ch)
+    const face = isSpace && runs.length ? runs.at(-1)!.face : (chain.find(f => f.has(cp)) ?? chain[0]!).name
+    const last = runs.at(-1)
+    if (last && last.face === face) last.text += ch
+    else runs.push({ face, text: ch })
+  }
+  return runs
+}
+
+export const PDF_FACES = {
+  body: ['atkinson-400', 'atkinson-ext-400', 'noto-greek-400', 'noto-math-400'],
+  bold: ['atkinson-700', 'atkinson-ext-700', 'noto-greek-700', 'noto-math-400'],
+} as const
+export type FaceName = (typeof PDF_FACES)['body' | 'bold'][number]
+
+/** The bundled font files, read once per process from Nitro's server assets. */
+let loaded: Promise<Map<string, { bytes: Buffer, face: Face }>> | null = null
+export function pdfFonts() {
+  loaded ??= (async () => {
+    const names = [...new Set([...PDF_FACES.body, ...PDF_FACES.bold])]
+    const out = new Map<string, { bytes: Buffer, face: Face }>()
+    for (const name of names) {
+      const raw = await useStorage('assets:server').getItemRaw(`fonts/${name}.woff`)
+      if (!raw) throw new Error(`The bundled font ${name}.woff is missing from server/assets/fonts`)
+      const bytes = Buffer.from(raw as Uint8Array)
+      const font = fontkit.create(bytes) as fontkit.Font
+      out.set(name, { bytes, face: { name, has: cp => font.hasGlyphForCodePoint(cp) } })
+    }
+    return out
+  })().catch((err) => {
+    loaded = null
+    throw err
+  })
+  return loaded
+}

@@ -1,0 +1,60 @@
+// The bridge between the database and the pricing in shared/utils/billing.ts: what a call is priced
+// from, and writing a priced draft's lines and totals back.
+import { asc, eq } from 'drizzle-orm'
+import type { PriceAdjustment, PricedInvoice, PricingInput } from '#shared/utils/billing'
+
+type RatesRow = Parameters<typeof billingRatesOf>[0]
+type CallRow = typeof tables.calls.$inferSelect
+
+/** Out and back from the service truck's yard to the call, as the crow flies, in km; null when either end is unknown. */
+async function straightKm(tx: Db | Tx, call: CallRow) {
+  if (call.lat == null || call.lon == null || !call.serviceTruckId) return null
+  const [yard] = await tx.select({ lat: tables.yards.lat, lon: tables.yards.lon }).from(tables.serviceTrucks)
+    .innerJoin(tables.yards, eq(tables.yards.id, tables.serviceTrucks.yardId)).where(eq(tables.serviceTrucks.id, call.serviceTruckId))
+  return yard ? 2 * haversineKm(yard, { lat: call.lat, lon: call.lon }) : null
+}
+
+/** Everything a call is priced from: its clock (flagged events included, the pricing leaves them out), parts and distance. */
+export async function pricingInputFor(tx: Db | Tx, call: CallRow, rates: RatesRow, taxExempt: boolean): Promise<PricingInput> {
+  const { clockEvents, partLines } = tables
+  const clock = await tx.select().from(clockEvents).where(eq(clockEvents.callId, call.id)).orderBy(asc(clockEvents.createdAt))
+  const parts = await tx.select().from(partLines).where(eq(partLines.callId, call.id)).orderBy(asc(partLines.createdAt))
+  return {
+    rates: billingRatesOf(rates),
+    // `flag` is the server's verdict on the phone's clock for that event (null or absent: trusted).
+    clock: clock.map(c => ({
+      id: c.id, kind: c.kind, at: (c.deviceAt ?? c.createdAt).toISOString(), flag: (c as { flag?: string | null }).flag ?? null,
+    })),
+    clockUntil: (call.completedAt ?? new Date()).toISOString(),
+    distance: { straightKm: await straightKm(tx, call), roadKm: null },
+    parts: parts.map(p => ({
+      id: p.id, partNumber: p.partNumber, description: p.description, quantity: p.quantity,
+      unitPriceCents: p.unitPriceCents, coreChargeCents: p.coreChargeCents,
+    })),
+    taxExempt,
+  }
+}
+
+/** Prices input with the office's changes; a rule the pricing refuses is the office's 422, not a 500. */
+export function priceOrRefuse(input: PricingInput, adjustments: PriceAdjustment[] = [], field = 'lines'): PricedInvoice {
+  try {
+    return priceCall({ ...input, adjustments })
+  }
+  catch (err) {
+    if (err instanceof RangeError) ruleError(field, err.message)
+    throw err
+  }
+}
+
+/** Replaces a draft's lines and totals with a priced result. */
+export async function writePriced(tx: Tx, invoiceId: string, priced: PricedInvoice) {
+  await tx.delete(tables.invoiceLines).where(eq(tables.invoiceLines.invoiceId, invoiceId))
+  if (priced.lines.length) {
+    await tx.insert(tables.invoiceLines).values(priced.lines.map((l, i) => ({
+      invoiceId, sort: i, kind: l.kind, description: l.description, quantity: l.quantity, unitCents: l.unitCents,
+      amountCents: l.amountCents, taxable: l.taxable, key: l.key, source: l.source,
+    })))
+  }
+  await tx.update(tables.invoices).set({ subtotalCents: priced.subtotalCents, taxCents: priced.taxCents, totalCents: priced.totalCents })
+    .where(eq(tables.invoices.id, invoiceId))
+}

@@ -1,0 +1,42 @@
+// What a billing clerk must see before an invoice goes out, most serious first. One list, read
+// by the billing desk, the invoice page and the tests.
+import { formatCents } from './billing'
+
+export type DeskFlagCode = 'untrusted_clock' | 'open_conflicts' | 'over_limit' | 'no_sign_off' | 'no_story' | 'no_po'
+export type DeskFlag = { code: DeskFlagCode, text: string }
+
+export type DeskFacts = {
+  storyCause: string | null
+  storyCorrection: string | null
+  signedOff: boolean
+  openConflicts: number
+  /** Clock events the server flagged (the phone's clock could not be trusted); left out of the price. */
+  untrustedClock: number
+  totalCents: number
+  authLimitCents: number | null
+  poNumber: string | null
+  /** Fleets on account match invoices to purchase orders; a card customer needs none. */
+  onAccount: boolean
+}
+
+const blank = (s: string | null) => !s || !s.trim()
+
+export function deskFlags(f: DeskFacts): DeskFlag[] {
+  const out: DeskFlag[] = []
+  if (f.untrustedClock > 0) {
+    const n = f.untrustedClock
+    out.push({ code: 'untrusted_clock', text: `${n} clock time${n === 1 ? '' : 's'} the phone could not be trusted on: not billed` })
+  }
+  if (f.openConflicts > 0) {
+    out.push({ code: 'open_conflicts', text: `${f.openConflicts} open conflict${f.openConflicts === 1 ? '' : 's'} to settle` })
+  }
+  if (f.authLimitCents !== null && f.totalCents > f.authLimitCents) {
+    out.push({ code: 'over_limit', text: `Total ${formatCents(f.totalCents)} is over the authorized ${formatCents(f.authLimitCents)}` })
+  }
+  if (!f.signedOff) out.push({ code: 'no_sign_off', text: 'No driver sign-off' })
+  if (blank(f.storyCause) || blank(f.storyCorrection)) {
+    out.push({ code: 'no_story', text: 'Story incomplete (cause or correction missing)' })
+  }
+  if (f.onAccount && blank(f.poNumber)) out.push({ code: 'no_po', text: 'No PO number for an account customer' })
+  return out
+}
