@@ -41,7 +41,7 @@ start_server() {
   [ -n "$SERVER_PID" ] && { kill "$SERVER_PID" 2>/dev/null || true; wait "$SERVER_PID" 2>/dev/null || true; }
   fresh_database
   rm -rf "$NUXT_UPLOADS_DIR"
-  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 & SERVER_PID=$!
+  NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs >> "$DATA/test-server-$SLOT.log" 2>&1 9>&- & SERVER_PID=$!
   CHILD_PIDS+=("$SERVER_PID")
   wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/test-server-$SLOT.log"; die "the test server did not start"; }
 }
@@ -62,10 +62,28 @@ if want unit; then
   say "unit tests"
   npx vitest run --project unit || failed+=(unit)
 fi
+# Several checkouts testing on one small machine (WAYSIDE_TEST_LOCK set to a shared folder) take
+# turns for the heavy part, at most WAYSIDE_TEST_LOCK_SLOTS at a time (2 by default), so no run's
+# browser waits are stretched by the others'.
+take_turn() {
+  [ -n "${WAYSIDE_TEST_LOCK:-}" ] || return 0
+  mkdir -p "$WAYSIDE_TEST_LOCK"
+  local n
+  say "waiting for a turn to build and run the server tests ($WAYSIDE_TEST_LOCK)"
+  while :; do
+    for n in $(seq 1 "${WAYSIDE_TEST_LOCK_SLOTS:-2}"); do
+      exec 9>"$WAYSIDE_TEST_LOCK/turn-$n"
+      if flock -n 9; then say "turn $n taken"; return 0; fi
+      exec 9>&-
+    done
+    sleep 5
+  done
+}
 if want api || want e2e; then
+  take_turn
   build_if_needed
   : > "$DATA/test-server-$SLOT.log"
-  node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
+  node --import tsx scripts/fakes/run.ts 9>&- & CHILD_PIDS+=($!)
 fi
 if want api; then
   start_server
