@@ -17,6 +17,10 @@ export default defineNuxtConfig({
         { name: 'theme-color', content: '#0b1d2a' },
       ],
       link: [{ rel: 'icon', href: '/favicon.svg', type: 'image/svg+xml' }],
+      // Before any module: zod would probe for eval (new Function) when it builds its schemas, and
+      // the content security policy reports that probe as a violation; without it zod parses
+      // without compiling (globalThis.__zod_globalConfig is the config zod's core reads first).
+      script: [{ innerHTML: 'globalThis.__zod_globalConfig={jitless:true}', tagPriority: 'critical' }],
     },
   },
   css: ['~/assets/css/main.css'],
