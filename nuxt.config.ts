@@ -68,6 +68,9 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   nitro: {
     prerender: { routes: ['/shell'] },
+    // Static files are compressed once at build and served as the client accepts (brotli, gzip);
+    // answers made per request are compressed by server/plugins/compression.ts.
+    compressPublicAssets: { gzip: true, brotli: true },
   },
   typescript: {
     strict: true,
