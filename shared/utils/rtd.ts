@@ -39,14 +39,17 @@ export function rtdTemperature(ohms: number, r0 = 100): number {
   if (!Number.isFinite(ohms)) throw new RangeError('RTD resistance is infinite (open circuit / OL): no temperature')
   rtdCheckR0(r0)
   const ratio = ohms / r0
-  // A hair of slack so the exact end-point resistances (after float rounding) still invert.
-  const slack = 1e-12
+  // Published tables print ohms to 0.01 Ω per 100 Ω of R0, and the −200 °C row (18.52 Ω) rounds below the
+  // curve's own end: a reading that close to an end is taken as the end, not refused.
+  const slack = 5e-5
   if (ratio < cvdRatio(RTD_MIN_C) - slack) {
     throw new RangeError(`${ohms} Ω is below the IEC 60751 range for R0 = ${r0} Ω (colder than ${RTD_MIN_C} °C)`)
   }
   if (ratio > cvdRatio(RTD_MAX_C) + slack) {
     throw new RangeError(`${ohms} Ω is above the IEC 60751 range for R0 = ${r0} Ω (hotter than ${RTD_MAX_C} °C)`)
   }
+  if (ratio <= cvdRatio(RTD_MIN_C)) return RTD_MIN_C
+  if (ratio >= cvdRatio(RTD_MAX_C)) return RTD_MAX_C
   if (ratio >= 1) {
     // Closed form of B t² + A t + (1 − ratio) = 0, written as 2(ratio−1)/(A+√…) rather than
     // (−A+√…)/2B: the textbook form subtracts two nearly equal numbers close to 0 °C.
@@ -64,4 +67,23 @@ export function rtdTemperature(ohms: number, r0 = 100): number {
     if (Math.abs(step) < 1e-10) break
   }
   return t
+}
+
+/**
+ * The resistance window of a platinum RTD at the part's temperature: the curve's ohms at
+ * tempC − toleranceC and tempC + toleranceC (IEC 60751). Give the tolerance in °C (a class
+ * tolerance, or the thermometer's own error added to it); the curve turns it into ohms.
+ */
+export function rtdWindow(tempC: number, toleranceC: number, r0 = 100): { min: number, max: number } {
+  if (typeof tempC !== 'number' || !Number.isFinite(tempC)) throw new RangeError(`RTD temperature must be a finite number, got ${tempC}`)
+  if (typeof toleranceC !== 'number' || !Number.isFinite(toleranceC) || toleranceC < 0) {
+    throw new RangeError(`RTD tolerance must be a finite number of °C, zero or more, got ${toleranceC}`)
+  }
+  rtdCheckR0(r0)
+  const lo = tempC - toleranceC
+  const hi = tempC + toleranceC
+  if (lo < RTD_MIN_C || hi > RTD_MAX_C) {
+    throw new RangeError(`RTD window ${lo}…${hi} °C reaches outside the IEC 60751 range ${RTD_MIN_C}…${RTD_MAX_C} °C`)
+  }
+  return { min: rtdResistance(lo, r0), max: rtdResistance(hi, r0) }
 }

@@ -7,7 +7,7 @@ const LAX = { lat: 33.94, lon: -118.4 }
 
 describe('haversineKm', () => {
   it('Rosetta Code worked example BNA -> LAX', () => {
-    // Rosetta Code haversine example, R = 6371.0 km: 2886.444442837983 km (REFERENCES §9, npm haversine agrees)
+    // Rosetta Code haversine example, R = 6371.0 km: 2886.444442837983 km (REFERENCES.md §9, npm haversine agrees)
     expect(Math.abs(haversineKm(BNA, LAX) - 2886.444442837983)).toBeLessThan(1e-9)
   })
 

@@ -4,7 +4,7 @@ import { rtdResistance } from '../../shared/utils/rtd'
 
 describe('judge', () => {
   it('min/max, bounds inclusive', () => {
-    // REFERENCES §7: service procedures accept a 5 V reference of about 4.8–5.2 V
+    // REFERENCES.md §7: service procedures accept a 5 V reference of about 4.8–5.2 V
     const ref = { min: 4.8, max: 5.2 }
     expect(judge(4.8, ref)).toBe('pass')
     expect(judge(5.2, ref)).toBe('pass')
@@ -14,16 +14,16 @@ describe('judge', () => {
   })
 
   it('one-sided limits', () => {
-    // REFERENCES §7 battery maker's table: 12.45 V is 75 % charge at rest, 80 °F
+    // REFERENCES.md §7 battery maker's table: 12.45 V is 75 % charge at rest, 80 °F
     expect(judge(12.45, { min: 12.45 })).toBe('pass')
     expect(judge(12.24, { min: 12.45 })).toBe('low')
-    // REFERENCES §7: voltage drop over a high-current connection should be at most 0.1 V
+    // REFERENCES.md §7: voltage drop over a high-current connection should be at most 0.1 V
     expect(judge(0.1, { max: 0.1 })).toBe('pass')
     expect(judge(0.15, { max: 0.1 })).toBe('high')
   })
 
   it('nominal ± absolute tolerance', () => {
-    // REFERENCES §7: 5 V reference ± 0.2 V (same window as 4.8–5.2 V)
+    // REFERENCES.md §7: 5 V reference ± 0.2 V (same window as 4.8–5.2 V)
     const spec = { nominal: 5, tolerance: 0.2 }
     expect(judge(4.8, spec)).toBe('pass')
     expect(judge(5.2, spec)).toBe('pass')
@@ -32,10 +32,10 @@ describe('judge', () => {
   })
 
   it('nominal ± percent, limits typed exactly as printed still pass', () => {
-    // IEC 60751 class B at 100 °C: ±(0.30 + 0.005·100) = ±0.8 °C ≈ ±0.3 Ω on a Pt100 (REFERENCES §1)
+    // IEC 60751 class B at 100 °C: ±(0.30 + 0.005·100) = ±0.8 °C ≈ ±0.3 Ω on a Pt100 (REFERENCES.md §1)
     const nominal = rtdResistance(100) // IEC 60751 table, 100 °C: 138.5055 Ω
     const tolerance = 0.8 * 100 * (3.9083e-3 + 2 * -5.775e-7 * 100) // IEC 60751: ΔR = Δt·dR/dt = 0.3034 Ω
-    expect(Math.abs(tolerance - 0.3)).toBeLessThan(0.01) // REFERENCES §1: class B at 100 °C ≈ ±0.30 Ω
+    expect(Math.abs(tolerance - 0.3)).toBeLessThan(0.01) // REFERENCES.md §1: class B at 100 °C ≈ ±0.30 Ω
     expect(judge(138.8, { nominal, tolerance })).toBe('pass')
     expect(judge(138.2, { nominal, tolerance })).toBe('low')
     expect(judge(139, { nominal, tolerance })).toBe('high')
@@ -55,7 +55,7 @@ describe('judge', () => {
   })
 
   it('when several limits are stated, the tightest applies', () => {
-    // REFERENCES §7: 4.9–5.1 V is common practice inside the 4.8–5.2 V procedure window
+    // REFERENCES.md §7: 4.9–5.1 V is common practice inside the 4.8–5.2 V procedure window
     const spec = { min: 4.8, max: 5.2, nominal: 5, tolerance: 0.1 }
     expect(specBounds(spec)).toEqual({ min: 4.9, max: 5.1 })
     expect(judge(4.85, spec)).toBe('low')

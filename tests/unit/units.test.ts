@@ -39,14 +39,15 @@ describe('temperature', () => {
     [37, 98.6],
     [-273.15, -459.67],
   ])('%d °C = %d °F', (c, f) => {
-    // REFERENCES §9: °F = °C × 9/5 + 32
+    // REFERENCES.md §9: °F = °C × 9/5 + 32
     expect(Math.abs(fromBaseUnit(c, 'degF') - f)).toBeLessThan(1e-9)
     expect(Math.abs(toBaseUnit(f, 'degF') - c)).toBeLessThan(1e-9)
   })
 
   it('round-trips °F <-> °C', () => {
-    // REFERENCES §9: °F = °C × 9/5 + 32 is exactly invertible
-    fc.assert(fc.property(fc.double({ min: -200, max: 1500, noNaN: true }), c => Math.abs(toBaseUnit(fromBaseUnit(c, 'degF'), 'degF') - c) < 1e-9))
+    // REFERENCES.md §9: °F = °C × 9/5 + 32 is exactly invertible
+    fc.assert(fc.property(fc.double({ min: -200, max: 1500, noNaN: true }),
+      c => Math.abs(toBaseUnit(fromBaseUnit(c, 'degF'), 'degF') - c) < 1e-9))
   })
 })
 

@@ -42,7 +42,7 @@ const OUR_VINS = [
 
 describe('vinCheckDigit', () => {
   it('widely published worked example 1M8GDM9AXKP042788 -> X', () => {
-    // 49 CFR 565 worked example (REFERENCES §5): 1M8GDM9AXKP042788 -> X
+    // 49 CFR 565 worked example (REFERENCES.md §5): 1M8GDM9AXKP042788 -> X
     expect(vinCheckDigit('1M8GDM9AXKP042788')).toBe('X')
     // independent implementation agrees on the same 49 CFR 565 worked example
     expect(refCheckDigit('1M8GDM9AXKP042788')).toBe('X')
@@ -120,7 +120,7 @@ describe('validateVin and vinProblem', () => {
   })
 
   it('accepts the worked example', () => {
-    // 49 CFR 565 worked example (REFERENCES §5)
+    // 49 CFR 565 worked example (REFERENCES.md §5)
     expect(validateVin('1M8GDM9AXKP042788')).toEqual({ ok: true })
     expect(vinProblem('1M8GDM9AXKP042788')).toBeNull()
   })
