@@ -32,11 +32,27 @@ export default defineNuxtConfig({
     smtpUser: '',
     smtpPass: '',
     mailFrom: 'Wayside <calls@wayside.test>',
+    // The domain of the Message-ID each queued message keeps across retries.
+    mailIdDomain: 'wayside.test',
+    // Seconds, not minutes: a slow mail server fails an attempt, never a person's request.
+    smtpConnectionTimeoutMs: 10_000,
+    smtpGreetingTimeoutMs: 10_000,
+    smtpSocketTimeoutMs: 30_000,
+    // Mail jobs retry with doubling waits from this delay; after the last one the message shows as failed.
+    mailRetryLimit: 8,
+    mailRetryDelaySeconds: 5,
+    // Whether this process works the job queue (NUXT_JOBS_WORK=false for a web-only server).
+    jobsWork: true,
+    jobsPollSeconds: 1,
     stripeSecretKey: 'sk_test_wayside_local',
     stripeWebhookSecret: 'whsec_wayside_local',
     stripeApiHost: '127.0.0.1',
     stripeApiPort: 12111,
     stripeApiProtocol: 'http',
+    // What invoices are in; a card payment in another currency is held, not counted.
+    paymentCurrency: 'usd',
+    // Where payers and fleets reach this server (links in e-mail, QR codes): NUXT_SITE_URL.
+    siteUrl: 'http://127.0.0.1:3000',
     photoMaxBytes: 10 * 1024 * 1024,
     // Photo bytes: a folder for the fs driver here; server/plugins/storage.ts mounts it.
     uploadsDir: '.data/uploads',

@@ -17,10 +17,12 @@ export WAYSIDE_MAIL_HTTP_PORT=$((2601 + SLOT * 10))
 export NUXT_STRIPE_API_PORT=$((12200 + SLOT * 10)) WAYSIDE_PAY_PORT=$((12200 + SLOT * 10))
 export WAYSIDE_TEST_URL="http://127.0.0.1:$WAYSIDE_TEST_PORT"
 export WAYSIDE_MAIL_URL="http://127.0.0.1:$WAYSIDE_MAIL_HTTP_PORT"
-export WAYSIDE_WEBHOOK_URL="$WAYSIDE_TEST_URL/api/payments/webhook"
+export WAYSIDE_WEBHOOK_URL="$WAYSIDE_TEST_URL/api/payments/webhook" NUXT_SITE_URL="$WAYSIDE_TEST_URL"
 export NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-wayside-test-session-password-0123456789abcdef}"
 export NUXT_LOGIN_MAX_FAILURES=5 NUXT_LOGIN_MAX_FAILURES_PER_ADDRESS=500
 export NUXT_UPLOADS_DIR="$DATA/test-uploads-$SLOT"
+# Short mail timeouts and retry waits, so the stalled-mail-server test runs in seconds.
+export NUXT_SMTP_CONNECTION_TIMEOUT_MS=2000 NUXT_SMTP_GREETING_TIMEOUT_MS=2000 NUXT_SMTP_SOCKET_TIMEOUT_MS=5000 NUXT_MAIL_RETRY_DELAY_SECONDS=1
 
 ensure_node_modules
 want e2e && ensure_chromium

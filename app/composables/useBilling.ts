@@ -1,4 +1,4 @@
-import type { InvoiceAdjustmentInput, InvoicePayInput } from '#shared/schemas/invoices'
+import type { InvoiceAdjustmentInput } from '#shared/schemas/invoices'
 
 export const BILLING_READY_KEY = 'billing-ready'
 export const INVOICES_KEY = 'billing-invoices'
@@ -15,14 +15,10 @@ export function useBilling() {
     await $fetch(`/api/invoices/${id}/send`, { method: 'POST', body: {} })
     await refreshNuxtData(invoiceKey(id))
   }
-  async function pay(id: string, input: InvoicePayInput) {
-    await $fetch(`/api/invoices/${id}/pay`, { method: 'POST', body: input })
-    await refreshNuxtData(invoiceKey(id))
-  }
   /** One change to a draft, with its reason; the page shows the repriced invoice. */
   async function adjust(id: string, input: InvoiceAdjustmentInput) {
     await $fetch(`/api/invoices/${id}/adjustments`, { method: 'POST', body: input })
     await Promise.all([refreshNuxtData(invoiceKey(id)), refreshNuxtData(BILLING_DESK_KEY)])
   }
-  return { draft, send, pay, adjust }
+  return { draft, send, adjust }
 }

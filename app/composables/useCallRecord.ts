@@ -8,7 +8,8 @@ export function useCallActions(id: () => string) {
   const refreshKeys = useRefreshKeys()
   const refreshAll = () => refreshKeys([callRecordKey(id()), suggestionsKey(id()), DISPATCH_KEY])
   async function assign(input: CallAssignInput) {
-    const res = await $fetch<{ mail: { sent: boolean, reason?: string } | null }>(`/api/calls/${id()}/assign`, { method: 'POST', body: input })
+    type Answer = { mail: { queued: boolean, reason?: string } | null }
+    const res = await $fetch<Answer>(`/api/calls/${id()}/assign`, { method: 'POST', body: input })
     await refreshAll()
     return res
   }

@@ -1,5 +1,7 @@
 // A local SMTP catcher: accepts every message on loopback, keeps it in memory and in
 // .data/mail/, and serves the parsed messages back over HTTP so tests can read them.
+// `POST /stall` makes it take connections and then say nothing (a hung mail server) until
+// `POST /recover`.
 import { createServer } from 'node:http'
 import { mkdirSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
@@ -20,6 +22,8 @@ export type CaughtMessage = {
 export async function startMailCatcher(opts: { smtpPort: number, httpPort: number, dir?: string }) {
   const messages: CaughtMessage[] = []
   let nextId = 1
+  let stalled = false
+  const held: ((err?: Error) => void)[] = []
   if (opts.dir) mkdirSync(opts.dir, { recursive: true })
 
   const smtp = new SMTPServer({
@@ -27,6 +31,10 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
     authOptional: true,
     disabledCommands: ['STARTTLS'],
     logger: false,
+    onConnect(_session, callback) {
+      if (!stalled) return callback()
+      held.push(callback)
+    },
     onData(stream, _session, callback) {
       const chunks: Buffer[] = []
       stream.on('data', (c: Buffer) => chunks.push(c))
@@ -68,7 +76,22 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
       res.statusCode = 204
       res.end()
     }
-    else { res.statusCode = 404; res.end() }
+    else if ((req.url === '/stall' || req.url === '/recover') && req.method === 'POST') {
+      stalled = req.url === '/stall'
+      // Connections held while stalled are turned away; their clients gave up long ago.
+      if (!stalled) {
+        for (const release of held.splice(0)) {
+          try { release(Object.assign(new Error('Try again'), { responseCode: 421 })) }
+          catch { /* the client closed it */ }
+        }
+      }
+      res.statusCode = 204
+      res.end()
+    }
+    else {
+      res.statusCode = 404
+      res.end()
+    }
   })
   await new Promise<void>((resolve, reject) => {
     http.once('error', reject)

@@ -1,11 +1,17 @@
 // Wayside's whole data model. Rows the device syncs carry a UUID key the device may make,
 // `version` and `updatedAt` (both set by the `wayside_touch` trigger, never by the device) and
-// `changeXid`, the writing transaction's id, which drives incremental pull (see server/utils/pull.ts).
+// `changeXid`, the writing transaction's id, which drives incremental pull (see server/utils/sync/pull.ts).
+// Enums take their values from the shared lists the schemas and rules use.
 import { relations, sql } from 'drizzle-orm'
 import {
-  bigint, boolean, check, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable,
+  bigint, boolean, check, customType, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable,
   serial, text, timestamp, uniqueIndex, uuid,
 } from 'drizzle-orm/pg-core'
+import { CALL_OUTCOMES, CALL_STATUSES } from '../../shared/utils/callStatus'
+import { ROLES } from '../../shared/utils/roles'
+import { DERATE_STATES } from '../../shared/schemas/calls'
+import { CLOCK_KINDS, FAULT_STATES, READING_QUANTITIES } from '../../shared/schemas/syncRecords'
+import { SYNC_OP_STATUSES } from '../../shared/schemas/sync'
 
 const xid8 = customType<{ data: string }>({ dataType: () => 'xid8' })
 
@@ -19,19 +25,19 @@ const synced = {
   changeXid: xid8('change_xid').notNull().default(sql`pg_current_xact_id()`),
 }
 
-export const roleEnum = pgEnum('role', ['mechanic', 'dispatcher', 'office', 'admin'])
-export const callStatusEnum = pgEnum('call_status', ['received', 'assigned', 'en_route', 'on_site', 'completed', 'invoiced', 'paid', 'cancelled'])
-export const callOutcomeEnum = pgEnum('call_outcome', ['repaired', 'towed', 'parts_ordered', 'no_fault_found'])
+export const roleEnum = pgEnum('role', ROLES)
+export const callStatusEnum = pgEnum('call_status', CALL_STATUSES)
+export const callOutcomeEnum = pgEnum('call_outcome', CALL_OUTCOMES)
 export const billingTermsEnum = pgEnum('billing_terms', ['card', 'account'])
-export const derateEnum = pgEnum('derate_state', ['none', 'derated', 'countdown', 'shutdown'])
-export const quantityEnum = pgEnum('reading_quantity', ['resistance', 'voltage', 'temperature', 'pressure', 'concentration', 'other'])
+export const derateEnum = pgEnum('derate_state', DERATE_STATES)
+export const quantityEnum = pgEnum('reading_quantity', READING_QUANTITIES)
 export const verdictEnum = pgEnum('verdict', ['pass', 'low', 'high'])
-export const clockKindEnum = pgEnum('clock_kind', ['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'])
-export const faultStateEnum = pgEnum('fault_state', ['active', 'stored'])
+export const clockKindEnum = pgEnum('clock_kind', CLOCK_KINDS)
+export const faultStateEnum = pgEnum('fault_state', FAULT_STATES)
 export const invoiceStatusEnum = pgEnum('invoice_status', ['draft', 'sent', 'paid', 'void'])
 export const invoiceLineKindEnum = pgEnum('invoice_line_kind', ['labor', 'travel', 'minimum', 'part', 'core', 'fee'])
-export const paymentMethodEnum = pgEnum('payment_method', ['card', 'account'])
-export const syncOpStatusEnum = pgEnum('sync_op_status', ['applied', 'duplicate', 'conflict', 'rejected'])
+export const paymentMethodEnum = pgEnum('payment_method', ['card', 'account', 'check', 'bank_transfer', 'cash'])
+export const syncOpStatusEnum = pgEnum('sync_op_status', SYNC_OP_STATUSES)
 export const conflictStatusEnum = pgEnum('conflict_status', ['open', 'resolved'])
 
 // ── People ────────────────────────────────────────────────────────────────────────────────
@@ -426,9 +432,16 @@ export const invoices = pgTable('invoices', {
   dueAt: ts('due_at'),
   sentAt: ts('sent_at'),
   paidAt: ts('paid_at'),
+  /** Money received that counts against the invoice, less refunds (kept by server/utils/payments.ts). */
+  paidCents: integer('paid_cents').notNull().default(0),
+  /** The credit notes' totals, as a positive amount. */
+  creditedCents: integer('credited_cents').notNull().default(0),
+  /** The payer's link to the payment page (`/pay/<token>`), made when first asked for. */
+  payToken: text('pay_token'),
   ...synced,
 }, t => [
   uniqueIndex('invoices_number_unique').on(t.number),
+  uniqueIndex('invoices_pay_token_unique').on(t.payToken),
   index('invoices_call_idx').on(t.callId),
   index('invoices_status_idx').on(t.status),
   check('invoices_totals', sql`${t.totalCents} = ${t.subtotalCents} + ${t.taxCents}`),
@@ -474,13 +487,97 @@ export const payments = pgTable('payments', {
   method: paymentMethodEnum('method').notNull(),
   amountCents: integer('amount_cents').notNull(),
   providerRef: text('provider_ref'),
+  /** `succeeded` (card), `posted` (account), `recorded` (by hand); `held` does not count (wrong currency). */
   status: text('status').notNull(),
+  currency: text('currency').notNull().default('usd'),
+  /** Check number, transfer reference: what the office can find the money by. */
+  reference: text('reference'),
+  receivedOn: date('received_on', { mode: 'string' }),
+  note: text('note'),
+  /** The client's key for one intent to pay: a repeat of the same key answers with this payment. */
+  idempotencyKey: text('idempotency_key'),
+  byUserId: uuid('by_user_id').references(() => users.id),
   ...synced,
 }, t => [
   uniqueIndex('payments_provider_ref_unique').on(t.providerRef),
+  uniqueIndex('payments_idempotency_unique').on(t.idempotencyKey),
+  uniqueIndex('payments_reference_unique').on(t.invoiceId, t.method, sql`lower(${t.reference})`).where(sql`${t.reference} IS NOT NULL`),
   index('payments_invoice_idx').on(t.invoiceId),
   check('payments_amount_pos', sql`${t.amountCents} > 0`),
 ])
+
+/** Money given back on a payment: through the payment service for a card, by hand otherwise. */
+export const refunds = pgTable('refunds', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  paymentId: uuid('payment_id').notNull().references(() => payments.id),
+  invoiceId: uuid('invoice_id').notNull().references(() => invoices.id),
+  amountCents: integer('amount_cents').notNull(),
+  reason: text('reason').notNull(),
+  providerRef: text('provider_ref'),
+  idempotencyKey: text('idempotency_key'),
+  byUserId: uuid('by_user_id').references(() => users.id),
+  createdAt: ts('created_at').notNull().defaultNow(),
+}, t => [
+  uniqueIndex('refunds_provider_ref_unique').on(t.providerRef),
+  uniqueIndex('refunds_idempotency_unique').on(t.idempotencyKey),
+  index('refunds_invoice_idx').on(t.invoiceId),
+  check('refunds_amount_pos', sql`${t.amountCents} > 0`),
+])
+
+/** Corrects an invoice already sent: its own number, negative lines, linked to the invoice. */
+export const creditNotes = pgTable('credit_notes', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  number: serial('number').notNull(),
+  invoiceId: uuid('invoice_id').notNull().references(() => invoices.id),
+  reason: text('reason').notNull(),
+  subtotalCents: integer('subtotal_cents').notNull(),
+  taxCents: integer('tax_cents').notNull(),
+  totalCents: integer('total_cents').notNull(),
+  idempotencyKey: text('idempotency_key'),
+  byUserId: uuid('by_user_id').references(() => users.id),
+  createdAt: ts('created_at').notNull().defaultNow(),
+}, t => [
+  uniqueIndex('credit_notes_number_unique').on(t.number),
+  uniqueIndex('credit_notes_idempotency_unique').on(t.idempotencyKey),
+  index('credit_notes_invoice_idx').on(t.invoiceId),
+  check('credit_notes_totals', sql`${t.totalCents} = ${t.subtotalCents} + ${t.taxCents} AND ${t.totalCents} < 0`),
+])
+
+export const creditNoteLines = pgTable('credit_note_lines', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  creditNoteId: uuid('credit_note_id').notNull().references(() => creditNotes.id, { onDelete: 'cascade' }),
+  sort: integer('sort').notNull().default(0),
+  description: text('description').notNull(),
+  amountCents: integer('amount_cents').notNull(),
+  taxable: boolean('taxable').notNull(),
+}, t => [
+  index('credit_note_lines_note_idx').on(t.creditNoteId),
+  check('credit_note_lines_negative', sql`${t.amountCents} < 0`),
+])
+
+/** Hosted payment pages opened for an invoice; at most one is open at a time. */
+export const checkoutSessions = pgTable('checkout_sessions', {
+  id: text('id').primaryKey(),
+  invoiceId: uuid('invoice_id').notNull().references(() => invoices.id),
+  amountCents: integer('amount_cents').notNull(),
+  currency: text('currency').notNull(),
+  url: text('url').notNull(),
+  status: text('status').notNull().default('open'),
+  expiresAt: ts('expires_at').notNull(),
+  createdAt: ts('created_at').notNull().defaultNow(),
+}, t => [
+  index('checkout_sessions_invoice_idx').on(t.invoiceId, t.status),
+  check('checkout_sessions_status', sql`${t.status} IN ('open', 'complete', 'expired')`),
+])
+
+/** Payment-service events already handled: a repeat delivery finds its id here and changes nothing. */
+export const paymentEvents = pgTable('payment_events', {
+  id: text('id').primaryKey(),
+  type: text('type').notNull(),
+  invoiceId: uuid('invoice_id'),
+  outcome: text('outcome').notNull(),
+  receivedAt: ts('received_at').notNull().defaultNow(),
+})
 
 /** A fleet's running account: invoices charged to it and payments received on it. */
 export const accountEntries = pgTable('account_entries', {
@@ -539,17 +636,34 @@ export const conflicts = pgTable('conflicts', {
   check('conflicts_choice', sql`${t.choice} IS NULL OR ${t.choice} IN ('device', 'server', 'value')`),
 ])
 
+/**
+ * Every e-mail Wayside sends, one row per message: queued with its content, worked by a job
+ * (server/utils/mail.ts), and marked sent or failed with the reason. `messageId` is fixed when
+ * queued, so a retry resends the same message, never a new one.
+ */
 export const mailLog = pgTable('mail_log', {
   id: uuid('id').primaryKey().defaultRandom(),
   kind: text('kind').notNull(),
   toAddress: text('to_address').notNull(),
   subject: text('subject').notNull(),
   relatedId: uuid('related_id'),
+  relatedType: text('related_type'),
   messageId: text('message_id'),
+  /** `queued`, `sending`, `retrying`, `sent` or `failed`. */
   status: text('status').notNull(),
   error: text('error'),
-  sentAt: ts('sent_at').notNull().defaultNow(),
-})
+  /** The text, HTML and attachment recipes the job sends (attachments are made at sending). */
+  body: jsonb('body'),
+  attempts: integer('attempts').notNull().default(0),
+  queuedAt: ts('queued_at').notNull().defaultNow(),
+  lastAttemptAt: ts('last_attempt_at'),
+  sentAt: ts('sent_at'),
+  queuedBy: uuid('queued_by').references(() => users.id),
+}, t => [
+  index('mail_log_related_idx').on(t.relatedId),
+  uniqueIndex('mail_log_message_id_unique').on(t.messageId),
+  check('mail_log_status', sql`${t.status} IN ('queued', 'sending', 'retrying', 'sent', 'failed')`),
+])
 
 // ── Relations ─────────────────────────────────────────────────────────────────────────────
 export const callsRelations = relations(calls, ({ one, many }) => ({
@@ -597,6 +711,7 @@ export const invoicesRelations = relations(invoices, ({ one, many }) => ({
   customer: one(customers, { fields: [invoices.customerId], references: [customers.id] }),
   lines: many(invoiceLines),
   payments: many(payments),
+  creditNotes: many(creditNotes),
   adjustments: many(invoiceAdjustments),
 }))
 export const invoiceAdjustmentsRelations = relations(invoiceAdjustments, ({ one }) => ({
@@ -604,4 +719,17 @@ export const invoiceAdjustmentsRelations = relations(invoiceAdjustments, ({ one 
   by: one(users, { fields: [invoiceAdjustments.byUserId], references: [users.id] }),
 }))
 export const invoiceLinesRelations = relations(invoiceLines, ({ one }) => ({ invoice: one(invoices, { fields: [invoiceLines.invoiceId], references: [invoices.id] }) }))
-export const paymentsRelations = relations(payments, ({ one }) => ({ invoice: one(invoices, { fields: [payments.invoiceId], references: [invoices.id] }) }))
+export const paymentsRelations = relations(payments, ({ one, many }) => ({
+  invoice: one(invoices, { fields: [payments.invoiceId], references: [invoices.id] }),
+  refunds: many(refunds),
+}))
+export const refundsRelations = relations(refunds, ({ one }) => ({
+  payment: one(payments, { fields: [refunds.paymentId], references: [payments.id] }),
+}))
+export const creditNotesRelations = relations(creditNotes, ({ one, many }) => ({
+  invoice: one(invoices, { fields: [creditNotes.invoiceId], references: [invoices.id] }),
+  lines: many(creditNoteLines),
+}))
+export const creditNoteLinesRelations = relations(creditNoteLines, ({ one }) => ({
+  note: one(creditNotes, { fields: [creditNoteLines.creditNoteId], references: [creditNotes.id] }),
+}))

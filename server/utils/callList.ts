@@ -3,8 +3,6 @@ import type { User } from '#auth-utils'
 import type { z } from 'zod'
 import type { callListQuerySchema } from '#shared/schemas/calls'
 
-const CLOSED = ['completed', 'invoiced', 'paid', 'cancelled'] as const
-
 /** Calls the user may see, filtered and paged; a mechanic only ever sees their own. */
 export async function listCalls(user: User, q: z.output<typeof callListQuerySchema>) {
   const { calls, customers, units, users } = tables
@@ -12,7 +10,7 @@ export async function listCalls(user: User, q: z.output<typeof callListQuerySche
   if (user.role === 'mechanic') where.push(eq(calls.mechanicId, user.id))
   else if (q.mechanicId) where.push(eq(calls.mechanicId, q.mechanicId))
   if (q.status?.length) where.push(inArray(calls.status, q.status))
-  if (q.open) where.push(notInArray(calls.status, [...CLOSED]))
+  if (q.open) where.push(notInArray(calls.status, [...CLOSED_STATUSES]))
   if (q.customerId) where.push(eq(calls.customerId, q.customerId))
   if (q.unitId) where.push(eq(calls.unitId, q.unitId))
   if (q.q) {

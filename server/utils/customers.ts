@@ -3,8 +3,6 @@ import type { z } from 'zod'
 import type { Db, Tx } from './db'
 import type { customerCreateSchema, customerListQuerySchema, customerPatchSchema, siteCreateSchema } from '#shared/schemas/customers'
 
-const CLOSED = ['completed', 'invoiced', 'paid', 'cancelled'] as const
-
 /** `%text%` for ILIKE with the user's % and _ taken literally. */
 export function likePattern(q: string) {
   return `%${q.replace(/[%_\\]/g, m => `\\${m}`)}%`
@@ -19,7 +17,7 @@ export async function listCustomers(q: z.output<typeof customerListQuerySchema>)
   }
   const cond = where.length ? and(...where) : undefined
   // Correlated subqueries name their tables outright: drizzle leaves columns unqualified in a one-table select.
-  const openCalls = sql<number>`(SELECT count(*)::int FROM calls oc WHERE oc.customer_id = "customers"."id" AND oc.status NOT IN (${sql.join(CLOSED.map(s => sql`${s}`), sql`, `)}))`
+  const openCalls = sql<number>`(SELECT count(*)::int FROM calls oc WHERE oc.customer_id = "customers"."id" AND oc.status NOT IN (${sql.join(CLOSED_STATUSES.map(s => sql`${s}`), sql`, `)}))`
   const unitCount = sql<number>`(SELECT count(*)::int FROM units cu WHERE cu.customer_id = "customers"."id")`
   const sortCol = { name: customers.name, kind: customers.kind, billingTerms: customers.billingTerms, createdAt: customers.createdAt, openCalls }[q.sort ?? 'name']
   const order = q.dir === 'desc' ? desc(sortCol) : asc(sortCol)

@@ -1,16 +1,14 @@
 // Dispatch writes: take a call, edit its dispatch fields, assign or reassign, cancel. Each runs in
-// one transaction that also appends the timeline row (call_events); mail goes out after commit.
+// one transaction that also appends the timeline row (call_events) and queues the mechanic's e-mail
+// (server/utils/dispatchMail.ts), so the move and its notice commit together.
 import { and, asc, eq, sql } from 'drizzle-orm'
 import type { z } from 'zod'
 import type { User } from '#auth-utils'
 import type { callAssignSchema, callCancelSchema, callCreateSchema, callPatchSchema } from '#shared/schemas/calls'
-import { CALL_EDIT_FIELDS, DERATE_LABELS, LAMP_LABELS } from '#shared/schemas/calls'
+import { CALL_EDIT_FIELDS } from '#shared/schemas/calls'
 import type { Tx } from './db'
 
 type CallRow = typeof tables.calls.$inferSelect
-const OPEN_WORK = ['assigned', 'en_route', 'on_site'] as const
-/** Statuses a call may be (re)assigned from: not yet finished. */
-const ASSIGNABLE = ['received', 'assigned', 'en_route', 'on_site'] as const
 
 async function activeMechanic(tx: Tx, mechanicId: string, field = 'mechanicId') {
   const m = await tx.query.users.findFirst({ where: eq(tables.users.id, mechanicId) })
@@ -26,7 +24,8 @@ async function usableTruck(tx: Tx, truckId: string, field = 'serviceTruckId') {
 
 /** Sets mechanic and truck, moves the call to assigned and records it; inside the caller's transaction. */
 async function assignInTx(tx: Tx, call: CallRow, input: z.output<typeof callAssignSchema>, user: User) {
-  if (!(ASSIGNABLE as readonly string[]).includes(call.status)) {
+  // A call may be (re)assigned until its work is finished.
+  if (!isOpenStatus(call.status)) {
     ruleError('mechanicId', `A call that is ${STATUS_LABELS[call.status].toLowerCase()} cannot be assigned`)
   }
   const mechanic = await activeMechanic(tx, input.mechanicId)
@@ -44,7 +43,8 @@ async function assignInTx(tx: Tx, call: CallRow, input: z.output<typeof callAssi
     callId: call.id, kind: 'assigned', fromStatus: call.status, toStatus: 'assigned', mechanicId: mechanic.id, byUserId: user.id, at: now,
     note: previous ? `Reassigned from ${previous.name}` : call.mechanicId === mechanic.id ? 'Assigned again to the same mechanic' : null,
   })
-  return { call: row!, mechanic }
+  const mail = await queueAssignmentMail(tx, call.id, user)
+  return { call: row!, mechanic, mail }
 }
 
 export async function createCall(input: z.output<typeof callCreateSchema>, user: User) {
@@ -67,7 +67,7 @@ export async function createCall(input: z.output<typeof callCreateSchema>, user:
       ...fields, customerId: customerId!, unitId, status: 'received', receivedAt: now, statusChangedAt: now, createdBy: user.id,
     }).returning()
     await tx.insert(tables.callEvents).values({ callId: call!.id, kind: 'status', toStatus: 'received', byUserId: user.id, at: now })
-    if (!mechanicId) return { call: call!, mechanic: null }
+    if (!mechanicId) return { call: call!, mechanic: null, mail: null }
     return assignInTx(tx, call!, { mechanicId, serviceTruckId }, user)
   })
 }
@@ -105,15 +105,18 @@ export async function updateCall(id: string, patch: z.output<typeof callPatchSch
     if (isLockedStatus(call.status)) ruleError('status', 'A billed call takes no more changes')
     const customerId = changes.customerId ?? call.customerId
     if (changes.customerId && changes.customerId !== call.customerId) {
-      if (!(await tx.query.customers.findFirst({ where: eq(tables.customers.id, changes.customerId), columns: { id: true } }))) ruleError('customerId', 'No such customer')
+      if (!(await tx.query.customers.findFirst({ where: eq(tables.customers.id, changes.customerId),
+        columns: { id: true } }))) ruleError('customerId', 'No such customer')
     }
     const unitId = changes.unitId === undefined ? call.unitId : changes.unitId
     if (unitId && !(await unitBelongsTo(tx, unitId, customerId))) ruleError('unitId', 'This unit is not one of the customer\'s')
     const changed = CALL_EDIT_FIELDS.filter(f => f in changes && JSON.stringify(changes[f as keyof typeof changes]) !== JSON.stringify(call[f]))
     if (!changed.length) return call
-    const [row] = await tx.update(tables.calls).set(changes).where(and(eq(tables.calls.id, id), eq(tables.calls.version, version))).returning()
+    const [row] = await tx.update(tables.calls).set(changes).where(and(eq(tables.calls.id, id), eq(tables.calls.version,
+      version))).returning()
     if (!row) return 'stale' as const
-    await tx.insert(tables.callEvents).values({ callId: id, kind: 'edited', byUserId: user.id, note: `Changed ${changed.map(f => FIELD_WORDS[f]).join(', ')}` })
+    await tx.insert(tables.callEvents).values({ callId: id, kind: 'edited', byUserId: user.id,
+      note: `Changed ${changed.map(f => FIELD_WORDS[f]).join(', ')}` })
     return row
   })
 }
@@ -127,9 +130,12 @@ export async function cancelCall(id: string, input: z.output<typeof callCancelSc
       ruleError('reason', `A call that is ${STATUS_LABELS[call.status].toLowerCase()} cannot be cancelled`)
     }
     const now = new Date()
-    const [row] = await tx.update(tables.calls).set({ status: 'cancelled', cancelReason: input.reason, cancelledAt: now, statusChangedAt: now })
+    const [row] = await tx.update(tables.calls).set({ status: 'cancelled', cancelReason: input.reason, cancelledAt: now,
+      statusChangedAt: now })
       .where(eq(tables.calls.id, id)).returning()
-    await tx.insert(tables.callEvents).values({ callId: id, kind: 'status', fromStatus: call.status, toStatus: 'cancelled', mechanicId: call.mechanicId, byUserId: user.id, note: input.reason, at: now })
+    await tx.insert(tables.callEvents).values({ callId: id, kind: 'status', fromStatus: call.status, toStatus: 'cancelled',
+      mechanicId: call.mechanicId, byUserId: user.id, note: input.reason, at: now })
+    if (call.mechanicId) await queueCancellationMail(tx, id, user)
     return row!
   })
 }
@@ -139,7 +145,7 @@ export async function suggestionsFor(call: CallRow) {
   const db = useDb()
   const { users, serviceTrucks } = tables
   // Named outright: drizzle may leave columns unqualified, which would bind them to the subquery's table.
-  const load = sql<number>`(SELECT count(*)::int FROM calls mc WHERE mc.mechanic_id = "users"."id" AND mc.status IN (${sql.join(OPEN_WORK.map(s => sql`${s}`), sql`, `)}) AND mc.id <> ${call.id})`
+  const load = sql<number>`(SELECT count(*)::int FROM calls mc WHERE mc.mechanic_id = "users"."id" AND mc.status IN (${sql.join(WORKING_STATUSES.map(s => sql`${s}`), sql`, `)}) AND mc.id <> ${call.id})`
   const rows = await db.select({
     id: users.id, name: users.name, phone: users.phone, onDuty: users.onDuty, lastLat: users.lastLat, lastLon: users.lastLon,
     lastPositionAt: users.lastPositionAt, openCalls: load, homeTruck: { id: serviceTrucks.id, name: serviceTrucks.name },
@@ -155,63 +161,5 @@ export async function suggestionsFor(call: CallRow) {
     averageRoadKph,
     averageRoadKphFromRates: !!rates,
     items: ranked.map(r => ({ ...r, openCalls: r.mechanic.openCalls, assignedHere: call.mechanicId === r.mechanic.id })),
-  }
-}
-
-/** The mechanic's notice of a new call: who, what, where, and the scene cautions. */
-export async function mailAssignment(callId: string) {
-  const rec = await getCallRecord(callId)
-  if (!rec?.mechanic) return { sent: false, reason: 'no mechanic' }
-  const u = rec.unit
-  const lamps = rec.lamps.map(l => (LAMP_LABELS as Record<string, string>)[l] ?? l).join(', ')
-  const lines = [
-    `Call #${rec.number} is yours.`,
-    '',
-    `Customer: ${rec.customer.name}${rec.customer.phone ? ` (${rec.customer.phone})` : ''}`,
-    `Unit: ${u ? [u.unitNumber, u.yearMakeModel, u.vin ? `VIN ${u.vin}` : null].filter(Boolean).join(' · ') : 'not given'}`,
-    `Location: ${rec.locationText}${rec.lat !== null && rec.lon !== null ? ` (${rec.lat.toFixed(5)}, ${rec.lon.toFixed(5)})` : ''}`,
-    `Complaint: ${rec.complaint}`,
-    lamps ? `Lamps on: ${lamps}` : null,
-    rec.derate !== 'none' ? `Engine: ${DERATE_LABELS[rec.derate]}${rec.derateNote ? ` (${rec.derateNote})` : ''}` : null,
-    rec.loaded || rec.hazmat ? `Load: ${[rec.loaded ? 'loaded' : null, rec.hazmat ? 'HAZMAT on board' : null].filter(Boolean).join(', ')}` : null,
-    rec.safetyNotes ? `Scene: ${rec.safetyNotes}` : null,
-    rec.callerName || rec.callerPhone ? `Caller: ${[rec.callerName, rec.callerPhone].filter(Boolean).join(', ')}` : null,
-    rec.poNumber ? `PO: ${rec.poNumber}` : null,
-    rec.authLimitCents !== null ? `Authorized up to: ${(rec.authLimitCents / 100).toFixed(2)}` : null,
-    rec.serviceTruck ? `Service truck: ${rec.serviceTruck.name}` : null,
-    '',
-    'Before you work: park clear of traffic, hazards on, warning devices out, and follow your local rules and company practice.',
-    'Open the call in Wayside on your phone (My calls) once it has synced.',
-  ].filter((l): l is string => l !== null)
-  const subject = `Call #${rec.number}: ${rec.customer.name}${u ? `, unit ${u.unitNumber}` : ''} at ${rec.locationText}`.slice(0, 200)
-  await sendMail({ to: rec.mechanic.email, subject, text: lines.join('\n'), kind: 'call_assigned', relatedId: rec.id })
-  return { sent: true }
-}
-
-/** After commit: the mail is a notice, so a failure is reported in the answer, not rolled back. */
-export async function mailAssignmentSafely(callId: string) {
-  try { return await mailAssignment(callId) }
-  catch (err) {
-    console.error('[dispatch] assignment mail failed', (err as Error).message)
-    return { sent: false, reason: 'The mail server did not take the message; phone the mechanic' }
-  }
-}
-
-/** Tells the mechanic a call of theirs is off, so nobody drives out for nothing. */
-export async function mailCancellationSafely(callId: string) {
-  try {
-    const rec = await getCallRecord(callId)
-    if (!rec?.mechanic) return { sent: false }
-    await sendMail({
-      to: rec.mechanic.email,
-      subject: `Call #${rec.number} cancelled: ${rec.customer.name}`.slice(0, 200),
-      text: [`Call #${rec.number} (${rec.customer.name}, ${rec.locationText}) is cancelled.`, `Reason: ${rec.cancelReason ?? 'not given'}`, '', 'No need to drive out for it.'].join('\n'),
-      kind: 'call_cancelled', relatedId: rec.id,
-    })
-    return { sent: true }
-  }
-  catch (err) {
-    console.error('[dispatch] cancellation mail failed', (err as Error).message)
-    return { sent: false }
   }
 }

@@ -192,6 +192,18 @@ export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
   row(['Subtotal', '', '', money(inv.subtotalCents)])
   row([inv.customer.taxExempt ? 'Tax (customer is tax-exempt)' : 'Tax', '', '', money(inv.taxCents)])
   row(['Total', '', '', money(inv.totalCents)], 'bold')
+  // Credit notes and payments since, each as it moves the balance, and what is left to pay.
+  const moneyLines = invoiceMoneyLines(inv, facts.day)
+  if (moneyLines.length) {
+    doc.moveDown(0.6)
+    // The heading stays with at least its first line.
+    room(2 * rowHeight('Payments and credits') + 8)
+    row(['Payments and credits', '', '', ''], 'bold')
+    for (const m of moneyLines) {
+      room(rowHeight(m.label) + 4)
+      row([m.label, '', '', m.amountCents == null ? '' : money(m.amountCents)], m.bold ? 'bold' : 'body')
+    }
+  }
   doc.moveDown(1)
   doc.fillColor('#404a52').fontSize(9)
   put('Labor is billed in tenths of an hour, rounded up; time outside our normal hours is billed at the after-hours rate. '

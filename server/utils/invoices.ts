@@ -39,7 +39,8 @@ export async function getInvoice(id: string) {
     where: eq(tables.invoices.id, id),
     with: {
       lines: { orderBy: (l, { asc }) => [asc(l.sort)] },
-      payments: true,
+      payments: { with: { refunds: true }, orderBy: (p, { asc }) => [asc(p.createdAt)] },
+      creditNotes: { with: { lines: { orderBy: (l, { asc }) => [asc(l.sort)] } }, orderBy: (n, { asc }) => [asc(n.number)] },
       customer: true,
       call: { with: { unit: true } },
     },
@@ -48,6 +49,7 @@ export async function getInvoice(id: string) {
   const { changeXid: _x, call, customer, ...rest } = inv
   return {
     ...rest,
+    money: invoiceMoney(rest),
     customer: { id: customer.id, name: customer.name, billingEmail: customer.billingEmail, billingTerms: customer.billingTerms, netDays: customer.netDays, taxExempt: customer.taxExempt },
     call: { id: call.id, number: call.number, status: call.status, outcome: call.outcome, locationText: call.locationText, complaint: call.complaint, poNumber: call.poNumber, authLimitCents: call.authLimitCents, storyComplaint: call.storyComplaint, storyCause: call.storyCause, storyCorrection: call.storyCorrection, completedAt: call.completedAt, unit: call.unit ? { unitNumber: call.unit.unitNumber, vin: call.unit.vin, yearMakeModel: call.unit.yearMakeModel } : null },
   }
@@ -64,7 +66,8 @@ export async function listInvoices(q: z.output<typeof invoiceListQuerySchema>) {
     db.select({
       id: tables.invoices.id, number: tables.invoices.number, status: tables.invoices.status, callId: tables.invoices.callId,
       callNumber: tables.calls.number, customerName: tables.customers.name, billingTerms: tables.customers.billingTerms,
-      totalCents: tables.invoices.totalCents, createdAt: tables.invoices.createdAt, sentAt: tables.invoices.sentAt, paidAt: tables.invoices.paidAt, dueAt: tables.invoices.dueAt,
+      totalCents: tables.invoices.totalCents, paidCents: tables.invoices.paidCents, creditedCents: tables.invoices.creditedCents,
+      createdAt: tables.invoices.createdAt, sentAt: tables.invoices.sentAt, paidAt: tables.invoices.paidAt, dueAt: tables.invoices.dueAt,
     }).from(tables.invoices)
       .innerJoin(tables.calls, eq(tables.calls.id, tables.invoices.callId))
       .innerJoin(tables.customers, eq(tables.customers.id, tables.invoices.customerId))
@@ -72,22 +75,4 @@ export async function listInvoices(q: z.output<typeof invoiceListQuerySchema>) {
     db.select({ n: sql<number>`count(*)::int` }).from(tables.invoices).where(cond),
   ])
   return { items, total: n?.n ?? 0 }
-}
-
-/** Marks an invoice paid once, with its call; repeated deliveries change nothing. */
-export async function settleInvoice(tx: Tx, invoiceId: string, payment: { method: 'card' | 'account', amountCents: number, providerRef: string | null, byUserId?: string }) {
-  if (payment.providerRef) {
-    const inserted = await tx.insert(tables.payments).values({ invoiceId, method: payment.method, amountCents: payment.amountCents, providerRef: payment.providerRef, status: 'succeeded' })
-      .onConflictDoNothing({ target: tables.payments.providerRef }).returning({ id: tables.payments.id })
-    if (!inserted.length) return false
-  }
-  else {
-    await tx.insert(tables.payments).values({ invoiceId, method: payment.method, amountCents: payment.amountCents, status: 'posted' })
-  }
-  const [inv] = await tx.update(tables.invoices).set({ status: 'paid', paidAt: new Date() })
-    .where(and(eq(tables.invoices.id, invoiceId), ne(tables.invoices.status, 'paid'))).returning()
-  if (!inv) return false
-  await tx.update(tables.calls).set({ status: 'paid', paidAt: new Date(), statusChangedAt: new Date() }).where(eq(tables.calls.id, inv.callId))
-  await tx.insert(tables.callEvents).values({ callId: inv.callId, kind: 'status', fromStatus: 'invoiced', toStatus: 'paid', byUserId: payment.byUserId, note: `Paid by ${payment.method === 'card' ? 'card' : 'charge to account'}` })
-  return true
 }

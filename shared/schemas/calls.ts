@@ -3,11 +3,10 @@ import { optText, recordId, versionField } from './fields'
 import { cleanText, requiredText, searchQuery } from './text'
 import { customerCreateSchema } from './customers'
 import { unitDraftSchema } from './units'
+import { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus } from '../utils/callStatus'
 
-export const CALL_STATUSES = ['received', 'assigned', 'en_route', 'on_site', 'completed', 'invoiced', 'paid', 'cancelled'] as const
-export const CALL_OUTCOMES = ['repaired', 'towed', 'parts_ordered', 'no_fault_found'] as const
-export type CallStatus = (typeof CALL_STATUSES)[number]
-export type CallOutcome = (typeof CALL_OUTCOMES)[number]
+// The statuses and outcomes live with the call module (shared/utils/callStatus.ts).
+export { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus }
 
 /** Query of GET /api/calls; `status` may list several, comma-separated. */
 export const callListQuerySchema = z.object({
@@ -59,7 +58,8 @@ export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
 const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
 const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
 
-const dispatchFields = {
+/** The dispatch fields as the office edits them; sync's call fields take the same schemas. */
+export const dispatchFields = {
   locationText: requiredText(300, 'Location', { missing: 'Say where the truck is' }),
   lat: latField,
   lon: lonField,

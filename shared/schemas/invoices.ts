@@ -50,16 +50,5 @@ export const invoiceListQuerySchema = z.object({
   pageSize: z.coerce.number({ message: 'Page size must be a number' }).int().min(1).max(200).default(50),
 })
 
-/**
- * Taking payment. Card: the payment method id the card reader or saved card gave (the payment
- * service's own reference). Account: charged to the fleet's running account.
- */
-export const invoicePaySchema = z.object({
-  method: z.enum(['card', 'account'], { message: 'Choose card or account' }),
-  paymentMethod: cleanText('Payment method reference').min(3, 'Enter the payment method reference').max(100).optional(),
-}).refine(v => v.method !== 'card' || !!v.paymentMethod, { message: 'Enter the payment method reference', path: ['paymentMethod'] })
-
-export type InvoicePayInput = z.infer<typeof invoicePaySchema>
-
 /** The office marks a call's photo for the customer: it then prints on the invoice (PATCH /api/photos/[id]). */
 export const photoMarkSchema = z.object({ showCustomer: z.boolean({ message: 'Say whether the customer sees this photo' }) })

@@ -4,10 +4,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/api'
 import { count, closeTestPool, testPool } from '../support/db'
 import { BASE_URL, DEMO } from '../support/env'
-import { caughtMail, clearMail, waitForMail } from '../support/mail'
+import { caughtMail, clearMail, recoverMail, stallMail, waitForMail } from '../support/mail'
 
 // Each test bills a call of its own making, so no other test's seeded calls are touched.
-type CallOpts = { laborMin: number, workFrom?: number, parts?: { pn: string, qty: number, price: number, core: number }[] }
+type TestPart = { pn: string, qty: number, price: number, core: number }
+type CallOpts = { laborMin: number, workFrom?: number, parts?: TestPart[] }
 async function finishedCall(customerName: string, opts: CallOpts) {
   const db = testPool()
   const { rows: [c] } = await db.query('SELECT id FROM customers WHERE name = $1', [customerName])
@@ -102,8 +103,150 @@ describe('invoices', () => {
     const mail = await waitForMail(m => m.subject.includes(`W-${inv.number}`))
     expect(mail).toHaveLength(1)
     expect(mail[0]!.to).toEqual(['payables@ironwood-freight.test'])
-    expect(mail[0]!.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf', filename: `invoice-W-${inv.number}.pdf` })])
+    expect(mail[0]!.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf',
+      filename: `invoice-W-${inv.number}.pdf` })])
     expect((await caughtMail()).length).toBe(1)
+    const link = (await office.get(`/api/invoices/${inv.id}/pay-link`)).body.url as string
+    expect(mail[0]!.text).toContain(`by card on our payment page: ${link}`)
+  })
+})
+
+const SECRET = process.env.NUXT_STRIPE_WEBHOOK_SECRET ?? 'whsec_wayside_local'
+const signer = new Stripe('sk_test_x')
+/** Delivers a payment-service event to the webhook, signed with `secret`. */
+async function deliver(event: object, secret = SECRET) {
+  const payload = JSON.stringify(event)
+  const header = signer.webhooks.generateTestHeaderString({ payload, secret })
+  const res = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json',
+    'stripe-signature': header }, body: payload })
+  return { status: res.status, body: await res.json().catch(() => null) }
+}
+function sessionCompleted(invoiceId: string, amount: number, opts: { currency?: string, pi?: string, evt?: string } = {}) {
+  const pi = opts.pi ?? `pi_${randomUUID().replace(/-/g, '')}`
+  return {
+    id: opts.evt ?? `evt_${randomUUID().replace(/-/g, '')}`, object: 'event', type: 'checkout.session.completed',
+    created: Math.floor(Date.now() / 1000),
+    data: { object: { id: `cs_${pi.slice(3)}`, object: 'checkout.session', amount_total: amount, currency: opts.currency ?? 'usd',
+      payment_status: 'paid', status: 'complete', payment_intent: pi, metadata: { invoiceId } } },
+  }
+}
+async function sentInvoice(customer: string, laborMin = 60) {
+  const callId = await finishedCall(customer, { laborMin })
+  const inv = (await office.post('/api/invoices', { callId })).body
+  await testPool().query(`UPDATE invoices SET status = 'sent', sent_at = now() WHERE id = $1`, [inv.id])
+  return { ...inv, callId }
+}
+const payWith = (id: string, body: object, key: string) => office.request('POST', `/api/invoices/${id}/pay`, { json: body,
+  headers: { 'idempotency-key': key } })
+
+describe('one payment per intent', () => {
+  it('twenty parallel "Post to account" clicks with their own keys post once; the others hear it is paid', async () => {
+    const inv = await sentInvoice('Lakeline Municipal Fleet')
+    const answers = await Promise.all(Array.from({ length: 20 }, () => payWith(inv.id, { method: 'account' }, randomUUID())))
+    const ok = answers.filter(a => a.status === 200)
+    expect(ok).toHaveLength(1)
+    const refused = answers.filter(a => a.status === 409)
+    expect(refused).toHaveLength(19)
+    for (const r of refused) expect(r.body.message).toMatch(new RegExp(`W-${inv.number} is already paid`))
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(1)
+    expect(await count('account_entries', 'invoice_id = $1', [inv.id])).toBe(1)
+    expect(ok[0]!.body).toMatchObject({ status: 'paid', paidCents: inv.totalCents, money: { state: 'paid', balanceCents: 0 } })
+    expect(await count('call_events', 'call_id = $1 AND to_status = \'paid\'', [inv.callId])).toBe(1)
+  })
+
+  it('the same key twenty times at once answers twenty times with the one payment', async () => {
+    const inv = await sentInvoice('Lakeline Municipal Fleet')
+    const key = randomUUID()
+    const answers = await Promise.all(Array.from({ length: 20 }, () => payWith(inv.id, { method: 'account' }, key)))
+    expect(answers.map(a => a.status)).toEqual(Array(20).fill(200))
+    expect(new Set(answers.map(a => a.body.payment.paymentId)).size).toBe(1)
+    expect(answers.filter(a => !a.body.payment.replayed)).toHaveLength(1)
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(1)
+    // The same key for another request is refused, naming the key.
+    const other = await sentInvoice('Lakeline Municipal Fleet')
+    const misuse = await payWith(other.id, { method: 'account' }, key)
+    expect(misuse.status).toBe(422)
+    expect(misuse.body.data.fields.idempotencyKey).toMatch(/already used/)
+    expect(await count('payments', 'invoice_id = $1', [other.id])).toBe(0)
+  })
+
+  it('asks for the key, and records checks in part, once per check number, never past the balance', async () => {
+    const inv = await sentInvoice('Ironwood Freight Lines')
+    const noKey = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'check', amountCents: 1000, reference: '1001' })
+    expect(noKey.status).toBe(400)
+    expect(noKey.body.data.fields.idempotencyKey).toBeTruthy()
+    const noRef = await payWith(inv.id, { method: 'check', amountCents: 1000 }, randomUUID())
+    expect(noRef.status).toBe(400)
+    expect(noRef.body.data.fields.reference).toMatch(/check number/)
+    const tooMuch = await payWith(inv.id, { method: 'cash', amountCents: inv.totalCents + 1 }, randomUUID())
+    expect(tooMuch.status).toBe(422)
+    expect(tooMuch.body.data.fields.amountCents).toMatch(/balance/)
+
+    const part = await payWith(inv.id, { method: 'check', amountCents: 5000, reference: 'CK 1001', receivedOn: '2026-03-02' }, randomUUID())
+    expect(part.status).toBe(200)
+    expect(part.body).toMatchObject({ status: 'sent', paidCents: 5000, money: { state: 'partly_paid', word: 'Partly paid',
+      balanceCents: inv.totalCents - 5000 } })
+    const again = await payWith(inv.id, { method: 'check', amountCents: 5000, reference: 'ck 1001' }, randomUUID())
+    expect(again.status).toBe(409)
+    expect(again.body.data.fields.reference).toMatch(/already recorded/)
+    const rest = await payWith(inv.id, { method: 'bank_transfer', amountCents: inv.totalCents - 5000, reference: 'ACH 88-213' },
+      randomUUID())
+    expect(rest.body).toMatchObject({ status: 'paid', money: { state: 'paid', balanceCents: 0 } })
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(2)
+    // An account post on a card customer's invoice is refused by rule.
+    const card = await sentInvoice('Bluestem Aggregate Co.')
+    expect((await payWith(card.id, { method: 'account' }, randomUUID())).status).toBe(422)
+  })
+})
+
+describe('the payment service\'s webhook', () => {
+  it('a short payment is partly paid with its balance, never paid; the rest settles it', async () => {
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    const short = await deliver(sessionCompleted(inv.id, 50))
+    expect(short).toMatchObject({ status: 200, body: { outcome: 'partly paid' } })
+    const after = (await office.get(`/api/invoices/${inv.id}`)).body
+    expect(after).toMatchObject({ status: 'sent', paidCents: 50, money: { state: 'partly_paid', balanceCents: inv.totalCents - 50 } })
+    expect((await testPool().query('SELECT status FROM calls WHERE id = $1', [inv.callId])).rows[0].status).toBe('invoiced')
+    const rest = await deliver(sessionCompleted(inv.id, inv.totalCents - 50))
+    expect(rest.body.outcome).toBe('paid')
+    expect((await office.get(`/api/invoices/${inv.id}`)).body).toMatchObject({ status: 'paid', money: { state: 'paid', balanceCents: 0 } })
+  })
+
+  it('parallel and repeated deliveries of one card completion record one payment', async () => {
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    const event = sessionCompleted(inv.id, inv.totalCents)
+    // The same event delivered ten times at once, and the same payment under other event ids.
+    const sameEvent = Array.from({ length: 10 }, () => deliver(event))
+    const sameMoney = Array.from({ length: 5 }, () => deliver(sessionCompleted(inv.id, inv.totalCents,
+      { pi: event.data.object.payment_intent })))
+    const answers = await Promise.all([...sameEvent, ...sameMoney])
+    expect(answers.every(a => a.status === 200)).toBe(true)
+    expect(answers.filter(a => a.body.outcome === 'paid')).toHaveLength(1)
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(1)
+    expect(await count('call_events', 'call_id = $1 AND to_status = \'paid\'', [inv.callId])).toBe(1)
+  })
+
+  it('a forged signature answers 400 and changes nothing', async () => {
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    const before = (await office.get(`/api/invoices/${inv.id}`)).body
+    const forged = await deliver(sessionCompleted(inv.id, inv.totalCents), 'whsec_not_ours')
+    expect(forged.status).toBe(400)
+    const bare = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json',
+      'stripe-signature': 't=1,v1=bad' }, body: JSON.stringify(sessionCompleted(inv.id, inv.totalCents)) })
+    expect(bare.status).toBe(400)
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(0)
+    expect(await count('payment_events', 'invoice_id = $1', [inv.id])).toBe(0)
+    const after = (await office.get(`/api/invoices/${inv.id}`)).body
+    expect(after).toMatchObject({ status: before.status, version: before.version, paidCents: 0 })
+  })
+
+  it('a payment in another currency is held, not counted', async () => {
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    const r = await deliver(sessionCompleted(inv.id, inv.totalCents, { currency: 'eur' }))
+    expect(r.body.outcome).toBe('held: wrong currency')
+    const after = (await office.get(`/api/invoices/${inv.id}`)).body
+    expect(after).toMatchObject({ status: 'sent', paidCents: 0, money: { state: 'unpaid' } })
+    expect(after.payments[0]).toMatchObject({ status: 'held', currency: 'eur' })
   })
 })
 
@@ -228,45 +371,227 @@ describe('payments', () => {
     const callId = await finishedCall('Lakeline Municipal Fleet', { laborMin: 60 })
     const inv = (await office.post('/api/invoices', { callId })).body
     expect(inv.taxCents).toBe(0) // Lakeline is tax-exempt in the seed
-    const r = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'account' })
+    const r = await payWith(inv.id, { method: 'account' }, randomUUID())
     expect(r.status).toBe(200)
     expect(r.body.status).toBe('paid')
     expect(await count('account_entries', 'invoice_id = $1', [inv.id])).toBe(1)
     expect((await testPool().query('SELECT status FROM calls WHERE id = $1', [callId])).rows[0].status).toBe('paid')
-    expect((await office.post(`/api/invoices/${inv.id}/pay`, { method: 'account' })).status).toBe(422)
-  })
-
-  it('charges a card through the payment SDK; a declined card says so; the webhook marks paid only once', async () => {
-    const callId = await finishedCall('Bluestem Aggregate Co.', { laborMin: 45 })
-    const inv = (await office.post('/api/invoices', { callId })).body
-    expect((await office.post(`/api/invoices/${inv.id}/pay`, { method: 'account' })).status).toBe(422)
-    const missing = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'card' })
-    expect(missing.status).toBe(400)
-    expect(missing.body.data.fields.paymentMethod).toBeTruthy()
-    const declined = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'card', paymentMethod: 'pm_card_chargeDeclined' })
-    expect(declined.status).toBe(422)
-    expect(declined.body.data.fields.paymentMethod).toMatch(/declined/i)
-    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(0)
-
-    const ok = await office.post(`/api/invoices/${inv.id}/pay`, { method: 'card', paymentMethod: 'pm_card_visa' })
-    expect(ok.status).toBe(200)
-    expect(ok.body.status).toBe('paid')
-    const ref = ok.body.payments[0].providerRef as string
-    // The fake also delivers payment_intent.succeeded to the webhook; replay it twice more, signed.
-    const payload = JSON.stringify({ id: 'evt_test', object: 'event', type: 'payment_intent.succeeded', data: { object: { id: ref, object: 'payment_intent', amount: inv.totalCents, metadata: { invoiceId: inv.id } } } })
-    const stripe = new Stripe('sk_test_x')
-    const secret = process.env.NUXT_STRIPE_WEBHOOK_SECRET ?? 'whsec_wayside_local'
-    for (let i = 0; i < 2; i++) {
-      const header = stripe.webhooks.generateTestHeaderString({ payload, secret })
-      const res = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': header }, body: payload })
-      expect(res.status).toBe(200)
-    }
-    await new Promise(r => setTimeout(r, 300))
-    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(1)
+    expect((await payWith(inv.id, { method: 'account' }, randomUUID())).status).toBe(409)
   })
 
   it('refuses a webhook whose signature does not match', async () => {
-    const res = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': 't=1,v1=bad' }, body: '{"type":"payment_intent.succeeded"}' })
+    const res = await fetch(`${BASE_URL}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json',
+      'stripe-signature': 't=1,v1=bad' }, body: '{"type":"payment_intent.succeeded"}' })
     expect(res.status).toBe(400)
+  })
+})
+
+describe('the hosted payment page', () => {
+  const anon = new ApiClient()
+  const tokenOf = (url: string) => url.split('/pay/')[1]!
+
+  it('the payer pays on the payment service\'s page; its webhook marks the invoice paid once', async () => {
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    const mech1 = await signedIn(DEMO.mech1)
+    const roadside = (await mech1.get(`/api/payments/link?callId=${inv.callId}`)).body
+    expect(roadside).toMatchObject({ state: 'due', invoiceNumber: inv.number, amountDueCents: inv.totalCents })
+    expect(Object.keys(roadside).sort()).toEqual(['amountDueCents', 'invoiceNumber', 'state', 'url'])
+    expect((await (await signedIn(DEMO.mech2)).get(`/api/payments/link?callId=${inv.callId}`)).status).toBe(404)
+    const url = roadside.url as string
+    expect(url).toBe((await office.get(`/api/invoices/${inv.id}/pay-link`)).body.url)
+
+    const page = await anon.get(`/api/payments/public/${tokenOf(url)}`)
+    expect(page.body).toMatchObject({ invoiceNumber: inv.number, balanceCents: inv.totalCents, payable: true, state: 'unpaid' })
+    const first = await anon.post(`/api/payments/public/${tokenOf(url)}/checkout`)
+    expect(first.status).toBe(200)
+    const hosted = first.body.url as string
+    expect(hosted).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/checkout\/cs_test_/)
+    // Asked again, the same open page comes back: one page at a time takes money for an invoice.
+    expect((await anon.post(`/api/payments/public/${tokenOf(url)}/checkout`)).body.url).toBe(hosted)
+    const html = await (await fetch(hosted)).text()
+    expect(html).toContain(`Pay ${(inv.totalCents / 100).toFixed(2)} USD`)
+    // No field asks for a card: the only choice is the fake's approve or decline.
+    expect(html.match(/<input[^>]*>/g)?.every(i => i.includes('name="outcome"'))).toBe(true)
+
+    const declined = await fetch(hosted, { method: 'POST', body: new URLSearchParams({ outcome: 'decline' }), redirect: 'manual' })
+    expect(await declined.text()).toContain('declined')
+    expect(await count('payments', 'invoice_id = $1', [inv.id])).toBe(0)
+
+    // The payer presses Pay ten times at once: one completion, one webhook, one payment.
+    const presses = await Promise.all(Array.from({ length: 10 }, () => fetch(hosted, { method: 'POST',
+      body: new URLSearchParams({ outcome: 'approve' }), redirect: 'manual' })))
+    const redirects = presses.filter(r => r.status === 303)
+    expect(redirects).toHaveLength(1)
+    expect(redirects[0]!.headers.get('location')).toBe(`${url}?done=1`)
+    const end = Date.now() + 10_000
+    while (Date.now() < end && (await office.get(`/api/invoices/${inv.id}`)).body.status !== 'paid') await new Promise(r => setTimeout(r,
+      200))
+    const paid = (await office.get(`/api/invoices/${inv.id}`)).body
+    expect(paid).toMatchObject({ status: 'paid', paidCents: inv.totalCents, money: { state: 'paid' } })
+    expect(paid.payments).toHaveLength(1)
+    expect(paid.payments[0]).toMatchObject({ method: 'card', status: 'succeeded', amountCents: inv.totalCents })
+    expect(await count('checkout_sessions', 'invoice_id = $1 AND status = \'complete\'', [inv.id])).toBe(1)
+    expect((await anon.get(`/api/payments/public/${tokenOf(url)}`)).body).toMatchObject({ state: 'paid', payable: false })
+    expect((await anon.post(`/api/payments/public/${tokenOf(url)}/checkout`)).status).toBe(409)
+    expect((await mech1.get(`/api/payments/link?callId=${inv.callId}`)).body).toEqual({ state: 'paid', invoiceNumber: inv.number })
+  })
+
+  it('has no link for a draft, tells account customers apart, and knows no made-up token', async () => {
+    const callId = await finishedCall('Bluestem Aggregate Co.', { laborMin: 30 })
+    await office.post('/api/invoices', { callId })
+    const mech1 = await signedIn(DEMO.mech1)
+    expect((await mech1.get(`/api/payments/link?callId=${callId}`)).body).toEqual({ state: 'not_ready' })
+    const acct = await sentInvoice('Ironwood Freight Lines')
+    expect((await mech1.get(`/api/payments/link?callId=${acct.callId}`)).body).toEqual({ state: 'account' })
+    expect((await mech1.get('/api/payments/link?callId=nope')).status).toBe(400)
+    expect((await anon.get('/api/payments/public/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA')).status).toBe(404)
+    expect((await anon.get('/api/payments/public/x')).status).toBe(400)
+  })
+})
+
+/** Pays the whole balance as a payer would: the link, the hosted page, Pay; waits for the webhook. */
+async function payOnHostedPage(invoiceId: string) {
+  const url = (await office.get(`/api/invoices/${invoiceId}/pay-link`)).body.url as string
+  const hosted = (await new ApiClient().post(`/api/payments/public/${url.split('/pay/')[1]}/checkout`)).body.url as string
+  await fetch(hosted, { method: 'POST', body: new URLSearchParams({ outcome: 'approve' }), redirect: 'manual' })
+  const end = Date.now() + 10_000
+  while (Date.now() < end && (await office.get(`/api/invoices/${invoiceId}`)).body.status !== 'paid') await new Promise(r => setTimeout(r,
+    200))
+}
+
+describe('refunds and credit notes', () => {
+  it('a credit note corrects a sent invoice with its own number and negative lines; the overpayment goes back to the card', async () => {
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    await payOnHostedPage(inv.id)
+    const paid = (await office.get(`/api/invoices/${inv.id}`)).body
+    expect(paid.status).toBe('paid')
+    const note = { reason: 'Travel billed twice', lines: [{ description: 'Travel, second leg', amountCents: 2000, taxable: false }] }
+    const key = randomUUID()
+    const r = await office.request('POST', `/api/invoices/${inv.id}/credit-notes`, { json: note, headers: { 'idempotency-key': key } })
+    expect(r.status).toBe(201)
+    const cn = r.body.creditNotes[0]
+    expect(cn).toMatchObject({ reason: 'Travel billed twice', subtotalCents: -2000, taxCents: 0, totalCents: -2000 })
+    expect(cn.lines[0]).toMatchObject({ amountCents: -2000, taxable: false })
+    expect(r.body).toMatchObject({ creditedCents: 2000, money: { state: 'overpaid', balanceCents: -2000 } })
+    // The same click again makes no second note.
+    expect((await office.request('POST', `/api/invoices/${inv.id}/credit-notes`, { json: note,
+      headers: { 'idempotency-key': key } })).status).toBe(200)
+    expect(await count('credit_notes', 'invoice_id = $1', [inv.id])).toBe(1)
+    const pdf = await fetch(`${BASE_URL}/api/credit-notes/${cn.id}/pdf`, { headers: { cookie: office.cookie } })
+    expect(pdf.headers.get('content-type')).toBe('application/pdf')
+    expect(Buffer.from(await pdf.arrayBuffer()).subarray(0, 5).toString()).toBe('%PDF-')
+
+    const payment = r.body.payments[0]
+    const tooMuch = await office.request('POST', `/api/invoices/${inv.id}/refunds`, { json: { paymentId: payment.id,
+      amountCents: inv.totalCents + 1, reason: 'Overcharged' }, headers: { 'idempotency-key': randomUUID() } })
+    expect(tooMuch.status).toBe(422)
+    expect(tooMuch.body.data.fields.amountCents).toBeTruthy()
+    const refund = await office.request('POST', `/api/invoices/${inv.id}/refunds`, { json: { paymentId: payment.id, amountCents: 2000,
+      reason: 'Travel billed twice' }, headers: { 'idempotency-key': randomUUID() } })
+    expect(refund.status).toBe(200)
+    expect(refund.body).toMatchObject({ status: 'paid', paidCents: inv.totalCents - 2000, money: { state: 'paid', balanceCents: 0 } })
+    expect(refund.body.payments[0].refunds[0]).toMatchObject({ amountCents: 2000, providerRef: expect.stringMatching(/^re_/) })
+  })
+
+  it('refuses a credit note on a draft, or for more than the invoice, naming the field', async () => {
+    const callId = await finishedCall('Bluestem Aggregate Co.', { laborMin: 30 })
+    const draft = (await office.post('/api/invoices', { callId })).body
+    const note = { reason: 'Wrong price', lines: [{ description: 'Labor', amountCents: 100, taxable: false }] }
+    const onDraft = await office.request('POST', `/api/invoices/${draft.id}/credit-notes`, { json: note,
+      headers: { 'idempotency-key': randomUUID() } })
+    expect(onDraft.status).toBe(422)
+    expect(onDraft.body.data.fields.status).toMatch(/draft/)
+    const inv = await sentInvoice('Bluestem Aggregate Co.')
+    const big = { reason: 'Wrong price', lines: [{ description: 'Everything', amountCents: inv.totalCents + 100, taxable: false }] }
+    const over = await office.request('POST', `/api/invoices/${inv.id}/credit-notes`, { json: big,
+      headers: { 'idempotency-key': randomUUID() } })
+    expect(over.status).toBe(422)
+    expect(over.body.data.fields.lines).toMatch(/at most/)
+    const bad = await office.request('POST', `/api/invoices/${inv.id}/credit-notes`, { json: { reason: 'x', lines: [] },
+      headers: { 'idempotency-key': randomUUID() } })
+    expect(bad.status).toBe(400)
+    expect(Object.keys(bad.body.data.fields).sort()).toEqual(['lines', 'reason'])
+    expect(await count('credit_notes', 'invoice_id = ANY($1)', [[draft.id, inv.id]])).toBe(0)
+  })
+})
+
+describe('mail as durable jobs', () => {
+  async function mailRow(relatedId: string) {
+    return (await testPool().query('SELECT * FROM mail_log WHERE related_id = $1 ORDER BY queued_at DESC LIMIT 1', [relatedId])).rows[0]
+  }
+  async function until<T>(read: () => Promise<T>, ok: (v: T) => boolean, ms = 60_000) {
+    const end = Date.now() + ms
+    let v = await read()
+    while (!ok(v) && Date.now() < end) {
+      await new Promise(r => setTimeout(r, 250))
+      v = await read()
+    }
+    return v
+  }
+
+  it('a stalled mail server never holds a request; the message shows why it waits and goes once, when the server recovers', async () => {
+    const callId = await finishedCall('Ironwood Freight Lines', { laborMin: 30 })
+    const inv = (await office.post('/api/invoices', { callId })).body
+    await clearMail()
+    await stallMail()
+    try {
+      const sent = await office.post(`/api/invoices/${inv.id}/send`)
+      // Answered while the mail server still says nothing: the request never waited on it.
+      expect(sent.status).toBe(200)
+      expect(sent.body).toMatchObject({ status: 'sent', mail: { id: expect.any(String) } })
+      expect((await mailRow(inv.id)).status).not.toBe('sent')
+      const waiting = await until(() => mailRow(inv.id), m => m.status === 'retrying')
+      expect(waiting.status).toBe('retrying')
+      expect(waiting.error).toMatch(/did not answer in time/)
+      const shown = (await office.get(`/api/mail?relatedId=${inv.id}`)).body.items[0]
+      expect(shown).toMatchObject({ kind: 'invoice', status: 'retrying', canSendAgain: true, error: expect.stringMatching(/in time/) })
+      // Send again while retries wait, three times at once: still one message in the end.
+      const again = await Promise.all([1, 2, 3].map(() => office.post(`/api/mail/${shown.id}/send-again`)))
+      expect(again.every(a => a.status === 200 || a.status === 422)).toBe(true)
+    }
+    finally {
+      await recoverMail()
+    }
+    const got = await waitForMail(m => m.subject.includes(`W-${inv.number}`), 60_000)
+    expect(got).toHaveLength(1)
+    expect(got[0]!.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf' })])
+    const done = await until(() => mailRow(inv.id), m => m.status === 'sent')
+    expect(done).toMatchObject({ status: 'sent', error: null })
+    expect(done.attempts).toBeGreaterThanOrEqual(2)
+    // Jobs still waiting for that message find it sent and send nothing more.
+    await new Promise(r => setTimeout(r, 4000))
+    expect((await caughtMail()).filter(m => m.subject.includes(`W-${inv.number}`))).toHaveLength(1)
+    expect((await office.post(`/api/mail/${done.id}/send-again`)).status).toBe(422)
+  })
+
+  it('a dispatcher\'s assignment answers at once while the mail server hangs, and the mechanic gets one e-mail after', async () => {
+    const dispatcher = await signedIn(DEMO.dispatcher)
+    const { rows: [c] } = await testPool().query(`SELECT id FROM customers WHERE name = 'Bluestem Aggregate Co.'`)
+    const { rows: [mech2] } = await testPool().query('SELECT id FROM users WHERE email = $1', [DEMO.mech2])
+    const call = (await dispatcher.post('/api/calls', { customerId: c.id, locationText: 'Quarry road, mile 3',
+      complaint: 'Air leak at the trailer' })).body
+    expect(call.number).toBeTruthy()
+    await clearMail()
+    await stallMail()
+    try {
+      const r = await dispatcher.post(`/api/calls/${call.id}/assign`, { mechanicId: mech2.id })
+      expect(r.status).toBe(200)
+      expect(r.body.mail).toEqual({ queued: true })
+      expect((await dispatcher.get(`/api/mail?relatedId=${call.id}`)).body.items[0]).toMatchObject({ kind: 'call_assigned' })
+      expect((await dispatcher.get(`/api/mail?relatedId=${call.id}`)).body.items[0].status).not.toBe('sent')
+    }
+    finally {
+      await recoverMail()
+    }
+    expect(await waitForMail(m => m.subject.includes(`#${call.number}`), 60_000)).toHaveLength(1)
+  })
+
+  it('shows invoice mail to the office only, and refuses bad ids', async () => {
+    const dispatcher = await signedIn(DEMO.dispatcher)
+    const { rows: [m] } = await testPool().query(`SELECT related_id FROM mail_log WHERE related_type = 'invoice' LIMIT 1`)
+    expect((await dispatcher.get(`/api/mail?relatedId=${m.related_id}`)).status).toBe(403)
+    expect((await (await signedIn(DEMO.mech1)).get(`/api/mail?relatedId=${m.related_id}`)).status).toBe(403)
+    expect((await office.get('/api/mail?relatedId=nope')).status).toBe(400)
+    expect((await office.post('/api/mail/nope/send-again')).status).toBe(400)
   })
 })

@@ -46,7 +46,7 @@ describe('database', () => {
       expect(await counts(client)).toEqual(first)
     }
     finally { await client.end() }
-  })
+  }, 240_000) // four tsx runs: slow on a busy machine
 
   it('bumps version and the change transaction on every write, whatever the writer sends', async () => {
     const client = new pg.Client({ connectionString: scratchUrl })

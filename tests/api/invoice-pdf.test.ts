@@ -103,4 +103,41 @@ describe('the invoice PDF', () => {
     expect(pages.reduce((n, p) => n + p.images, 0)).toBe(1)
     expect(all).toContain('Connector after cleaning')
   })
+
+  it('lists payments, refunds and credit notes under the totals, each with its date, and what is still due', async () => {
+    const db = testPool()
+    const { rows: [c] } = await db.query(`SELECT id FROM customers WHERE name = 'Ironwood Freight Lines'`)
+    const { rows: [mech] } = await db.query(`SELECT id FROM users WHERE email = $1`, [DEMO.mech1])
+    const callId = randomUUID()
+    await db.query(`INSERT INTO calls (id, status, outcome, customer_id, location_text, lat, lon, complaint, mechanic_id, completed_at)
+      VALUES ($1, 'completed', 'repaired', $2, 'Yard 3', 45.408, -93.012, 'Air leak', $3, '2026-03-10T17:00:00Z')`, [callId, c.id, mech.id])
+    await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', '2026-03-10T15:00:00Z'),
+      ($1, 'work_stop', '2026-03-10T16:00:00Z')`, [callId])
+    const inv = (await office.post('/api/invoices', { callId })).body
+    await db.query(`UPDATE invoices SET status = 'sent', sent_at = now() WHERE id = $1`, [inv.id])
+    const key = () => ({ 'idempotency-key': randomUUID() })
+    const check = await office.request('POST', `/api/invoices/${inv.id}/pay`, { json: { method: 'check', amountCents: 5000,
+      reference: 'CK 2207', receivedOn: '2026-03-12' }, headers: key() })
+    expect(check.status).toBe(200)
+    const note = await office.request('POST', `/api/invoices/${inv.id}/credit-notes`, { json: { reason: 'Travel billed twice',
+      lines: [{ description: 'Travel, second leg', amountCents: 1000, taxable: false }] }, headers: key() })
+    expect(note.status).toBe(201)
+    const refund = await office.request('POST', `/api/invoices/${inv.id}/refunds`, { json: { paymentId: check.body.payments[0].id,
+      amountCents: 700, reason: 'Cash back at the counter' }, headers: key() })
+    expect(refund.status).toBe(200)
+    const cn = note.body.creditNotes[0]
+
+    const res = await fetch(`${BASE_URL}/api/invoices/${inv.id}/pdf`, { headers: { cookie: office.cookie } })
+    const all = (await readPdf(Buffer.from(await res.arrayBuffer()))).map(p => p.text).join('\n')
+    expect(all).toContain('Payments and credits')
+    expect(all).toContain('Paid by check CK 2207, 2026-03-12')
+    expect(all).toContain(`Credit note CN-${cn.number}`)
+    expect(all).toContain('Travel billed twice')
+    expect(all).toContain('Cash back at the counter')
+    // Worked by hand: total − 50.00 (check) − 10.00 (credit) + 7.00 (refunded) is what is still due.
+    const due = inv.totalCents - 5000 - 1000 + 700
+    const usd = (cents: number) => new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' }).format(cents / 100)
+    expect(all).toMatch(new RegExp(`Balance due\\s*${usd(due).replace(/[$.]/g, '\\$&')}`))
+    expect(all).toContain(`-${usd(5000)}`)
+  })
 })

@@ -73,7 +73,7 @@ describe('a server killed mid-push', () => {
     expect(r.body.results.every((x: any) => x.original === 'applied')).toBe(true)
     expect(await recordsOf(callId, ops)).toEqual(once)
     expect((await callRow(callId)).status).toBe('en_route')
-  })
+  }, 240_000)
 
   it('retries a serialization failure inside the push and applies every op exactly once', async () => {
     const callId = await makeCall()
@@ -88,7 +88,7 @@ describe('a server killed mid-push', () => {
     expect(r.body.results.every((x: any) => x.status === 'applied')).toBe(true)
     expect(server.output().match(/\[sync\] push retried \(attempt \d\) after SQLSTATE 40001/g)).toHaveLength(2)
     expect(await recordsOf(callId, ops)).toEqual({ notes: 25, readings: 0, statusEvents: 1, syncOps: ops.length })
-  })
+  }, 120_000)
 })
 
 describe('a push that stays contended', () => {
@@ -105,7 +105,7 @@ describe('a push that stays contended', () => {
     const r = await device.push(ops)
     expect(r.body.results.map((x: any) => x.status)).toEqual(Array(5).fill('applied'))
     expect(await recordsOf(callId, ops)).toEqual({ notes: 5, readings: 0, statusEvents: 0, syncOps: 5 })
-  })
+  }, 120_000)
 })
 
 describe('memory under oversized and hostile bodies', () => {
@@ -134,7 +134,7 @@ describe('memory under oversized and hostile bodies', () => {
     const ok = await device.push([device.op('note', { callId, text: 'still here' })])
     expect(ok.status).toBe(200)
     expect(ok.body.results[0].status).toBe('applied')
-  })
+  }, 120_000)
 })
 
 describe('many devices at once', () => {

@@ -16,3 +16,6 @@ export async function waitForMail(pred: (m: CaughtMessage) => boolean, ms = 5000
   }
   return []
 }
+/** The catcher takes connections and then says nothing, like a hung mail server, until recovered. */
+export async function stallMail() { await fetch(`${MAIL_URL}/stall`, { method: 'POST' }) }
+export async function recoverMail() { await fetch(`${MAIL_URL}/recover`, { method: 'POST' }) }

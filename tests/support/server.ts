@@ -28,10 +28,17 @@ export async function startOwnServer(port: number, env: Record<string, string> =
     }
     throw new Error(`timed out waiting for ${what}:\n${output}`)
   }
-  await until('the server to answer', async () => {
-    try { return (await fetch(`${url}/login`)).ok }
-    catch { return false }
-  }, 30_000)
+  try {
+    await until('the server to answer', async () => {
+      try { return (await fetch(`${url}/login`)).ok }
+      catch { return false }
+    }, 60_000)
+  }
+  catch (err) {
+    // A server that comes up after the test gave up must not linger and answer the next test.
+    proc.kill('SIGKILL')
+    throw err
+  }
 
   return {
     url,

@@ -86,6 +86,11 @@ describe('locked calls and field owners', () => {
     expect(mergeCallField(base({ field: 'status', serverStatus: 'invoiced', server: 'invoiced', device: 'completed' })).action).toBe('conflict')
   })
 
+  it('closes a cancelled call to field changes too, as the phone does', () => {
+    const d = mergeCallField(base({ serverStatus: 'cancelled', server: 'old', base: { value: 'old' } }))
+    expect(d).toEqual({ action: 'conflict', reason: 'storyCause: the call was cancelled and takes no more field changes' })
+  })
+
   it('lets an unchanged value through on a locked call without a conflict', () => {
     expect(mergeCallField(base({ serverStatus: 'paid', server: 'same', device: 'same' }))).toEqual({ action: 'same' })
   })

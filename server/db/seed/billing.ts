@@ -30,11 +30,13 @@ export async function seedBilling(db: Db) {
       id: invoiceId, callId, customerId: customer.id, status, ratesId: rates.id,
       subtotalCents: priced.subtotalCents, taxCents: priced.taxCents, totalCents: priced.totalCents,
       dueAt: call.invoicedAt, sentAt: call.invoicedAt, paidAt: status === 'paid' ? call.paidAt : null,
+      paidCents: status === 'paid' ? priced.totalCents : 0,
     })
     const lines = priced.lines.map(({ adjusted: _a, ...l }, i) => ({ ...l, id: seedId(`invoice-line:${key}:${i}`), invoiceId, sort: i }))
     await db.insert(t.invoiceLines).values(lines)
     if (status === 'paid') {
-      await db.insert(t.payments).values({ id: seedId(`payment:${key}`), invoiceId, method: 'card', amountCents: priced.totalCents, providerRef: `pi_seed_${key}`, status: 'succeeded' })
+      await db.insert(t.payments).values({ id: seedId(`payment:${key}`), invoiceId, method: 'card', amountCents: priced.totalCents,
+        providerRef: `pi_seed_${key}`, status: 'succeeded' })
     }
   }
 }

@@ -4,82 +4,33 @@
 // savepoints; if the database refuses a row, the push runs again carefully, with a savepoint
 // around each insert and update, so only the refused op is rejected (see SyncApplier).
 import { eq, inArray, sql, type SQL } from 'drizzle-orm'
-import type { PgTable } from 'drizzle-orm/pg-core'
 import type { User } from '#auth-utils'
+import type { Op } from '#shared/schemas/sync'
 import {
-  conflictResolutionSchema, createSchemas, updateSchemas,
-  type ChildCreate, type ChildEntity, type Op,
-} from '#shared/schemas/sync'
+  checkOp, RECORD_ENTITY_NAMES, SYNC_ENTITIES, type CheckedOp, type RecordCreate, type RecordEntityName,
+  type UpdatableEntityName,
+} from '#shared/sync/entities'
 import { judge } from '#shared/utils/spec'
-import type { z } from 'zod'
 import type { Tx } from '../db'
-import { outcomeProblem, writeCallChanges, type CallRow } from './callWrite'
+import { callOutcomeProblem, writeCallChanges, type CallRow } from './callWrite'
 import { resolveConflictInTx, SyncRuleError } from './conflicts'
 import { bulkInsert, bulkInsertSql } from './bulk'
 import { mergeCallField, sameSyncValue, stableSyncJson } from './merge'
 import { isRetryableTxError, pgErrorCode } from './retry'
+import { RECORD_TABLES } from './tables'
 
 export type OpOutcome = { status: 'applied' | 'conflict' | 'rejected', version?: number, reason?: string }
 
-type Parsed
-  = | { kind: 'bad', reason: string }
-    | { kind: 'create', entity: ChildEntity, data: Record<string, unknown> }
-    | { kind: 'callUpdate', data: Record<string, unknown> }
-    | { kind: 'childUpdate', entity: 'faultCode' | 'testRun', data: Record<string, unknown> }
-    | { kind: 'resolution', data: z.output<typeof conflictResolutionSchema>, hasValue: boolean }
+type ChildEntity = RecordEntityName
+type Parsed = CheckedOp
 
 const rejected = (reason: string): OpOutcome => ({ status: 'rejected', reason })
 const FORBIDDEN = 'forbidden'
+const word = (entity: RecordEntityName) => SYNC_ENTITIES[entity].words.one
 
-const ENTITY_WORDS: Record<ChildEntity, string> = {
-  reading: 'reading', faultCode: 'fault code', note: 'note', photo: 'photo', clockEvent: 'clock event',
-  partLine: 'part line', testRun: 'test run', signOff: 'sign-off',
-}
-
-/** Zod issues as one reason naming each field ("value: Invalid input: expected number…"). */
-export function syncIssuesReason(error: z.ZodError, entity: string): string {
-  const parts: string[] = []
-  for (const issue of error.issues) {
-    if (issue.code === 'unrecognized_keys') {
-      for (const key of issue.keys) parts.push(`${key}: not a field of a ${entity} a device may change`)
-      continue
-    }
-    const key = issue.path.map(String).join('.') || 'changes'
-    if (!parts.some(p => p.startsWith(`${key}: `))) parts.push(`${key}: ${issue.message}`)
-  }
-  return parts.join('; ')
-}
-
-function parseOp(op: Op): Parsed {
-  const { entity, action, changes } = op
-  if (entity === 'conflictResolution') {
-    const r = conflictResolutionSchema.safeParse(changes)
-    return r.success ? { kind: 'resolution', data: r.data, hasValue: 'value' in changes } : { kind: 'bad', reason: syncIssuesReason(r.error, 'conflict resolution') }
-  }
-  if (entity === 'call') {
-    if (action === 'create') return { kind: 'bad', reason: 'action: calls are taken by dispatch, not created by sync' }
-    if (!Object.keys(changes).length) return { kind: 'bad', reason: 'changes: nothing to change' }
-    const r = updateSchemas.call.safeParse(changes)
-    return r.success ? { kind: 'callUpdate', data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, 'call') }
-  }
-  if (action === 'update') {
-    if (entity !== 'faultCode' && entity !== 'testRun') return { kind: 'bad', reason: `action: ${ENTITY_WORDS[entity]}s are append-only` }
-    if (!Object.keys(changes).length) return { kind: 'bad', reason: 'changes: nothing to change' }
-    const r = updateSchemas[entity].safeParse(changes)
-    return r.success ? { kind: 'childUpdate', entity, data: r.data } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
-  }
-  // An `id` among the fields must be the op's; the schema leaves it out of the parsed record.
-  if (changes.id !== undefined && changes.id !== op.entityId) return { kind: 'bad', reason: 'id: differs from the op entityId' }
-  const r = createSchemas[entity].safeParse(changes)
-  return r.success ? { kind: 'create', entity, data: r.data as Record<string, unknown> } : { kind: 'bad', reason: syncIssuesReason(r.error, ENTITY_WORDS[entity]) }
-}
-
-const TABLE: Record<ChildEntity, PgTable & { id: any, version: any, callId: any }> = {
-  reading: tables.readings, faultCode: tables.faultCodes, note: tables.notes, photo: tables.photos,
-  clockEvent: tables.clockEvents, partLine: tables.partLines, testRun: tables.testRuns, signOff: tables.signOffs,
-}
-// Test runs first: readings may point at a run created in the same push.
-const FLUSH_ORDER: ChildEntity[] = ['testRun', 'faultCode', 'reading', 'note', 'photo', 'clockEvent', 'partLine', 'signOff']
+const TABLE = RECORD_TABLES
+// The registry's order: test runs first, since readings may point at a run created in the same push.
+const FLUSH_ORDER = RECORD_ENTITY_NAMES
 /** Columns that are not the record's content, left out when a repeated create is compared. */
 const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt'])
 
@@ -126,7 +77,7 @@ export class SyncApplier {
    */
   constructor(private tx: Tx, private user: User, private ops: Op[], private limits: { photoMaxBytes: number }, private careful = false) {
     this.results = ops.map(() => ({ status: 'rejected' }))
-    this.parsed = ops.map(parseOp)
+    this.parsed = ops.map(checkOp)
   }
 
   async run(): Promise<OpOutcome[]> {
@@ -134,16 +85,16 @@ export class SyncApplier {
     for (let i = 0; i < this.ops.length; i++) {
       const p = this.parsed[i]!
       const op = this.ops[i]!
-      if (p.kind === 'bad') this.results[i] = rejected(p.reason)
+      if (!p.ok) this.results[i] = rejected(p.reason)
       else if (p.kind === 'create') this.queueCreate(i, op, p.entity, p.data)
       else {
         await this.flush()
         this.results[i] = await this.inSavepoint(op.changes, () =>
-          p.kind === 'callUpdate'
-            ? this.callUpdate(op, p.data)
-            : p.kind === 'childUpdate'
-              ? this.childUpdate(op, p.entity, p.data)
-              : this.resolution(p.data, p.hasValue))
+          p.kind === 'command'
+            ? this.resolution(p.data, p.hasValue)
+            : p.entity === 'call'
+              ? this.callUpdate(op, p.data)
+              : this.childUpdate(op, p.entity, p.data))
       }
     }
     if (this.careful) await this.flush()
@@ -167,7 +118,7 @@ export class SyncApplier {
         const f = first.get(p.row.id)
         if (!f) { first.set(p.row.id, p); this.results[p.index] = { status: 'applied', version: 1 }; continue }
         const same = Object.keys(p.row).every(k => NOT_CONTENT.has(k) || sameSyncValue(p.row[k], f.row[k]))
-        this.results[p.index] = same ? { status: 'applied', version: 1 } : rejected(`entityId: a different ${ENTITY_WORDS[entity]} already has this id`)
+        this.results[p.index] = same ? { status: 'applied', version: 1 } : rejected(`entityId: a different ${word(entity)} already has this id`)
       }
       out.push(bulkInsertSql(TABLE[entity], [...first.values()].map(p => p.row), { returning: false, skipClashes: false }))
     }
@@ -181,6 +132,7 @@ export class SyncApplier {
     const runIds = new Set<string>(), cardIds = new Set<string>(), truckIds = new Set<string>(), signCalls = new Set<string>()
     const conflictIds: string[] = []
     this.parsed.forEach((p, i) => {
+      if (!p.ok) return
       if (p.kind === 'create') {
         callIds.add(p.data.callId as string)
         if (p.entity === 'reading' && p.data.testRunId) runIds.add(p.data.testRunId as string)
@@ -188,8 +140,8 @@ export class SyncApplier {
         if (p.entity === 'partLine' && p.data.serviceTruckId) truckIds.add(p.data.serviceTruckId as string)
         if (p.entity === 'signOff') signCalls.add(p.data.callId as string)
       }
-      else if (p.kind === 'callUpdate') callIds.add(this.ops[i]!.entityId)
-      else if (p.kind === 'resolution') conflictIds.push(p.data.conflictId)
+      else if (p.kind === 'update' && p.entity === 'call') callIds.add(this.ops[i]!.entityId)
+      else if (p.kind === 'command') conflictIds.push(p.data.conflictId)
     })
     if (conflictIds.length) {
       const rows = await tx.select({ callId: tables.conflicts.callId }).from(tables.conflicts).where(inArray(tables.conflicts.id, conflictIds))
@@ -269,7 +221,7 @@ export class SyncApplier {
     const deviceAt = new Date(op.at)
     switch (entity) {
       case 'reading': {
-        const d = data as ChildCreate<'reading'>
+        const d = data as RecordCreate<'reading'>
         if (d.testRunId && this.refs.testRuns.get(d.testRunId) !== d.callId) return 'testRunId: no such test run on this call'
         let verdict = d.verdict ?? null
         // The server judges again when the spec is one it can read; the device's verdict is a hint.
@@ -284,21 +236,21 @@ export class SyncApplier {
         }
       }
       case 'faultCode': {
-        const d = data as ChildCreate<'faultCode'>
+        const d = data as RecordCreate<'faultCode'>
         return {
           id, callId, createdBy, deviceAt, code: d.code ?? null, spn: d.spn ?? null, fmi: d.fmi ?? null, state: d.state ?? 'active',
           count: d.count ?? 1, source: d.source ?? null, clearedAt: toDate(d.clearedAt), note: d.note ?? null,
         }
       }
-      case 'note': return { id, callId, createdBy, deviceAt, text: (data as ChildCreate<'note'>).text }
-      case 'clockEvent': return { id, callId, createdBy, deviceAt, kind: (data as ChildCreate<'clockEvent'>).kind }
+      case 'note': return { id, callId, createdBy, deviceAt, text: (data as RecordCreate<'note'>).text }
+      case 'clockEvent': return { id, callId, createdBy, deviceAt, kind: (data as RecordCreate<'clockEvent'>).kind }
       case 'photo': {
-        const d = data as ChildCreate<'photo'>
+        const d = data as RecordCreate<'photo'>
         if (d.sizeBytes > this.limits.photoMaxBytes) return `sizeBytes: larger than the ${this.limits.photoMaxBytes}-byte photo limit`
         return { id, callId, createdBy, deviceAt, sha256: d.sha256, contentType: d.contentType, sizeBytes: d.sizeBytes, caption: d.caption ?? null }
       }
       case 'partLine': {
-        const d = data as ChildCreate<'partLine'>
+        const d = data as RecordCreate<'partLine'>
         if (d.serviceTruckId && !this.refs.trucks.has(d.serviceTruckId)) return 'serviceTruckId: no such service truck'
         const stock = d.serviceTruckId ? this.refs.stock.get(`${d.serviceTruckId}:${d.partNumber}`) : undefined
         return {
@@ -308,7 +260,7 @@ export class SyncApplier {
         }
       }
       case 'testRun': {
-        const d = data as ChildCreate<'testRun'>
+        const d = data as RecordCreate<'testRun'>
         if (!this.refs.cardVersions.has(`${d.cardId}:${d.cardVersion}`)) return 'cardVersion: no such version of this test card'
         return {
           id, callId, createdBy, deviceAt, cardId: d.cardId, cardVersion: d.cardVersion, ambientC: d.ambientC ?? null, steps: d.steps,
@@ -316,7 +268,7 @@ export class SyncApplier {
         }
       }
       case 'signOff': {
-        const d = data as ChildCreate<'signOff'>
+        const d = data as RecordCreate<'signOff'>
         return { id, callId, createdBy, deviceAt, driverName: d.driverName, signature: d.signature }
       }
     }
@@ -374,7 +326,7 @@ export class SyncApplier {
       const same = Object.keys(p.row).every(k => NOT_CONTENT.has(k) || sameSyncValue(p.row[k], there[k]))
       this.results[p.index] = same
         ? { status: 'applied', version: (there.version as number | undefined) ?? version ?? 1 }
-        : rejected(`entityId: a different ${ENTITY_WORDS[entity]} already has this id`)
+        : rejected(`entityId: a different ${word(entity)} already has this id`)
     }
   }
 
@@ -406,7 +358,7 @@ export class SyncApplier {
       }
     }
     if (rejects.length) return rejected(rejects.join('; '))
-    const problemOutcome = outcomeProblem(call, takes)
+    const problemOutcome = callOutcomeProblem(call, takes)
     if (problemOutcome) {
       // The device completed the call but its status move did not take: the outcome waits with it.
       if (!('outcome' in takes) || !('status' in changes) || takes.status !== undefined) return rejected(problemOutcome)
@@ -427,10 +379,10 @@ export class SyncApplier {
   }
 
   /** Fault codes and test runs change in place; only their call's writers reach them. */
-  private async childUpdate(op: Op, entity: 'faultCode' | 'testRun', changes: Record<string, unknown>): Promise<OpOutcome> {
+  private async childUpdate(op: Op, entity: Exclude<UpdatableEntityName, 'call'>, changes: Record<string, unknown>): Promise<OpOutcome> {
     const table = TABLE[entity]
     const [row] = await this.tx.select({ callId: table.callId }).from(table).where(eq(table.id, op.entityId)).for('update')
-    if (!row) return rejected(`entityId: no such ${ENTITY_WORDS[entity]}`)
+    if (!row) return rejected(`entityId: no such ${word(entity)}`)
     const problem = this.accessProblem(await this.callOf(row.callId as string))
     if (problem) return rejected(problem === FORBIDDEN ? FORBIDDEN : 'entityId: no such call')
     const set: Record<string, unknown> = { ...changes }
@@ -439,7 +391,7 @@ export class SyncApplier {
     return { status: 'applied', version: (out as { version: number }).version }
   }
 
-  private async resolution(data: z.output<typeof conflictResolutionSchema>, hasValue: boolean): Promise<OpOutcome> {
+  private async resolution(data: Extract<CheckedOp, { kind: 'command' }>['data'], hasValue: boolean): Promise<OpOutcome> {
     try {
       const { conflict, call } = await resolveConflictInTx(this.tx, this.user, data.conflictId, data.choice, data.value, { hasValue })
       this.calls.set(call.id, call)

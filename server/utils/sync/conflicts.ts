@@ -6,7 +6,7 @@ import type { User } from '#auth-utils'
 import { callFieldSchemas, type CallSyncField } from '#shared/schemas/sync'
 import { fieldErrorsOf, describeFieldErrors } from '#shared/utils/fieldErrors'
 import type { Tx } from '../db'
-import { outcomeProblem, writeCallChanges, type CallRow } from './callWrite'
+import { callOutcomeProblem, writeCallChanges, type CallRow } from './callWrite'
 import { mergeCallField } from './merge'
 
 /** A rule the settlement breaks; the route answers it with `status`, a sync op as `rejected`. */
@@ -62,7 +62,7 @@ export async function resolveConflictInTx(tx: Tx, user: User, conflictId: string
     if (decision.action === 'conflict' || decision.action === 'keep') throw ruleFromReason(decision.reason)
     if (decision.action === 'take') {
       const changes = { [field]: target }
-      const problem = outcomeProblem(call, changes)
+      const problem = callOutcomeProblem(call, changes)
       if (problem) throw ruleFromReason(problem)
       after = await writeCallChanges(tx, call, changes, user)
     }

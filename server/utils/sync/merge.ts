@@ -1,33 +1,10 @@
 // The three-way, per-field merge of a call update from a device (DESIGN.md, "Sync protocol").
 // Pure: no database, no Nitro globals, so unit tests import it directly.
-import type { CallStatus } from '#shared/schemas/calls'
-import { CALL_DISPATCH_FIELDS, CALL_FIELD_WORK_FIELDS, CALL_LINK_FIELDS } from '#shared/schemas/sync'
-import { canMoveStatus, isLockedStatus, STATUS_LABELS, statusRank } from '#shared/utils/callStatus'
+import {
+  CALL_FIELD_WRITERS, callFieldOwner, canMoveStatus, FIELD_STATUS_TARGETS, isBilledStatus, isLockedStatus, STATUS_LABELS, statusRank,
+  type CallStatus,
+} from '#shared/utils/callStatus'
 import type { Role } from '#shared/utils/roles'
-
-/** fieldWork: the mechanic's; dispatch: the office's; link: dispatch fields set only on the call screens. */
-export type FieldOwner = 'fieldWork' | 'dispatch' | 'link'
-
-export function callFieldOwner(field: string): FieldOwner | undefined {
-  if ((CALL_LINK_FIELDS as readonly string[]).includes(field)) return 'link'
-  if ((CALL_FIELD_WORK_FIELDS as readonly string[]).includes(field)) return 'fieldWork'
-  if ((CALL_DISPATCH_FIELDS as readonly string[]).includes(field)) return 'dispatch'
-  return undefined
-}
-
-export const FIELD_WRITERS: Record<FieldOwner, readonly Role[]> = {
-  fieldWork: ['mechanic', 'dispatcher', 'office', 'admin'],
-  dispatch: ['dispatcher', 'admin'],
-  link: [],
-}
-
-/** Statuses each role may move a call to by sync; billing and assignment have their own routes. */
-export const SYNC_STATUS_TARGETS: Record<Role, readonly CallStatus[]> = {
-  mechanic: ['en_route', 'on_site', 'completed'],
-  office: ['en_route', 'on_site', 'completed'],
-  dispatcher: ['en_route', 'on_site', 'completed', 'cancelled'],
-  admin: ['en_route', 'on_site', 'completed', 'cancelled'],
-}
 
 export interface MergeInput {
   field: string
@@ -54,16 +31,15 @@ export function mergeCallField(input: MergeInput): MergeDecision {
   const owner = callFieldOwner(field)
   if (!owner) return { action: 'reject', reason: `${field}: not a field of a call` }
   if (owner === 'link') return { action: 'reject', reason: `${field}: set on the call screens, not by sync` }
-  if (!FIELD_WRITERS[owner].includes(role)) {
-    return { action: 'reject', reason: `${field}: a ${owner === 'dispatch' ? 'dispatch' : 'field-work'} field; a ${role} may not change it` }
+  if (!CALL_FIELD_WRITERS[owner].includes(role)) {
+    const kind = owner === 'dispatch' ? 'dispatch' : 'field-work'
+    return { action: 'reject', reason: `${field}: a ${kind} field; a ${role} may not change it` }
   }
-  if (field === 'status' && !SYNC_STATUS_TARGETS[role].includes(device as CallStatus) && !sameSyncValue(device, server)) {
+  if (field === 'status' && !FIELD_STATUS_TARGETS[role].includes(device as CallStatus) && !sameSyncValue(device, server)) {
     return { action: 'reject', reason: `status: a ${role} may not move a call to ${String(device)} by sync` }
   }
   if (sameSyncValue(device, server)) return { action: 'same' }
-  if (isLockedStatus(serverStatus)) {
-    return { action: 'conflict', reason: `${field}: the call is ${serverStatus} and takes no more field changes` }
-  }
+  if (isLockedStatus(serverStatus)) return { action: 'conflict', reason: lockedReason(field, serverStatus) }
   if (field === 'status') return mergeStatus(serverStatus, device as CallStatus)
   if (input.base) {
     if (sameSyncValue(input.base.value, server)) return { action: 'take', value: device }
@@ -73,11 +49,18 @@ export function mergeCallField(input: MergeInput): MergeDecision {
   return { action: 'conflict', reason: `${field}: sent without its base value and the call changed since` }
 }
 
+/** Why a locked call keeps its value: billed (an invoice was priced from it) or cancelled. */
+export function lockedReason(field: string, status: CallStatus): string {
+  if (isBilledStatus(status)) return `${field}: the call is ${status} and takes no more field changes`
+  return field === 'status' ? 'status: the call was cancelled' : `${field}: the call was cancelled and takes no more field changes`
+}
+
 /** Status moves ignore base: the order itself decides, and a stale move never drags a call back. */
 function mergeStatus(from: CallStatus, to: CallStatus): MergeDecision {
-  if (from === 'cancelled') return { action: 'conflict', reason: 'status: the call was cancelled' }
   if (canMoveStatus(from, to)) return { action: 'take', value: to }
-  if (to === 'cancelled') return { action: 'conflict', reason: `status: a call that is ${STATUS_LABELS[from].toLowerCase()} cannot be cancelled` }
+  if (to === 'cancelled') {
+    return { action: 'conflict', reason: `status: a call that is ${STATUS_LABELS[from].toLowerCase()} cannot be cancelled` }
+  }
   if (statusRank(to) < statusRank(from)) {
     return { action: 'keep', reason: `status: the call is already ${STATUS_LABELS[from].toLowerCase()}; sync never moves a status back` }
   }

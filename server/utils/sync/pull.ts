@@ -10,6 +10,7 @@ import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { PgColumn } from 'drizzle-orm/pg-core'
 import type { User } from '#auth-utils'
 import type { Tx } from '../db'
+import { CALL_RECORD_TABLES, type CallRecordCollection } from './tables'
 
 const strip = <T extends { changeXid?: unknown }>(row: T) => {
   const { changeXid: _x, ...rest } = row
@@ -48,19 +49,9 @@ export async function syncPull(user: User, q: { cursor?: string, clientId?: stri
 
 type Win = (col: PgColumn | SQL) => SQL
 
-const CHILDREN = {
-  faultCodes: tables.faultCodes,
-  readings: tables.readings,
-  notes: tables.notes,
-  photos: tables.photos,
-  clockEvents: tables.clockEvents,
-  partLines: tables.partLines,
-  testRuns: tables.testRuns,
-  signOffs: tables.signOffs,
-  callEvents: tables.callEvents,
-  conflicts: tables.conflicts,
-} as const
-type ChildKey = keyof typeof CHILDREN
+// Every record of a call, by the registry's collection names (plus the server's timeline and conflicts).
+const CHILDREN = CALL_RECORD_TABLES
+type ChildKey = CallRecordCollection
 
 async function library(tx: Tx, win: Win) {
   const { testCards, testCardVersions, rates } = tables

@@ -7,6 +7,5 @@ export default defineEventHandler(async (event) => {
   const input = await readValidatedBody(event, validateWith(callAssignSchema))
   const done = await assignCall(id, input, user)
   if (!done) throw createError({ status: 404, statusText: 'Call not found' })
-  const mail = await mailAssignmentSafely(id)
-  return { ...(await getCallRecord(id))!, mail }
+  return { ...(await getCallRecord(id))!, mail: done.mail }
 })

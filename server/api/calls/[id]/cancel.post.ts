@@ -8,6 +8,5 @@ export default defineEventHandler(async (event) => {
   const result = await cancelCall(id, input, user)
   if (!result) throw createError({ status: 404, statusText: 'Call not found' })
   if (result === 'stale') staleAnswer(await getCallRecord(id), 'call')
-  if (result.mechanicId) await mailCancellationSafely(id)
   return (await getCallRecord(id))!
 })
