@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # npm test: the same set-up as npm start against a fresh test database, then the type check,
-# unit, API and browser tests, after the lint. `npm test -- unit api` runs only the kinds named.
+# unit, API and browser tests, after the lint. `npm test -- unit api` runs only the kinds named;
+# APISPEC=tests/api/x.test.ts or SPEC=tests/e2e/y.spec.ts narrows the API or browser tests to one file.
 source "$(dirname "$0")/lib.sh"
 trap 'cleanup_children' EXIT
 trap 'exit 130' INT TERM
@@ -72,13 +73,16 @@ take_turn() {
   mkdir -p "$WAYSIDE_TEST_LOCK"
   local n
   say "waiting for a turn to build and run the server tests ($WAYSIDE_TEST_LOCK)"
+  # Waiters queue on one blocking gate first, so a run is not starved by others that poll at luckier moments.
+  exec 8>"$WAYSIDE_TEST_LOCK/gate"
+  flock 8
   while :; do
     for n in $(seq 1 "${WAYSIDE_TEST_LOCK_SLOTS:-2}"); do
       exec 9>"$WAYSIDE_TEST_LOCK/turn-$n"
-      if flock -n 9; then say "turn $n taken"; return 0; fi
+      if flock -n 9; then exec 8>&-; say "turn $n taken"; return 0; fi
       exec 9>&-
     done
-    sleep 5
+    sleep 1
   done
 }
 if want api || want e2e; then
@@ -90,12 +94,12 @@ fi
 if want api; then
   start_server
   say "API tests"
-  npx vitest run --project api || failed+=(api)
+  npx vitest run --project api ${APISPEC:-} || failed+=(api)
 fi
 if want e2e; then
   start_server
   say "browser tests"
-  npx playwright test || failed+=(e2e)
+  npx playwright test ${SPEC:-} || failed+=(e2e)
 fi
 
 if [ ${#failed[@]} -gt 0 ]; then

@@ -6,19 +6,20 @@ export const BILLING_DESK_KEY = 'billing-desk'
 export const invoiceKey = (id: string) => `invoice-${id}`
 
 export function useBilling() {
+  const refreshKeys = useRefreshKeys()
   async function draft(callId: string) {
     const inv = await $fetch<{ id: string }>('/api/invoices', { method: 'POST', body: { callId } })
-    await Promise.all([refreshNuxtData(BILLING_READY_KEY), refreshNuxtData(INVOICES_KEY), refreshNuxtData(BILLING_DESK_KEY)])
+    await refreshKeys([BILLING_READY_KEY, INVOICES_KEY, BILLING_DESK_KEY])
     return inv
   }
   async function send(id: string) {
     await $fetch(`/api/invoices/${id}/send`, { method: 'POST', body: {} })
-    await refreshNuxtData(invoiceKey(id))
+    await refreshKeys(invoiceKey(id))
   }
   /** One change to a draft, with its reason; the page shows the repriced invoice. */
   async function adjust(id: string, input: InvoiceAdjustmentInput) {
     await $fetch(`/api/invoices/${id}/adjustments`, { method: 'POST', body: input })
-    await Promise.all([refreshNuxtData(invoiceKey(id)), refreshNuxtData(BILLING_DESK_KEY)])
+    await refreshKeys([invoiceKey(id), BILLING_DESK_KEY])
   }
   return { draft, send, adjust }
 }

@@ -2,9 +2,10 @@ import type { CreditNoteInput, PaymentRecordInput, RefundInput } from '#shared/s
 
 /** Money on an invoice from the office's pages; each call carries the intent's idempotency key. */
 export function usePayments() {
+  const refreshKeys = useRefreshKeys()
   async function post(path: string, body: object, key: string, invoiceId: string) {
     try { return await $fetch(path, { method: 'POST', body, headers: { 'Idempotency-Key': key } }) }
-    finally { await refreshNuxtData(invoiceKey(invoiceId)) }
+    finally { await refreshKeys(invoiceKey(invoiceId)) }
   }
   return {
     pay: (id: string, input: PaymentRecordInput, key: string) => post(`/api/invoices/${id}/pay`, input, key, id),

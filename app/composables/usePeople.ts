@@ -16,9 +16,9 @@ export function usePeople() {
   return { addPerson, changePerson }
 }
 
-/** The field errors of a failed $fetch, or a single `_` message. */
+/** The field errors of a failed $fetch or of an op the device refused to queue, or a single `_` message. */
 export function errorFields(err: any): Record<string, string> {
-  const fields = err?.data?.data?.fields
+  const fields = err?.fields ?? err?.data?.data?.fields
   if (fields && typeof fields === 'object') return fields
   return { _: err?.data?.message ?? err?.message ?? 'Something went wrong' }
 }

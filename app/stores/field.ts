@@ -7,7 +7,8 @@ import { ref } from 'vue'
 import { describeFaultCode } from '#shared/utils/dtc'
 import {
   RECORD_COLLECTION, commitChanges, readBundle, readBundles, readOutbox,
-  type CallBundle, type DeviceRow, type LocalChange, type OutboxEntry, type RecordEntity,
+  type CallBundle, type CallRecord, type CollectionRows, type CustomerRecord, type DeviceRow, type LocalChange, type OutboxEntry,
+  type RecordEntity, type UnitRecord,
 } from '../utils/fieldDb'
 import { readPhotoQueue } from '../utils/syncApply'
 import { useOutboxStore } from './outbox'
@@ -17,22 +18,22 @@ export type UpdatableEntity = 'faultCode' | 'testRun'
 
 /** A call with its records, as the phone screens show it. */
 export interface CallView {
-  call: DeviceRow
-  unit: DeviceRow | null
-  customer: DeviceRow | null
-  /** Earlier calls on the same unit, newest first. */
-  history: DeviceRow[]
-  faultCodes: DeviceRow[]
-  readings: DeviceRow[]
-  notes: DeviceRow[]
-  photos: DeviceRow[]
-  clockEvents: DeviceRow[]
-  partLines: DeviceRow[]
-  testRuns: DeviceRow[]
-  signOffs: DeviceRow[]
-  callEvents: DeviceRow[]
+  call: CallRecord
+  unit: UnitRecord | null
+  customer: CustomerRecord | null
+  /** Earlier calls on the same unit (the other calls of it on the phone), newest first, with their codes in words. */
+  history: (CallRecord & { codes: string[] })[]
+  faultCodes: CollectionRows['faultCodes'][]
+  readings: CollectionRows['readings'][]
+  notes: CollectionRows['notes'][]
+  photos: CollectionRows['photos'][]
+  clockEvents: CollectionRows['clockEvents'][]
+  partLines: CollectionRows['partLines'][]
+  testRuns: CollectionRows['testRuns'][]
+  signOffs: CollectionRows['signOffs'][]
+  callEvents: CollectionRows['callEvents'][]
   /** Open conflicts on this call. */
-  conflicts: DeviceRow[]
+  conflicts: CollectionRows['conflicts'][]
   /** Ids (call, records, conflicts) that an op still waiting on the device touches. */
   pendingIds: string[]
   /** Ids whose op the server refused, with its reason. */
@@ -49,16 +50,16 @@ const timeOf = (r: DeviceRow) => String(r.deviceAt ?? r.at ?? r.createdAt ?? '')
 const byTime = (a: DeviceRow, b: DeviceRow) => timeOf(a).localeCompare(timeOf(b))
 
 export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: readonly OutboxEntry[]): CallView {
-  const list = (c: keyof CallBundle['records']) => Object.values(b.records[c] ?? {}).sort(byTime)
+  const list = <C extends keyof CallBundle['records']>(c: C): CollectionRows[C][] => Object.values(b.records[c] ?? {}).sort(byTime)
   const mine = outbox.filter(e => e.callId === b.id)
   const rejected: Record<string, string> = {}
   for (const e of mine) if (e.state === 'rejected') rejected[e.entityId] = e.reason ?? 'Refused by the server'
   const unitId = b.call.unitId
   const seen = new Set<string>([b.id])
-  const history: DeviceRow[] = []
+  const history: CallView['history'] = []
   const earlier = others.filter(o => unitId && o.call.unitId === unitId)
     .map(o => ({ ...o.call, codes: Object.values(o.records.faultCodes ?? {}).map(codeLabel) }))
-  for (const h of [...earlier, ...b.history]) {
+  for (const h of earlier) {
     if (seen.has(h.id)) continue
     seen.add(h.id)
     history.push(h)
@@ -115,7 +116,7 @@ export const useFieldStore = defineStore('field', () => {
       entity, entityId: id, action: 'update', changes,
       base: base ?? pick(rec, Object.keys(changes)),
       baseVersion: typeof rec.version === 'number' ? rec.version : undefined,
-      apply: (b) => { const r = b.records[RECORD_COLLECTION[entity]][id]; if (r) Object.assign(r, changes) },
+      apply: (b, _at, checked) => { const r = b.records[RECORD_COLLECTION[entity]][id]; if (r) Object.assign(r, checked) },
     }])
     await afterWrite(bundle.id)
   }
@@ -138,7 +139,7 @@ export const useFieldStore = defineStore('field', () => {
         entity: 'call', entityId: callId, action: 'update', changes,
         base: pick(bundle.call, Object.keys(changes)),
         baseVersion: typeof bundle.call.version === 'number' ? bundle.call.version : undefined,
-        apply: (b) => { b.call = { ...b.call, ...changes } },
+        apply: (b, _at, checked) => { b.call = { ...b.call, ...checked } },
       })
     }
     for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId }))
@@ -190,7 +191,7 @@ export const useFieldStore = defineStore('field', () => {
 function createChange(entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {}): LocalChange {
   return {
     entity, entityId: id, action: 'create', changes: fields,
-    apply: (b, at) => { b.records[RECORD_COLLECTION[entity]][id] = { ...fields, ...localOnly, id, deviceAt: at } },
+    apply: (b, at, checked) => { b.records[RECORD_COLLECTION[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },
   }
 }
 

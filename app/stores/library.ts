@@ -1,67 +1,38 @@
-// The test-card library on the phone: fetched when there is signal, kept in IndexedDB
-// (deviceStore('library')) so the runner opens with no signal. In-progress runs live in the
-// same store under their own keys, with a copy of the card version they use.
+// The test-card library on the phone. The sync brings it (app/utils/syncApply.ts stores every card
+// of the pull in IndexedDB), so a phone that synced once opens every card with no signal; this
+// store only reads the device. In-progress runs live in the same store under their own keys.
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { del, entries, get, set } from 'idb-keyval'
-import { ref, shallowRef } from 'vue'
+import { ref, shallowRef, watch } from 'vue'
 import type { TestCardView } from '#shared/schemas/testCards'
 import type { CardRun } from '#shared/utils/cardRun'
 import { deviceStore } from '../utils/deviceDb'
-
-const LIST_KEY = 'cards'
-const cardKey = (id: string, version: number) => `card:${id}@${version}`
-const runKey = (callId: string, cardId: string) => `run:${callId}:${cardId}`
+import { CARD_LIST_KEY, cardKey, runKey, type LibraryList } from '../utils/libraryKeys'
+import { useSyncStore } from './sync'
 
 const parseRun = (raw: string): CardRun => JSON.parse(raw, (k, v) => (k === 'value' && v === 'Infinity' ? Infinity : v))
 
 export const useLibraryStore = defineStore('library', () => {
   const cards = shallowRef<TestCardView[]>([])
+  /** When the sync last stored the library; null before the first sync. */
   const fetchedAt = ref<string | null>(null)
   const loaded = ref(false)
-  const offline = ref(false)
 
-  async function loadCached() {
-    const cached = await get<{ items: TestCardView[], fetchedAt: string }>(LIST_KEY, deviceStore('library'))
-    if (cached) { cards.value = cached.items; fetchedAt.value = cached.fetchedAt }
+  /** Reads the library the sync kept on the device (again after every sync that changed it). */
+  async function ensure() {
+    const kept = await get<LibraryList>(CARD_LIST_KEY, deviceStore('library'))
+    cards.value = kept?.items ?? []
+    fetchedAt.value = kept?.fetchedAt ?? null
     loaded.value = true
   }
 
-  /** Asks the server for the library; with no signal the cached copy stays and `offline` says so. */
-  async function refresh() {
-    try {
-      const { items } = await $fetch<{ items: TestCardView[] }>('/api/test-cards', { retry: 0, timeout: 8000 })
-      const now = new Date().toISOString()
-      await set(LIST_KEY, { items, fetchedAt: now }, deviceStore('library'))
-      for (const c of items) await set(cardKey(c.id, c.version), c, deviceStore('library'))
-      cards.value = items
-      fetchedAt.value = now
-      offline.value = false
-    }
-    catch { offline.value = true }
-  }
-
-  /** Cached cards at once, then a refresh in the background (awaited when nothing is cached). */
-  async function ensure() {
-    if (!loaded.value) await loadCached()
-    const r = refresh()
-    if (!cards.value.length) await r
-  }
-
-  /** One card at a version (latest when absent): from the device first, else the server. */
+  /** One card at a version (latest when absent); a run asks for the version it started with. */
   async function card(id: string, version?: number): Promise<TestCardView | undefined> {
-    if (!loaded.value) await loadCached()
+    if (!loaded.value) await ensure()
     const latest = cards.value.find(c => c.id === id)
     if (latest && (version === undefined || latest.version === version)) return latest
-    if (version !== undefined) {
-      const kept = await get<TestCardView>(cardKey(id, version), deviceStore('library'))
-      if (kept) return kept
-    }
-    try {
-      const fetched = await $fetch<TestCardView>(`/api/test-cards/${id}`, { query: version ? { version } : {}, retry: 0, timeout: 8000 })
-      await set(cardKey(fetched.id, fetched.version), fetched, deviceStore('library'))
-      return fetched
-    }
-    catch { return undefined }
+    if (version === undefined) return undefined
+    return get<TestCardView>(cardKey(id, version), deviceStore('library'))
   }
 
   async function getRun(callId: string, cardId: string) {
@@ -81,7 +52,10 @@ export const useLibraryStore = defineStore('library', () => {
     return all.filter(([k]) => String(k).startsWith(`run:${callId}:`)).map(([, v]) => parseRun(v))
   }
 
-  return { cards, fetchedAt, loaded, offline, loadCached, refresh, ensure, card, getRun, saveRun, dropRun, runsOfCall }
+  // A sync that brought cards while a card list is open shows them at once.
+  watch(() => useSyncStore().libraryPulls, () => { if (loaded.value) void ensure() })
+
+  return { cards, fetchedAt, loaded, ensure, card, getRun, saveRun, dropRun, runsOfCall }
 })
 
 if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useLibraryStore, import.meta.hot))

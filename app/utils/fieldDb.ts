@@ -4,12 +4,23 @@
 // See DESIGN.md, "Sync protocol", for the op shape.
 import { promisifyRequest } from 'idb-keyval'
 import { deviceTx } from './deviceDb'
+import { checkOp, OpRefusedError } from './opCheck'
+import {
+  RECORD_COLLECTION_NAMES, RECORD_COLLECTIONS, type RecordCollection, type RecordEntityName, type SyncEntityName,
+} from '#shared/sync/entities'
+import type {
+  CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire, NoteWire, PartLineWire, PhotoWire,
+  ReadingWire, SignOffWire, TestRunWire, UnitWire,
+} from '#shared/types/syncRows'
 
 export const SCHEMA_VERSION = 1
 
-export type RecordEntity = 'reading' | 'faultCode' | 'note' | 'photo' | 'clockEvent' | 'partLine' | 'testRun' | 'signOff'
-export type OpEntity = 'call' | RecordEntity | 'conflictResolution'
-export type DeviceRow = Record<string, unknown> & { id: string }
+/** A record the mechanic adds to a call (the registry's record entities). */
+export type RecordEntity = RecordEntityName
+/** What an op may name: the registry's entities. */
+export type OpEntity = SyncEntityName
+/** Any record on the device; each collection's own type is in CollectionRows. */
+export type DeviceRow = DeviceRecord
 
 export interface Op {
   opId: string
@@ -49,36 +60,45 @@ export interface JournalEntry {
   summary: string
 }
 
-/** Where a record entity lives in a call's bundle (and in a pull's `changes`). */
-export const RECORD_COLLECTION = {
-  reading: 'readings',
-  faultCode: 'faultCodes',
-  note: 'notes',
-  photo: 'photos',
-  clockEvent: 'clockEvents',
-  partLine: 'partLines',
-  testRun: 'testRuns',
-  signOff: 'signOffs',
-} as const satisfies Record<RecordEntity, string>
-export type Collection = (typeof RECORD_COLLECTION)[RecordEntity] | 'callEvents' | 'conflicts'
-export const BUNDLE_COLLECTIONS: Collection[] = [...Object.values(RECORD_COLLECTION), 'callEvents', 'conflicts']
+/** Where a record entity lives in a call's bundle (and in a pull's `changes`): the registry's collection. */
+export const RECORD_COLLECTION = RECORD_COLLECTIONS
+/** A call's collections on the device: the registry's records, then the office's timeline and the conflicts. */
+export type Collection = RecordCollection | 'callEvents' | 'conflicts'
+export const BUNDLE_COLLECTIONS: Collection[] = [...RECORD_COLLECTION_NAMES, 'callEvents', 'conflicts']
+
+/** The row type of each collection under a call, with the marks the phone keeps on some. */
+export interface CollectionRows {
+  readings: DeviceRecord<ReadingWire>
+  faultCodes: DeviceRecord<FaultCodeWire>
+  notes: DeviceRecord<NoteWire>
+  /** `thumb`: a small copy kept on the phone only; `uploadedAt`: the server confirmed the bytes. */
+  photos: DeviceRecord<PhotoWire & { thumb: string, uploadedAt: string }>
+  clockEvents: DeviceRecord<ClockEventWire>
+  partLines: DeviceRecord<PartLineWire>
+  testRuns: DeviceRecord<TestRunWire>
+  signOffs: DeviceRecord<SignOffWire>
+  callEvents: DeviceRecord<CallEventWire>
+  /** `pendingChoice`: settled on the phone, the settlement not yet sent. */
+  conflicts: DeviceRecord<ConflictWire & { pendingChoice: 'device' | 'server' | 'value' }>
+}
+export type CallRecord = DeviceRecord<CallWire>
+export type UnitRecord = DeviceRecord<UnitWire>
+export type CustomerRecord = DeviceRecord<CustomerWire>
 
 /** One call as the device keeps it: the call, its unit and customer, its records. */
 export interface CallBundle {
   id: string
-  call: DeviceRow
-  unit: DeviceRow | null
-  customer: DeviceRow | null
-  history: DeviceRow[]
-  records: Record<Collection, Record<string, DeviceRow>>
+  call: CallRecord
+  unit: UnitRecord | null
+  customer: CustomerRecord | null
+  records: { [C in Collection]: Record<string, CollectionRows[C]> }
   /** The call was taken away from this mechanic while work on it still waits to sync. */
   revoked?: boolean
-  historyFetchedAt?: string
 }
 
-export function emptyBundle(call: DeviceRow): CallBundle {
+export function emptyBundle(call: CallRecord): CallBundle {
   const records = Object.fromEntries(BUNDLE_COLLECTIONS.map(c => [c, {}])) as CallBundle['records']
-  return { id: call.id, call, unit: null, customer: null, history: [], records }
+  return { id: call.id, call, unit: null, customer: null, records }
 }
 
 const META_CLIENT = 'clientId'
@@ -115,7 +135,8 @@ export interface LocalChange {
   changes: Record<string, unknown>
   base?: Record<string, unknown>
   baseVersion?: number
-  apply?: (bundle: CallBundle, at: string) => void
+  /** How the bundle changes; `changes` are the checked ones the op carries. */
+  apply?: (bundle: CallBundle, at: string, changes: Record<string, unknown>) => void
   /** A photo's bytes, queued for upload in the same transaction as the op that creates it. */
   photo?: QueuedPhoto
 }
@@ -136,9 +157,11 @@ export interface QueuedPhoto {
 
 /**
  * Writes several changes to one call and their ops, with contiguous seqs, in one transaction.
- * Returns the ops written.
+ * Every op is checked against the protocol's schema first: one the server would refuse for its
+ * shape throws OpRefusedError naming the field, and nothing is written. Returns the ops written.
  */
 export async function commitChanges(callId: string, list: LocalChange[]): Promise<Op[]> {
+  const checked = list.map(c => checkedChange(c))
   const clientId = await getClientId()
   return deviceTx(['meta', 'calls', 'outbox', 'photos'], 'readwrite', async (tx) => {
     const meta = tx.objectStore('meta')
@@ -148,7 +171,7 @@ export async function commitChanges(callId: string, list: LocalChange[]): Promis
     let seq = (await promisifyRequest<number | undefined>(meta.get(META_SEQ))) ?? 0
     const at = new Date().toISOString()
     const ops: Op[] = []
-    for (const c of list) {
+    for (const c of checked) {
       seq += 1
       const op: Op = {
         opId: crypto.randomUUID(), clientId, seq, at, schemaVersion: SCHEMA_VERSION,
@@ -156,7 +179,7 @@ export async function commitChanges(callId: string, list: LocalChange[]): Promis
       }
       if (c.base) op.base = c.base
       if (c.baseVersion !== undefined) op.baseVersion = c.baseVersion
-      c.apply?.(bundle, at)
+      c.apply?.(bundle, at, c.changes)
       if (c.photo) tx.objectStore('photos').put(c.photo, c.photo.id)
       const entry: OutboxEntry = { ...op, callId, state: 'pending', tries: 0 }
       tx.objectStore('outbox').put(entry, seq)
@@ -166,6 +189,11 @@ export async function commitChanges(callId: string, list: LocalChange[]): Promis
     callsStore.put(bundle, callId)
     return ops
   })
+}
+
+function checkedChange(c: LocalChange): LocalChange {
+  if (c.action === 'update' && !Object.keys(c.changes).length) throw new OpRefusedError({ _: 'Nothing to change' })
+  return { ...c, changes: checkOp(c.entity, c.action, c.changes) }
 }
 
 export async function readOutbox(): Promise<OutboxEntry[]> {
@@ -218,7 +246,7 @@ export async function claimDevice(userId: string): Promise<'mine' | 'cleared' | 
     const photos = await promisifyRequest<number>(tx.objectStore('photos').count())
     if (waiting + photos > 0) return 'foreign'
     for (const s of ['calls', 'library', 'journal'] as const) tx.objectStore(s).clear()
-    for (const k of [META_CLIENT, META_SEQ, 'cursor', 'serverLastSeq', 'lastSyncAt', 'positionSentAt']) meta.delete(k)
+    for (const k of [META_CLIENT, META_SEQ, 'cursor', 'lastSyncAt', 'positionSentAt', 'stockFetchedAt']) meta.delete(k)
     meta.put(userId, 'ownerId')
     return 'cleared'
   })

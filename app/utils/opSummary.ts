@@ -1,32 +1,15 @@
-// Plain words for an outbox op, for the sync panel and the call page.
+// Plain words for an outbox op and for a conflicting field, for the sync panel and the call page:
+// the registry's own (shared/sync/entities.ts), so a new entity brings its words with it.
+import { isSyncEntity, summarizeOp, SYNC_ENTITIES } from '#shared/sync/entities'
 import type { Op } from './fieldDb'
 
-const CLOCK_WORDS: Record<string, string> = {
-  travel_start: 'Started driving', arrive: 'Arrived', work_start: 'Work started', work_stop: 'Work stopped', depart: 'Left the scene',
+/** A record field in words ('storyCause' → 'cause'); the call's fields unless another entity is named. */
+export function fieldWords(field: string, entity = 'call'): string {
+  const def = isSyncEntity(entity) ? SYNC_ENTITIES[entity] : undefined
+  const words: Readonly<Record<string, string>> | undefined = def && 'fieldWords' in def ? def.fieldWords : undefined
+  return words?.[field] ?? field
 }
-const FIELD_WORDS: Record<string, string> = {
-  status: 'status', outcome: 'outcome', storyComplaint: 'complaint', storyCause: 'cause', storyCorrection: 'correction',
-  sceneChecklist: 'scene checklist', verification: 'verification', followUp: 'follow-up', clearedAt: 'cleared', steps: 'steps', conclusion: 'conclusion', finishedAt: 'finished',
-}
-
-const cut = (s: unknown, n = 40) => { const t = String(s ?? ''); return t.length > n ? `${t.slice(0, n - 1)}…` : t }
 
 export function opSummary(op: Pick<Op, 'entity' | 'action' | 'changes'>): string {
-  const c = op.changes
-  if (op.action === 'update') {
-    const what = Object.keys(c).map(k => FIELD_WORDS[k] ?? k).join(', ')
-    return `${op.entity === 'call' ? 'Call' : op.entity === 'faultCode' ? 'Fault code' : 'Test run'} changed: ${what}`
-  }
-  switch (op.entity) {
-    case 'reading': return `Reading: ${cut(c.label, 30)} ${c.value ?? ''} ${c.unit ?? ''}`.trim()
-    case 'faultCode': return `Fault code ${c.code ?? `SPN ${c.spn} FMI ${c.fmi}`}`
-    case 'note': return `Note: ${cut(c.text)}`
-    case 'photo': return `Photo${c.caption ? `: ${cut(c.caption, 30)}` : ''}`
-    case 'clockEvent': return CLOCK_WORDS[String(c.kind)] ?? 'Clock'
-    case 'partLine': return `Part ${c.partNumber ?? ''} × ${c.quantity ?? ''}`
-    case 'testRun': return 'Test card run'
-    case 'signOff': return `Driver sign-off: ${cut(c.driverName, 30)}`
-    case 'conflictResolution': return 'Conflict settled'
-    default: return op.entity
-  }
+  return summarizeOp(op)
 }

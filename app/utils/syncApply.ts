@@ -8,9 +8,17 @@ import {
   type CallBundle, type Collection, type DeviceRow, type JournalEntry, type OutboxEntry, type QueuedPhoto, type RecordEntity,
 } from './fieldDb'
 import { opSummary } from './opSummary'
+import { cardDefinitionSchema, type TestCardView } from '#shared/schemas/testCards'
+import { ratesSchema } from '#shared/schemas/rates'
+import { z } from 'zod'
+import { CARD_LIST_KEY, cardKey, type LibraryList } from './libraryKeys'
 import type { PullAnswer, PushResult } from './syncWire'
 
 const JOURNAL_KEEP = 300
+
+/** A rates row as the pull carries it: the admin's rates plus its id and when it took effect. */
+const ratesRowSchema = ratesSchema.extend({ id: z.string(), effectiveFrom: z.string() })
+export type PulledRates = z.infer<typeof ratesRowSchema>
 
 function journalOf(e: OutboxEntry, status: JournalEntry['status'], reason?: string | null): JournalEntry {
   const j: JournalEntry = {
@@ -206,6 +214,7 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
     for (const id of changed) { const b = bundles.get(id); if (b) callsStore.put(b, id) }
 
+    await storeCards(lib, ch.testCards ?? [], (await promisifyRequest<unknown>(tx.objectStore('meta').get('cursor'))) === undefined)
     const rateRows = Array.isArray(ch.rates) ? ch.rates : ch.rates ? [ch.rates] : []
     if (rateRows.length) {
       const rates = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('rates'))) ?? {}
@@ -214,9 +223,49 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
     const meta = tx.objectStore('meta')
     meta.put(answer.cursor, 'cursor')
-    meta.put(answer.lastSeq, 'serverLastSeq')
     return [...changed]
   })
+}
+
+/**
+ * The card library as the pull brings it: each card at its current version is kept under
+ * `card:<id>@<version>` (a run keeps the version it started with) and listed under `cards`;
+ * a turned-off card leaves the list. A first pull carries the whole library and replaces the list.
+ */
+async function storeCards(lib: IDBObjectStore, pulled: readonly Record<string, unknown>[], first: boolean) {
+  if (!pulled.length && !first) return
+  const kept = first ? undefined : await promisifyRequest<LibraryList | undefined>(lib.get(CARD_LIST_KEY))
+  const list = new Map((kept?.items ?? []).map(c => [c.id, c]))
+  for (const row of pulled) {
+    const card = cardOf(row)
+    if (!card) continue
+    if (!card.active) { list.delete(card.id); continue }
+    list.set(card.id, card)
+    lib.put(card, cardKey(card.id, card.version))
+  }
+  const items = [...list.values()].sort((a, b) => a.title.localeCompare(b.title))
+  lib.put({ items, fetchedAt: new Date().toISOString() } satisfies LibraryList, CARD_LIST_KEY)
+}
+
+/** A pulled card as the runner reads it; one whose definition fails the card schema is left out. */
+function cardOf(row: Record<string, unknown>): TestCardView | undefined {
+  const id = typeof row.id === 'string' ? row.id : undefined
+  const version = Number(row.currentVersion ?? row.version)
+  if (!id || !Number.isInteger(version)) return undefined
+  if (row.active === false) return { id, active: false } as TestCardView
+  const definition = cardDefinitionSchema.safeParse(row.definition)
+  if (!definition.success) return undefined
+  return { ...(row as unknown as TestCardView), version, currentVersion: version, definition: definition.data }
+}
+
+/** The rates in force as the last sync brought them (the newest by when they took effect), for estimates on the phone. */
+export async function readRates(): Promise<PulledRates | undefined> {
+  const all = Object.values((await readLibrary<Record<string, unknown>>('rates')) ?? {})
+  const rows = all.flatMap((r) => {
+    const p = ratesRowSchema.safeParse(r)
+    return p.success ? [p.data] : []
+  })
+  return rows.sort((a, b) => b.effectiveFrom.localeCompare(a.effectiveFrom))[0]
 }
 
 /** One entry of the device's library (test cards, rates, units, customers, truck stock). */

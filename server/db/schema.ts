@@ -10,6 +10,7 @@ import {
 import { CALL_OUTCOMES, CALL_STATUSES } from '../../shared/utils/callStatus'
 import { ROLES } from '../../shared/utils/roles'
 import { DERATE_STATES } from '../../shared/schemas/calls'
+import { CLOCK_FLAGS } from '../../shared/sync/clockBounds'
 import { CLOCK_KINDS, FAULT_STATES, READING_QUANTITIES } from '../../shared/schemas/syncRecords'
 import { SYNC_OP_STATUSES } from '../../shared/schemas/sync'
 
@@ -387,8 +388,17 @@ export const clockEvents = pgTable('clock_events', {
   id: uuid('id').primaryKey().defaultRandom(),
   ...callChild,
   kind: clockKindEnum('kind').notNull(),
+  /**
+   * Set by the server when the phone's clock cannot be trusted for this event (never billed): before_call,
+   * future or long_span; null when trusted. device_at is the phone's time, created_at when the server learned it.
+   */
+  flag: text('flag'),
   ...synced,
-}, t => [index('clock_events_call_idx').on(t.callId), index('clock_events_change_idx').on(t.changeXid)])
+}, t => [
+  index('clock_events_call_idx').on(t.callId),
+  index('clock_events_change_idx').on(t.changeXid),
+  check('clock_events_flag', sql`${t.flag} IS NULL OR ${t.flag} IN (${sql.raw(CLOCK_FLAGS.map(f => `'${f}'`).join(', '))})`),
+])
 
 export const partLines = pgTable('part_lines', {
   id: uuid('id').primaryKey().defaultRandom(),

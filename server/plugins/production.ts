@@ -13,6 +13,7 @@ export default defineNitroPlugin(() => {
     stripeWebhookSecret: c.stripeWebhookSecret,
     stripeApiHost: c.stripeApiHost,
     stripeApiProtocol: c.stripeApiProtocol,
+    siteUrl: c.siteUrl,
   })
   if (!problems.length) return
   logLine('error', { event: 'refused-production-start', problems })

@@ -1,12 +1,16 @@
 // The whole record of one call, as the office reads it (GET /api/calls/[id]).
 import { asc, eq, inArray } from 'drizzle-orm'
-import type { JudgeSpec } from '#shared/utils/spec'
+import type { StoredSpec } from '#shared/utils/readingFormat'
 import type { BillingClockEvent } from '#shared/utils/billing'
 
+/** The spec as people write it ('209.4 Ω ± 2 % (205.2–213.6 Ω)'), by the shared readings formatter. */
 function specText(spec: Record<string, unknown> | null, unit: string) {
-  if (!spec) return null
-  try { return describeSpec(spec as JudgeSpec, unit) }
-  catch { return null }
+  try {
+    return formatSpec(spec as StoredSpec | null, unit) ?? null
+  }
+  catch {
+    return null
+  }
 }
 
 /** Travel and labor from the clock (shared/utils/billing.ts), and whether a span is still open. */

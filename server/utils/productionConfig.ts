@@ -25,6 +25,7 @@ export type StartSettings = {
   stripeWebhookSecret: string
   stripeApiHost: string
   stripeApiProtocol: string
+  siteUrl: string
 }
 
 /** Every problem with these settings for a production start, each naming the variable to set. */
@@ -55,7 +56,22 @@ export function productionProblems(s: StartSettings): string[] {
     const where = `${s.stripeApiProtocol}://${s.stripeApiHost}`
     out.push(`NUXT_STRIPE_API_HOST / NUXT_STRIPE_API_PROTOCOL: ${where} is the local payment fake; set the provider's API host over https`)
   }
+  if (!siteUrlProblem(s.siteUrl)) return out
+  out.push(`NUXT_SITE_URL: ${s.siteUrl || '(unset)'} ${siteUrlProblem(s.siteUrl)}; set the https address payers and fleets open`)
   return out
+}
+
+// Links in e-mail and QR codes (the payment page, the fleet's status link) are built on it.
+function siteUrlProblem(url: string): string | null {
+  let u: URL
+  try {
+    u = new URL(url)
+  } catch {
+    return 'is not an address'
+  }
+  if (isLoopback(u.hostname)) return 'points at this machine, which no payer or fleet can reach'
+  if (u.protocol !== 'https:') return 'is not https'
+  return null
 }
 
 /** Whether this start is a production one: NODE_ENV=production, not marked local by the scripts. */

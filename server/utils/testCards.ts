@@ -1,7 +1,12 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { z } from 'zod'
-import { cardDefinitionSchema, type CardDefinition, type TestCardView, type testCardCreateSchema, type testCardPatchSchema } from '#shared/schemas/testCards'
+import {
+  cardDefinitionSchema, type CardDefinition, type TestCardView,
+  type testCardCreateSchema, type testCardJudgeSchema, type testCardPatchSchema,
+} from '#shared/schemas/testCards'
+import { judgeStep, targetText, type StepEntry } from '#shared/utils/cardRun'
+import { faultCodeKey, suggestTestCards, type FaultCodeRef } from '#shared/utils/faultMatch'
 
 type CardRow = typeof tables.testCards.$inferSelect
 type VersionRow = typeof tables.testCardVersions.$inferSelect
@@ -30,6 +35,52 @@ export async function listTestCards(user: User, opts: { all: boolean }) {
     .orderBy(asc(testCards.title))
   const items = rows.map(r => view(r.card, r.v))
   return { items: showAll ? items : items.filter(c => !c.problem) }
+}
+
+/**
+ * The cards that fit these fault codes, best first, by the same rule as the phone's card picker
+ * (a data-valid code never reaches a sensor-circuit card). Each item says which codes it fits.
+ */
+export async function suggestTestCardsFor(user: User, codes: FaultCodeRef[]) {
+  const { items } = await listTestCards(user, { all: false })
+  const fits = suggestTestCards(items, codes)
+  return { codes: codes.map(faultCodeKey), items: fits.map(s => ({ ...s.card, matches: s.matches })) }
+}
+
+/**
+ * One entry judged against one step of a card version, exactly as the phone's runner judges it:
+ * a sensor step without the maker's data answers that it needs it, not a verdict.
+ */
+export async function judgeTestCardStep(id: string, input: z.output<typeof testCardJudgeSchema>) {
+  const card = await getTestCard(id, input.version)
+  if (!card) return undefined
+  if (card.problem) ruleError('version', `This card version does not pass the card checks: ${card.problem}`)
+  const step = card.definition.steps.find(s => s.id === input.stepId)
+  if (!step) ruleError('stepId', `Card "${card.title}" version ${card.version} has no step "${input.stepId}"`)
+  let entry: StepEntry
+  type Reading = Extract<StepEntry, { reading: unknown }>
+  if (input.reading) {
+    entry = { reading: input.reading as Reading['reading'] }
+    if (input.partTemp) entry.partTemp = input.partTemp as Reading['partTemp']
+  }
+  else if (input.answer !== undefined) entry = { answer: input.answer }
+  else entry = { inputs: input.inputs! }
+  const field = 'reading' in entry ? 'reading' : 'answer' in entry ? 'answer' : 'inputs'
+  if (input.partTemp?.value === 'OL') ruleError('partTemp', 'A temperature is a number')
+  try {
+    const j = judgeStep(step, entry)
+    const unjudged = j.verdict === 'unjudged'
+    return {
+      cardId: card.id, version: card.version, stepId: step.id,
+      verdict: unjudged ? null : j.verdict, ...(unjudged ? { needs: 'maker_data' as const } : {}),
+      explanation: j.explanation, partTempC: j.partTempC ?? null, limits: j.spec ?? null,
+      next: { id: j.next, ...targetText(card, j.next) },
+    }
+  }
+  catch (err) {
+    if (!(err instanceof RangeError)) throw err
+    ruleError(/part’s temperature|Part temperature|not a temperature/.test(err.message) ? 'partTemp' : field, err.message)
+  }
 }
 
 /** One card at its latest version, or at `version` (runs keep the version they used). */

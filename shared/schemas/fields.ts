@@ -7,10 +7,6 @@ import { searchQuery, text, type TextOptions } from './text'
 /** Optional free text; '' and spaces become null (the shared text schema: no control characters). */
 export const optText = (max: number, label = 'This', opts: TextOptions = {}) => text(max, label, opts)
 
-/** PostgreSQL text cannot hold a NUL character: refuse it here, naming the field, not at the database. */
-export const noNul = (s: string | null | undefined) => !s?.includes('\u0000')
-export const NUL_MESSAGE = 'May not contain a NUL character'
-
 /** Optional whole number within a range; null clears it. */
 export const optInt = (min: number, max: number, label: string) =>
   z.number({ message: `${label} must be a number` }).int(`${label} must be a whole number`)

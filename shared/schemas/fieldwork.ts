@@ -1,10 +1,15 @@
-// What the mechanic records on a call, as the phone's forms check it before queuing. Shapes follow
-// DESIGN.md ("The smallest create shapes"); records carry more fields than those.
+// The phone's forms, built on the protocol's own schemas (shared/schemas/sync.ts): each field is
+// the wire's, with only what a keypad needs laid on top (a decimal comma, an empty box meaning
+// none, dollars typed for cents). What the form accepts the server accepts; the device checks the
+// whole op against the wire schema again before it is queued.
 import { z } from 'zod'
+import { cleanText } from './text'
 import { parseDtc } from '../utils/dtc'
 import { specBounds } from '../utils/spec'
-import { READING_QUANTITIES } from './sync'
-import { cleanText, requiredText } from './text'
+import {
+  READING_QUANTITIES, callFieldSchemas, faultCodeCreateSchema, judgeSpecSchema, noteCreateSchema, partLineCreateSchema,
+  readingCreateSchema, signOffCreateSchema,
+} from './sync'
 
 export { READING_QUANTITIES }
 export type ReadingQuantity = (typeof READING_QUANTITIES)[number]
@@ -20,20 +25,53 @@ export const UNITS_FOR: Record<ReadingQuantity, string[]> = {
 }
 
 /** A number typed on a phone keypad: '' means none, a comma counts as a decimal point. */
-const keypadNumber = (v: unknown) => (typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.trim().replace(',', '.'))) : v)
-const num = (label: string) => z.number({ message: `${label} must be a number` })
-export const typedNumber = (label: string, check: (n: z.ZodNumber) => z.ZodNumber = n => n) => z.preprocess(keypadNumber, check(num(label)))
-const optTypedNumber = (label: string, check: (n: z.ZodNumber) => z.ZodNumber = n => n) => z.preprocess(keypadNumber, check(num(label)).optional())
-const optText = (max: number, label: string, multiline = false) => cleanText(label, { multiline })
-  .max(max, `${label} is too long (at most ${max} characters)`)
-  .optional().transform(v => (v ? v : undefined))
+export function keypadNumber(v: unknown): unknown {
+  if (typeof v !== 'string') return v
+  return v.trim() === '' ? undefined : Number(v.trim().replace(',', '.'))
+}
 
+/** A keypad box read as the wire's number; `label` names it when it is not one (or is missing and required). */
+export function keypad<T extends z.ZodType>(wire: T, label: string) {
+  const optional = wire.safeParse(undefined).success
+  return z.preprocess((v, ctx) => {
+    const n = keypadNumber(v)
+    if ((n === undefined && !optional) || (typeof n === 'number' && Number.isNaN(n))) {
+      ctx.addIssue({ code: 'custom', message: `${label} must be a number` })
+      return z.NEVER
+    }
+    return n
+  }, wire)
+}
+
+/** An empty box is no value (not an empty string). */
+const blank = <T extends z.ZodType>(wire: T) => z.preprocess(v => (typeof v === 'string' && !v.trim() ? undefined : v), wire)
+
+/** A price typed in dollars, carried in the wire's cents; `max` is the wire's limit in cents. */
+function dollars(wire: z.ZodType, label: string, max: number) {
+  return z.preprocess((v, ctx) => {
+    const n = keypadNumber(v)
+    if (n === undefined) return undefined
+    if (typeof n !== 'number' || Number.isNaN(n)) {
+      ctx.addIssue({ code: 'custom', message: `${label} must be a number` })
+      return z.NEVER
+    }
+    const cents = Math.round(n * 100)
+    if (!wire.safeParse(cents).success) {
+      ctx.addIssue({ code: 'custom', message: `${label} must be from 0.00 to ${(max / 100).toFixed(2)}` })
+      return z.NEVER
+    }
+    return cents
+  }, wire)
+}
+
+const rd = readingCreateSchema.shape
+const spec = judgeSpecSchema.shape
 export const readingSpecSchema = z.object({
-  min: optTypedNumber('Spec low limit'),
-  max: optTypedNumber('Spec high limit'),
-  nominal: optTypedNumber('Spec nominal'),
-  tolerance: optTypedNumber('Spec tolerance'),
-  tolerancePct: optTypedNumber('Spec tolerance %'),
+  min: keypad(spec.min, 'Spec low limit'),
+  max: keypad(spec.max, 'Spec high limit'),
+  nominal: keypad(spec.nominal, 'Spec nominal'),
+  tolerance: keypad(spec.tolerance, 'Spec tolerance'),
+  tolerancePct: keypad(spec.tolerancePct, 'Spec tolerance %'),
 }).transform(s => Object.fromEntries(Object.entries(s).filter(([, v]) => v !== undefined)) as Record<string, number>)
   .superRefine((s, ctx) => {
     if (!Object.keys(s).length) return
@@ -42,76 +80,79 @@ export const readingSpecSchema = z.object({
   })
 
 export const readingInputSchema = z.object({
-  label: requiredText(120, 'Label', { missing: 'Say what was measured' }),
-  quantity: z.enum(READING_QUANTITIES, { message: 'Pick what kind of value it is' }),
-  value: typedNumber('Value'),
-  unit: requiredText(16, 'Unit', { missing: 'Pick the unit' }),
-  component: optText(120, 'Where taken'),
-  pins: optText(60, 'Pins'),
-  conditions: optText(120, 'Conditions'),
+  label: rd.label,
+  quantity: rd.quantity,
+  value: keypad(rd.value, 'Value'),
+  unit: rd.unit,
+  component: blank(rd.component),
+  pins: blank(rd.pins),
+  conditions: blank(rd.conditions),
   spec: readingSpecSchema.optional(),
 })
 export type ReadingInput = z.input<typeof readingInputSchema>
 
+const fc = faultCodeCreateSchema.in.shape
+/** Either form of a fault code; the J2012 text is read by the same parser the server uses. */
 export const faultCodeInputSchema = z.object({
   form: z.enum(['j2012', 'j1939']),
-  code: cleanText('Code').max(40, 'Code is too long').optional(),
-  spn: optTypedNumber('SPN'),
-  fmi: optTypedNumber('FMI'),
-  state: z.enum(['active', 'stored'], { message: 'Pick active or stored' }),
-  count: typedNumber('Count', n => n.int('Count must be a whole number').min(0, 'Count cannot be below 0').max(127, 'Count cannot be above 127')),
+  code: z.string().optional(),
+  spn: keypad(fc.spn, 'SPN'),
+  fmi: keypad(fc.fmi, 'FMI'),
+  state: fc.state.unwrap().unwrap(),
+  count: keypad(fc.count, 'Count'),
 }).superRefine((v, ctx) => {
   if (v.form === 'j2012') {
     try { parseDtc(v.code ?? '') }
     catch (err) { ctx.addIssue({ code: 'custom', path: ['code'], message: err instanceof Error ? err.message : 'Not a fault code' }) }
     return
   }
-  if (v.spn === undefined || !Number.isInteger(v.spn) || v.spn < 0 || v.spn > 524287) ctx.addIssue({ code: 'custom', path: ['spn'], message: 'SPN must be a whole number 0–524287' })
-  if (v.fmi === undefined || !Number.isInteger(v.fmi) || v.fmi < 0 || v.fmi > 31) ctx.addIssue({ code: 'custom', path: ['fmi'], message: 'FMI must be a whole number 0–31' })
+  if (v.spn === undefined || v.spn === null) ctx.addIssue({ code: 'custom', path: ['spn'], message: 'A J1939 fault code needs an SPN' })
+  if (v.fmi === undefined || v.fmi === null) ctx.addIssue({ code: 'custom', path: ['fmi'], message: 'A J1939 fault code needs an FMI' })
 }).transform(v => (v.form === 'j2012'
-  ? { code: parseDtc(v.code ?? '').code, state: v.state, count: v.count }
-  : { spn: v.spn as number, fmi: v.fmi as number, state: v.state, count: v.count }))
+  ? { code: parseDtc(v.code ?? '').code, state: v.state, count: v.count ?? undefined }
+  : { spn: v.spn as number, fmi: v.fmi as number, state: v.state, count: v.count ?? undefined }))
 
-export const noteInputSchema = z.object({
-  text: requiredText(4000, 'Note', { multiline: true, missing: 'Write the note first' }),
-})
+export const noteInputSchema = z.object({ text: noteCreateSchema.shape.text })
 
-const cents = (label: string) => optTypedNumber(label, n => n.min(0, `${label} cannot be negative`).max(10_000_000, `${label} is too large`))
-  .transform(v => (v === undefined ? undefined : Math.round(v * 100)))
-
+const pl = partLineCreateSchema.shape
 export const partLineInputSchema = z.object({
-  partNumber: requiredText(40, 'Part number', { missing: 'Part number is required' }),
-  description: requiredText(200, 'Description', { missing: 'Description is required' }),
-  quantity: typedNumber('Quantity', n => n.gt(0, 'Quantity must be above 0').max(1000, 'Quantity is too large')),
-  unitPrice: cents('Unit price'),
-  corePrice: cents('Core charge'),
-  serviceTruckId: z.string().uuid().optional(),
+  partNumber: pl.partNumber,
+  description: pl.description,
+  quantity: keypad(pl.quantity, 'Quantity'),
+  unitPrice: dollars(pl.unitPriceCents, 'Unit price', pl.unitPriceCents.unwrap().maxValue ?? 0),
+  corePrice: dollars(pl.coreChargeCents, 'Core charge', pl.coreChargeCents.unwrap().maxValue ?? 0),
+  serviceTruckId: pl.serviceTruckId.optional(),
 }).transform(({ unitPrice, corePrice, ...p }) => ({ ...p, unitPriceCents: unitPrice ?? 0, coreChargeCents: corePrice ?? 0 }))
 
 export const storyInputSchema = z.object({
-  storyComplaint: cleanText('Complaint', { multiline: true }).max(4000, 'Complaint is too long'),
-  storyCause: cleanText('Cause', { multiline: true }).max(4000, 'Cause is too long'),
-  storyCorrection: cleanText('Correction', { multiline: true }).max(4000, 'Correction is too long'),
+  storyComplaint: callFieldSchemas.storyComplaint,
+  storyCause: callFieldSchemas.storyCause,
+  storyCorrection: callFieldSchemas.storyCorrection,
 })
 
+const so = signOffCreateSchema.shape
 export const signOffInputSchema = z.object({
-  driverName: requiredText(120, 'Name', { missing: 'Write the driver\'s name' }),
-  signature: z.string({ message: 'The driver signs in the box first' })
-    .startsWith('data:image/png;base64,', 'The driver signs in the box first')
-    .max(400_000, 'The signature is too large; clear it and sign again'),
+  driverName: so.driverName,
+  // An empty pad gives no image at all: say what to do rather than what the wire expected.
+  signature: z.preprocess((v, ctx) => {
+    if (typeof v === 'string' && v) return v
+    ctx.addIssue({ code: 'custom', message: 'The driver signs in the box first' })
+    return z.NEVER
+  }, so.signature),
 })
 
+/** The test drive and the checks after the repair, kept in the call's `verification` field. */
 export const verificationInputSchema = z.object({
   codesCleared: z.boolean(),
   liveValuesChecked: z.boolean(),
-  liveValuesNote: optText(500, 'Live values note', true),
-  testDriveKm: optTypedNumber('Test drive distance', n => n.min(0, 'Distance cannot be negative').max(2000, 'Distance is too large')),
-  testDriveMinutes: optTypedNumber('Test drive time', n => n.min(0, 'Time cannot be negative').max(1440, 'Time is too long')),
+  liveValuesNote: blank(cleanText('Live values note', { multiline: true }).max(500, 'At most 500 characters').optional()),
+  testDriveKm: keypad(z.number().min(0, 'Distance cannot be negative').max(2000, 'Distance is too large').optional(), 'Test drive distance'),
+  testDriveMinutes: keypad(z.number().min(0, 'Time cannot be negative').max(1440, 'Time is too long').optional(), 'Test drive time'),
   lampsOff: z.boolean(),
   derateGone: z.boolean(),
 })
 export type VerificationInput = z.input<typeof verificationInputSchema>
 
 export const followUpInputSchema = z.object({
-  followUp: requiredText(1000, 'Follow-up', { multiline: true, missing: 'Say what still needs doing' }),
+  followUp: callFieldSchemas.followUp.unwrap().min(1, 'Say what still needs doing'),
 })

@@ -17,6 +17,12 @@ export type CircuitVerdict
 export interface SensorCircuitReadings {
   /** Reference voltage at the harness connector, key on engine off. */
   refVolts?: number
+  /**
+   * Whether the reference was read loaded (back-probed with the sensor connected) rather than at
+   * an unplugged connector. With no current flowing a resistive wire still reads full voltage, so
+   * only a loaded reading can show resistance in the wire.
+   */
+  refLoaded?: boolean
   /** What the module should supply; default 5 V. */
   expectedRefVolts?: number
   /** Sensor-ground pin to battery negative / chassis, ohms. */
@@ -96,7 +102,12 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
     }
     else if (ref < lo) {
       faults.push('low_reference')
-      findings.push(`Reference reads ${fmtV(ref)}, below the ${fmtV(lo)} minimum: reference pulled down (shorted sensor on a shared reference, or resistance in the wire)`)
+      findings.push(r.refLoaded
+        ? `Reference reads ${fmtV(ref)} under load, below the ${fmtV(lo)} minimum: `
+        + 'resistance in the wire or a connector, or a sensor on a shared reference drawing too much'
+        : `Reference reads ${fmtV(ref)} with nothing connected, below the ${fmtV(lo)} minimum: pulled down by a leak to ground `
+          + '(a shorted sensor on a shared reference, a chafed or wet wire) or a weak supply in the controller. '
+          + 'Resistance in the wire cannot show without a load: back-probe with the sensor connected to look for it')
     }
     else if (ref > hi) {
       faults.push('high_reference')

@@ -23,23 +23,27 @@ export type MoneyLine = { label: string, amountCents: number | null, bold?: bool
 /** The lines, or none when nothing was paid or credited; `day` writes a date as the document does. */
 export function invoiceMoneyLines(inv: MoneyLinesInput, day: (d: Date) => string): MoneyLine[] {
   const dated: { at: number, line: MoneyLine }[] = []
-  const add = (at: When, line: MoneyLine) => dated.push({ at: new Date(at).getTime(), line })
+  const add = (at: When | number, line: MoneyLine) => dated.push({ at: new Date(at).getTime(), line })
   for (const n of inv.creditNotes) {
     add(n.createdAt, { label: `Credit note CN-${n.number}, ${day(new Date(n.createdAt))}: ${n.reason}`, amountCents: n.totalCents })
   }
   for (const p of inv.payments) {
     const received = p.receivedOn ? new Date(`${p.receivedOn}T12:00:00Z`) : new Date(p.createdAt)
+    // Placed by the earlier of when the money came and when it was recorded (a check dated today,
+    // recorded this morning), and its refunds never before it.
+    const placed = Math.min(received.getTime(), new Date(p.createdAt).getTime())
     const word = p.method === 'card' ? 'card' : PAYMENT_METHOD_WORDS[p.method].toLowerCase()
     if (p.status === 'held') {
       // Money in another currency does not count against the invoice; it goes back to the payer.
       const sum = `${(p.amountCents / 100).toFixed(2)} ${p.currency.toUpperCase()}`
-      add(received, { label: `Payment of ${sum}, ${day(received)}: not counted, being refunded`, amountCents: null })
+      add(placed, { label: `Payment of ${sum}, ${day(received)}: not counted, being refunded`, amountCents: null })
       continue
     }
     const how = p.method === 'account' ? 'Charged to your account' : `Paid by ${word}${p.reference ? ` ${p.reference}` : ''}`
-    add(received, { label: `${how}, ${day(received)}`, amountCents: -p.amountCents })
+    add(placed, { label: `${how}, ${day(received)}`, amountCents: -p.amountCents })
     for (const r of p.refunds) {
-      add(r.createdAt, { label: `Refunded, ${day(new Date(r.createdAt))}: ${r.reason}`, amountCents: r.amountCents })
+      const at = Math.max(placed, new Date(r.createdAt).getTime())
+      add(at, { label: `Refunded, ${day(new Date(r.createdAt))}: ${r.reason}`, amountCents: r.amountCents })
     }
   }
   if (!dated.length) return []

@@ -112,7 +112,8 @@ describe('GET /api/calls/[id]', () => {
     expect(rec.unit.unitNumber).toBeTruthy()
     expect(rec.mechanic.name).toBe('Priya Haldane')
     expect(rec.faultCodes[0].description).toMatchObject({ label: 'SPN 168 FMI 1' })
-    expect(rec.readings.map((x: any) => [x.verdict, x.specText])).toEqual([['low', '13.5–14.5 V'], ['pass', '13.5–14.5 V']])
+    // the shared readings formatter: a no-break space before the unit
+    expect(rec.readings.map((x: any) => [x.verdict, x.specText])).toEqual([['low', '13.5–14.5\u00a0V'], ['pass', '13.5–14.5\u00a0V']])
     expect(rec.partLines[0]).toMatchObject({ partNumber: 'TR-ALT-24', quantity: 1 })
     expect(rec.story.cause).toMatch(/Alternator/)
     expect(rec.signOff.driverName).toBe('J. Amundsen')

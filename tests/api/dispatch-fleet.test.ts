@@ -51,7 +51,9 @@ describe('customers', () => {
     const names = [...p1.body.items, ...p2.body.items].map((c: any) => c.name)
     expect(names).toEqual([...names].sort((a, b) => a.localeCompare(b)))
     const ironwood = (await dispatcher.get('/api/customers?q=Ironwood')).body.items[0]
-    expect(ironwood.unitCount).toBe(5)
+    // Other test files add units of their own to Ironwood (the invoice PDF test does): compare with the table.
+    expect(ironwood.unitCount).toBe(await count('units', 'customer_id = $1', [ironwood.id]))
+    expect(ironwood.unitCount).toBeGreaterThanOrEqual(5) // the five seeded units
     expect(ironwood.openCalls).toBeGreaterThanOrEqual(2)
     expect((await dispatcher.get('/api/customers?sort=bogus')).status).toBe(400)
   })
@@ -129,10 +131,10 @@ describe('units', () => {
     expect(c11.partLines[0].partNumber).toBe('TR-CONN-6')
     expect(c11.story.cause).toMatch(/connector/)
     expect(c11.faultCodes[0].description.label).toBe('SPN 3516 FMI 18')
-    // Seed: unit 14's open call c4 (P0117) repeats c12 from 25 days ago.
+    // Seed: unit 14's open call c4 (P0118) repeats c12 from 25 days ago.
     const u14 = await dispatcher.get(`/api/units/${seedId('unit:14')}`)
     const c4 = u14.body.calls.find((c: any) => c.id === seedId('call:c4'))
-    expect(c4.comebacks.map((x: any) => x.code)).toEqual(['P0117'])
+    expect(c4.comebacks.map((x: { code: string }) => x.code)).toEqual(['P0118'])
     // Seed: unit 7's knock (c13, 45 days ago) is too old to make anything a comeback.
     const u7 = await dispatcher.get(`/api/units/${seedId('unit:7')}`)
     const c13 = u7.body.calls.find((c: any) => c.id === seedId('call:c13'))

@@ -25,7 +25,9 @@ describe('GET /api/test-cards', () => {
       const r = await c.get('/api/test-cards')
       expect(r.status).toBe(200)
       const egt = r.body.items.find((x: any) => x.slug === 'egt-rtd-sensor')
-      expect(egt.definition.steps[0].spec).toEqual({ kind: 'rtd', r0: 200, tolerancePct: 2 })
+      const sensor = egt.definition.steps.find((s: { id: string }) => s.id === 'sensor-ohms')
+      expect(sensor.spec).toEqual({ kind: 'rtd', r0: 200, toleranceC: 10 })
+      expect(egt.definition.kind).toBe('sensor_circuit')
       expect(egt.version).toBe(egt.currentVersion)
     }
     expect((await new ApiClient().get('/api/test-cards')).status).toBe(401)
@@ -42,6 +44,98 @@ describe('GET /api/test-cards', () => {
     expect(v.body.data.fields.version).toMatch(/number/)
     expect((await c.get('/api/test-cards/00000000-0000-4000-8000-000000000000')).status).toBe(404)
     expect((await c.get(`/api/test-cards/${list[0].id}?version=999`)).status).toBe(404)
+  })
+})
+
+type Listed = { id: string, slug: string, matches?: string[] }
+
+describe('GET /api/test-cards?codes=', () => {
+  it('answers the cards that fit, best first: a circuit FMI the sensor card, a data-valid FMI the condition card', async () => {
+    const c = await signedIn(DEMO.mech2)
+    // SAE J1939-73: FMI 4 voltage below normal (circuit); FMI 0 data valid, above normal range
+    const circuit = await c.get(`/api/test-cards?codes=${encodeURIComponent('P0545,SPN 3242 FMI 4')}`)
+    expect(circuit.status).toBe(200)
+    expect(circuit.body.codes).toEqual(['P0545', 'SPN 3242 FMI 4'])
+    expect(circuit.body.items.map((x: Listed) => x.slug)).toEqual(['egt-rtd-sensor'])
+    expect(circuit.body.items[0].matches).toEqual(['P0545', 'SPN 3242 FMI 4'])
+    expect(circuit.body.items[0].definition.steps.length).toBeGreaterThan(5)
+    const hot = await c.get(`/api/test-cards?codes=${encodeURIComponent('SPN 3242 FMI 0')}`)
+    expect(hot.body.items.map((x: Listed) => x.slug)).toEqual(['aftertreatment-overtemp'])
+    // both at once: each card for its own code
+    const both = await c.get(`/api/test-cards?codes=${encodeURIComponent('spn 3242 fmi 0, spn 3242 fmi 3')}`)
+    expect(both.body.items.map((x: Listed) => [x.slug, x.matches])).toEqual(expect.arrayContaining([
+      ['egt-rtd-sensor', ['SPN 3242 FMI 3']], ['aftertreatment-overtemp', ['SPN 3242 FMI 0']],
+    ]))
+    // a code no card fits answers an empty list, not an error
+    expect((await c.get('/api/test-cards?codes=P0300')).body.items).toEqual([])
+  })
+
+  it('a code it cannot read answers 400 naming the code', async () => {
+    const c = await signedIn(DEMO.dispatcher)
+    const bad = await c.get(`/api/test-cards?codes=${encodeURIComponent('P0545,PO118')}`)
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.fields.codes).toMatch(/"PO118".*letter O/)
+    const fmi = await c.get(`/api/test-cards?codes=${encodeURIComponent('SPN 3242 FMI 44')}`)
+    expect(fmi.status).toBe(400)
+    expect(fmi.body.data.fields.codes).toMatch(/FMI must be 0–31/)
+    expect((await c.get('/api/test-cards?codes=')).body.data.fields.codes).toMatch(/at least one fault code/)
+    expect((await new ApiClient().get('/api/test-cards?codes=P0545')).status).toBe(401)
+  })
+})
+
+describe('POST /api/test-cards/[id]/judge', () => {
+  const cardBySlug = async (c: ApiClient, slug: string) => (await c.get('/api/test-cards')).body.items.find((x: Listed) => x.slug === slug)
+
+  it('judges a sensor at the part’s temperature, as the phone does', async () => {
+    const c = await signedIn(DEMO.mech1)
+    const egt = await cardBySlug(c, 'egt-rtd-sensor')
+    // IEC 60751 table ×2: 20 °C 215.58 Ω passes; 118 Ω is low
+    const judge = (body: Record<string, unknown>) => c.post(`/api/test-cards/${egt.id}/judge`, body)
+    const good = await judge({ stepId: 'sensor-ohms', reading: { value: 215.6, unit: 'ohm' }, partTemp: { value: 20, unit: 'degC' } })
+    expect(good.status).toBe(200)
+    expect(good.body).toMatchObject({ verdict: 'pass', partTempC: 20, next: { id: 'circuit-good', kind: 'conclusion' } })
+    const low = await judge({ stepId: 'sensor-ohms', reading: { value: 118, unit: 'ohm' }, partTemp: { value: 68, unit: 'degF' } })
+    expect(low.body).toMatchObject({ verdict: 'low', next: { id: 'settled', kind: 'step' } })
+    expect(low.body.explanation).toMatch(/a Pt200 at 20 °C should read 215\.6 Ω/)
+    // no temperature: named, not a 500
+    const none = await judge({ stepId: 'sensor-ohms', reading: { value: 118, unit: 'ohm' } })
+    expect(none.status).toBe(422)
+    expect(none.body.data.fields.partTemp).toMatch(/part’s temperature/)
+  })
+
+  it('a card without the maker’s data cannot be judged: the step answers that it needs it, not a verdict', async () => {
+    const c = await signedIn(DEMO.mech1)
+    const ect = await cardBySlug(c, 'coolant-temp-ntc')
+    const body = { stepId: 'ect-ohms', reading: { value: 3.1, unit: 'kohm' }, partTemp: { value: 21, unit: 'degC' } }
+    const r = await c.post(`/api/test-cards/${ect.id}/judge`, body)
+    expect(r.status).toBe(200)
+    expect(r.body.verdict).toBeNull()
+    expect(r.body.needs).toBe('maker_data')
+    expect(r.body.explanation).toMatch(/not judged: this card needs the maker’s data/)
+    expect(r.body.next).toMatchObject({ id: 'not-judged', kind: 'conclusion' })
+  })
+
+  it('answers, worked-out steps, and bad input named by field', async () => {
+    const c = await signedIn(DEMO.mech2)
+    const air = await cardBySlug(c, 'air-brakes')
+    // Model CDL manual: released, combination, at most 3 psi/min
+    const judge = (body: Record<string, unknown>) => c.post(`/api/test-cards/${air.id}/judge`, body)
+    const leak = await judge({ stepId: 'leak-released', inputs: { startPsi: 120, endPsi: 116, seconds: 60, combination: 'yes' } })
+    expect(leak.body).toMatchObject({ verdict: 'high', next: { id: 'find-leak' } })
+    expect((await judge({ stepId: 'buildup', answer: 'yes' })).body).toMatchObject({ verdict: 'pass', next: { id: 'governor' } })
+    const noStep = await c.post(`/api/test-cards/${air.id}/judge`, { stepId: 'nowhere', answer: 'yes' })
+    expect(noStep.status).toBe(422)
+    expect(noStep.body.data.fields.stepId).toMatch(/no step "nowhere"/)
+    const two = await c.post(`/api/test-cards/${air.id}/judge`, { stepId: 'buildup', answer: 'yes', inputs: {} })
+    expect(two.status).toBe(400)
+    expect(two.body.data.fields.reading).toMatch(/one of reading, answer or inputs/)
+    const wrongKind = await c.post(`/api/test-cards/${air.id}/judge`, { stepId: 'buildup', answer: 'maybe' })
+    expect(wrongKind.status).toBe(422)
+    expect(wrongKind.body.data.fields.answer).toMatch(/yes or no/)
+    const missing = await c.post(`/api/test-cards/${air.id}/judge`, { stepId: 'leak-released', inputs: { startPsi: 120 } })
+    expect(missing.body.data.fields.inputs).toMatch(/pressure at the end/)
+    expect((await c.post('/api/test-cards/00000000-0000-4000-8000-000000000000/judge', { stepId: 'x', answer: 'yes' })).status).toBe(404)
+    expect((await c.post(`/api/test-cards/${air.id}/judge`, { version: 99, stepId: 'x', answer: 'yes' })).status).toBe(404)
   })
 })
 

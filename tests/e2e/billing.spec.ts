@@ -157,5 +157,7 @@ test('the office records a check for part, issues a credit note, gives money bac
   expect(text).toContain('Payments and credits')
   expect(text).toMatch(/Paid by check CK 5521/)
   expect(text).toMatch(/Refunded, .*Cash back at the counter/)
+  // The refund comes after the check it gives back part of.
+  expect(text.indexOf('Paid by check CK 5521')).toBeLessThan(text.indexOf('Refunded, '))
   expect(text).toMatch(/Balance due/)
 })

@@ -83,8 +83,12 @@ test('a dispatcher takes a call from a blank form to assigned with the keyboard 
   await expect(page.getByRole('status').filter({ hasText: 'Marco Lindqvist has the call' })).toBeVisible()
   await expect(page.locator('h1 + span', { hasText: 'Assigned' })).toBeVisible()
   await expect(page.getByRole('region', { name: 'Timeline' }).getByText('Assigned to Marco Lindqvist')).toBeVisible()
-  const mail = await (await fetch(`${MAIL_URL}/messages`)).json() as { to: string[], subject: string }[]
-  expect(mail.filter(m => m.to.includes('mech1@wayside.test') && m.subject.includes(`#${number}:`))).toHaveLength(1)
+  // The notice is a mail job queued with the assignment: the worker sends it a moment later.
+  const noticesFor = async () => {
+    const mail = await (await fetch(`${MAIL_URL}/messages`)).json() as { to: string[], subject: string }[]
+    return mail.filter(m => m.to.includes('mech1@wayside.test') && m.subject.includes(`#${number}:`)).length
+  }
+  await expect.poll(noticesFor, { timeout: 30_000 }).toBe(1)
   await desk.close()
 
   // The mechanic's phone home lists it after signing in.

@@ -94,6 +94,12 @@ export async function cleanupSyncData() {
       await client.query(`DELETE FROM ${t} WHERE call_id = ANY($1)`, [calls])
     }
     await client.query('DELETE FROM test_runs WHERE call_id = ANY($1) OR card_id = ANY($2)', [calls, cards])
+    // Invoices drafted on these calls, with what hangs on them (lines and adjustments cascade).
+    const ofInvoices = 'invoice_id IN (SELECT id FROM invoices WHERE call_id = ANY($1))'
+    for (const t of ['account_entries', 'refunds', 'credit_notes', 'checkout_sessions', 'payments']) {
+      await client.query(`DELETE FROM ${t} WHERE ${ofInvoices}`, [calls])
+    }
+    await client.query('DELETE FROM invoices WHERE call_id = ANY($1)', [calls])
     await client.query('DELETE FROM calls WHERE id = ANY($1)', [calls])
     await client.query('DELETE FROM test_card_versions WHERE card_id = ANY($1)', [cards])
     await client.query('DELETE FROM test_cards WHERE id = ANY($1)', [cards])

@@ -1,88 +1,115 @@
 import { describe, expect, it } from 'vitest'
-import { cardNeedsAmbient, explainVerdict, fmtNumber, judgeAnswer, nextAfter, resolveCardSpec, specInUnit } from '../../shared/utils/cardSpec'
+import {
+  explainVerdict, fmtNumber, judgeAnswer, makerDataText, needsMakerData, nextAfter, resolveCardSpec, specInUnit, stepNeedsPartTemp,
+} from '../../shared/utils/cardSpec'
 
-// IEC 60751 coefficients (REFERENCES §1), written out here so the check does not lean on rtd.ts.
-const A = 3.9083e-3
-const B = -5.775e-7
-const pt = (t: number, r0: number) => r0 * (1 + A * t + B * t * t)
+// IEC 60751 Pt100 table as printed (rounded to 0.01 Ω, REFERENCES §1): 0 °C 100.00, 10 °C 103.90,
+// 20 °C 107.79, 26 °C 110.12, 30 °C 111.67, 100 °C 138.51. A Pt200 reads twice these; the printed
+// rounding (±0.005 Ω) doubles to ±0.01 Ω, the tolerance of each check.
+const IEC_PT100 = { 0: 100.00, 10: 103.90, 20: 107.79, 26: 110.12, 30: 111.67, 100: 138.51 } as const
+const pt200 = (t: keyof typeof IEC_PT100) => 2 * IEC_PT100[t]
+const near = (a: number | undefined, b: number, tol: number) => expect(Math.abs(a! - b)).toBeLessThanOrEqual(tol)
 
-const EGT = { kind: 'rtd', r0: 200, tolerancePct: 2 } as const
+// Murata NCP15XH103F03RC (10 kΩ at 25 °C) resistance table, as published by Murata and carried in
+// the Linux kernel's ntc_thermistor driver (corrected in 2025 to the maker's values): °C, Ω.
+const MURATA_XH103: [number, number][] = [[-40, 195652], [-20, 68237], [0, 27219], [10, 17926], [15, 14674], [20, 12081], [25, 10000],
+  [30, 8315], [40, 5834], [50, 4161], [80, 1669], [100, 974], [125, 531]]
 
-describe('resolveCardSpec: computed specs', () => {
-  it('a Pt200 at 12 °C has a nominal of 209.4 Ω', () => {
-    // IEC 60751 scaled by R0/100: 200 × (1 + A·12 + B·12²) = 209.3633 Ω
-    const r = resolveCardSpec(EGT, 12)
-    expect(Math.abs(r.judge.nominal! - pt(12, 200))).toBeLessThan(1e-9)
-    expect(Math.abs(r.judge.nominal! - 209.3633)).toBeLessThan(1e-4)
-    expect(fmtNumber(r.judge.nominal!)).toBe('209.4')
-    expect(r.judge.tolerancePct).toBe(2)
-    expect(r.model).toBe('a Pt200')
-  })
+const EGT = { kind: 'rtd', r0: 200, toleranceC: 10 } as const
 
-  it('a Pt200 at shop ambient (20 °C) reads about 215.6 Ω, inside the 200–220 Ω rule of thumb', () => {
-    // IEC 60751 scaled (REFERENCES §1): 215.6 Ω at 20 °C
+describe('a sensor judged at the part’s own temperature', () => {
+  it('a Pt200 at 20 °C: the IEC 60751 table ×2, limits from the table at 10 and 30 °C for ± 10 °C', () => {
     const r = resolveCardSpec(EGT, 20)
-    expect(Math.abs(r.judge.nominal! - 215.587)).toBeLessThan(0.001)
-    // common practice: a good exhaust-temperature RTD reads roughly 200–220 Ω cold
-    expect(r.judge.nominal!).toBeGreaterThan(200)
-    expect(r.judge.nominal!).toBeLessThan(220)
+    near(r.nominal, pt200(20), 0.01) // IEC 60751 table, 20 °C, ×2
+    near(r.judge.min, pt200(10), 0.01) // IEC 60751 table, 10 °C, ×2
+    near(r.judge.max, pt200(30), 0.01) // IEC 60751 table, 30 °C, ×2
+    expect(r.model).toBe('a Pt200')
+    expect(r.partTempC).toBe(20)
   })
 
-  it('NTC by Beta at 25 °C is R25; Steinhart–Hart common set at 50 °C is 3601 Ω', () => {
-    // Beta equation definition: R = R25 at 25 °C (REFERENCES §2)
-    expect(Math.abs(resolveCardSpec({ kind: 'ntc_beta', r25: 10000, beta: 3950, tolerancePct: 5 }, 25).judge.nominal! - 10000)).toBeLessThan(1e-6)
-    // Murata NCP15WB473D03RC (R25 47 kΩ, B 4050 K) by the Beta equation at 5 °C: 124 819.66 Ω (REFERENCES §2, UliEngineering)
-    expect(Math.abs(resolveCardSpec({ kind: 'ntc_beta', r25: 47000, beta: 4050, tolerance: 1000 }, 5).judge.nominal! - 124819.66)).toBeLessThan(0.01)
-    // REFERENCES §2 common 10 kΩ Steinhart–Hart set: 50 °C -> 3601.0 Ω
-    const sh = resolveCardSpec({ kind: 'ntc_steinhart', a: 1.129148e-3, b: 2.34125e-4, c: 8.76741e-8, tolerancePct: 5 }, 50)
-    expect(Math.abs(sh.judge.nominal! - 3601.0)).toBeLessThan(0.1)
+  it('a good Pt200 6 °C above the air passes at its own temperature, where the air’s would call it high', () => {
+    // IEC 60751 table, 26 °C ×2 = 220.24 Ω: the sensor really is at 26 °C
+    const reading = pt200(26)
+    expect(explainVerdict({ value: reading, quantity: 'resistance', spec: EGT, partTempC: 26 }).verdict).toBe('pass')
+    // Judged the old way, at the air's 20 °C with ± 2 % (IEC 20 °C ×2 = 215.58 Ω, + 2 % = 219.89 Ω), the same sensor read high.
+    const atAir = { kind: 'rtd', r0: 200, tolerancePct: 2 } as const
+    expect(explainVerdict({ value: reading, quantity: 'resistance', spec: atAir, partTempC: 20 }).verdict).toBe('high')
   })
 
-  it('fixed specs need no ambient', () => {
-    // REFERENCES §7: 5 V reference 4.8–5.2 V
-    expect(resolveCardSpec({ kind: 'range', min: 4.8, max: 5.2 }).judge).toEqual({ min: 4.8, max: 5.2 })
-    expect(resolveCardSpec({ kind: 'nominal', nominal: 5, tolerance: 0.2 }).judge).toEqual({ nominal: 5, tolerance: 0.2 })
+  it('says how it judged, in words a mechanic can check', () => {
+    // IEC 60751 table ×2: 0 °C 200.00 Ω, limits −10…10 °C; 118 Ω is far below
+    const e = explainVerdict({ value: 118, quantity: 'resistance', spec: EGT, partTempC: 0 })
+    expect(e.verdict).toBe('low')
+    expect(e.text).toBe('measured 118 Ω; a Pt200 at 0 °C should read 200 Ω (192.2–207.8 Ω for ± 10 °C); low')
+    // °F = °C × 9/5 + 32; a 10 °C band is 18 °F (REFERENCES §9)
+    const f = explainVerdict({ value: 118, quantity: 'resistance', spec: EGT, partTempC: 0, temperatureUnit: 'degF' })
+    expect(f.text).toBe('measured 118 Ω; a Pt200 at 32 °F should read 200 Ω (192.2–207.8 Ω for ± 18 °F); low')
   })
 
-  it('refuses a computed spec with no ambient, or an ambient no roadside has', () => {
-    // our own input contract: the spec is computed from the ambient temperature
-    expect(() => resolveCardSpec(EGT)).toThrow(/ambient/i)
-    expect(() => resolveCardSpec(EGT, Number.NaN)).toThrow(/ambient/i)
-    expect(() => resolveCardSpec(EGT, 95)).toThrow(/outside/)
-    expect(() => resolveCardSpec({ kind: 'range' } as never)).toThrow(RangeError)
-    expect(() => resolveCardSpec({ kind: 'magic' } as never)).toThrow(/Unknown spec kind/)
+  it('an open RTD (OL) is high: a platinum sensor reads hot when open', () => {
+    // common practice: an open element shows OL
+    expect(explainVerdict({ value: Infinity, quantity: 'resistance', spec: EGT, partTempC: 20 }).text).toMatch(/^measured OL \(open\);.*; high$/)
   })
 
-  it('knows which cards ask for the ambient first', () => {
-    // our own rule: any computed spec on the card needs it
-    expect(cardNeedsAmbient({ steps: [{ spec: { kind: 'range', min: 1 } }, { spec: EGT }] })).toBe(true)
-    expect(cardNeedsAmbient({ steps: [{ spec: { kind: 'range', min: 1 } }, {}] })).toBe(false)
+  it('a maker’s NTC table: a row of the table is its own nominal, the next rows bound ± °C', () => {
+    const spec = { kind: 'ntc_table', table: MURATA_XH103, toleranceC: 2 } as const
+    const r = resolveCardSpec(spec, 20)
+    near(r.nominal, 12081, 1e-6) // Murata NCP15XH103 table, 20 °C row
+    // Between rows, ln R is linear in 1/T: the 22 °C and 18 °C limits lie between the 15/20/25 °C rows.
+    expect(r.judge.min!).toBeGreaterThan(10000)
+    expect(r.judge.min!).toBeLessThan(12081)
+    expect(r.judge.max!).toBeGreaterThan(12081)
+    expect(r.judge.max!).toBeLessThan(14674)
+    // the 20 °C row passes; the 25 °C row (a sensor judged at a 25 °C air it is not at) is low; the 15 °C row is high
+    expect(explainVerdict({ value: 12081, quantity: 'resistance', spec, partTempC: 20 }).verdict).toBe('pass')
+    expect(explainVerdict({ value: 10000, quantity: 'resistance', spec, partTempC: 20 }).verdict).toBe('low')
+    expect(explainVerdict({ value: 14674, quantity: 'resistance', spec, partTempC: 20 }).verdict).toBe('high')
+    expect(r.model).toBe('this NTC sensor (maker’s table)')
+  })
+
+  it('a good coolant sensor 2 °C above the air passes at its own temperature', () => {
+    // Murata NCP15XH103 table: 25 °C row 10 000 Ω; judged at a 23 °C air with ± 1 °C it would read low
+    const spec = { kind: 'ntc_table', table: MURATA_XH103, toleranceC: 1 } as const
+    expect(explainVerdict({ value: 10000, quantity: 'resistance', spec, partTempC: 25 }).verdict).toBe('pass')
+    expect(explainVerdict({ value: 10000, quantity: 'resistance', spec, partTempC: 23 }).verdict).toBe('low')
+  })
+
+  it('refuses a temperature outside the maker’s table, or none at all', () => {
+    // the table ends at 125 °C; our own input contract for the part's temperature
+    const spec = { kind: 'ntc_table', table: MURATA_XH103, toleranceC: 2 } as const
+    expect(() => resolveCardSpec(spec, 130)).toThrow(RangeError)
+    expect(() => resolveCardSpec(spec, 124)).toThrow(/runs past/)
+    expect(() => resolveCardSpec(EGT)).toThrow(/part’s temperature/)
+    expect(() => resolveCardSpec(EGT, Number.NaN)).toThrow(/part’s temperature/)
+    expect(() => resolveCardSpec(EGT, 1200)).toThrow(/outside/)
+  })
+
+  it('Beta and Steinhart–Hart sets take a ± °C band too', () => {
+    // Murata NCP15WB473 by the Beta equation (REFERENCES §2, UliEngineering): 5 °C → 124 819.66 Ω
+    const b = resolveCardSpec({ kind: 'ntc_beta', r25: 47000, beta: 4050, toleranceC: 1 }, 5)
+    near(b.nominal, 124819.66, 0.01)
+    expect(b.judge.min!).toBeLessThan(124819.66)
+    expect(b.judge.max!).toBeGreaterThan(124819.66)
+    // REFERENCES §2 common 10 kΩ Steinhart–Hart set: 50 °C → 3601.0 Ω
+    near(resolveCardSpec({ kind: 'ntc_steinhart', a: 1.129148e-3, b: 2.34125e-4, c: 8.76741e-8, tolerancePct: 5 }, 50).nominal, 3601.0, 0.1)
   })
 })
 
-describe('explainVerdict', () => {
-  it('the issue example: 118 Ω against a Pt200 at 12 °C ± 2 % is low, and says why', () => {
-    // IEC 60751 scaled: 209.36 Ω nominal; ± 2 % gives 205.18–213.55 Ω (arithmetic)
-    const e = explainVerdict({ value: 118, quantity: 'resistance', spec: EGT, ambientC: 12 })
-    expect(e.verdict).toBe('low')
-    expect(e.text).toBe('measured 118 Ω; a Pt200 at 12 °C should read 209.4 Ω ± 2 %; low')
-    expect(e.limitsText).toBe('205.2–213.6 Ω')
+describe('a sensor step without the maker’s data', () => {
+  it('is never judged: it says what it needs instead', () => {
+    // our own rule (DESIGN.md): a card without the maker's data asks for it instead of judging
+    const spec = { kind: 'needs_maker_data', sensor: 'this coolant temperature sensor' } as const
+    expect(needsMakerData(spec)).toBe(true)
+    expect(stepNeedsPartTemp({ spec })).toBe(true)
+    expect(() => resolveCardSpec(spec, 20)).toThrow(/needs the maker’s data/)
+    expect(makerDataText(spec)).toMatch(/^not judged: this card needs the maker’s data for this coolant temperature sensor/)
   })
+})
 
-  it('passes a good sensor and flags OL as high', () => {
-    // IEC 60751 scaled: a Pt200 at 12 °C reading 210 Ω is within ± 2 %
-    expect(explainVerdict({ value: 210, quantity: 'resistance', spec: EGT, ambientC: 12 }).verdict).toBe('pass')
-    // common practice: an open element shows OL on the meter
-    const open = explainVerdict({ value: Infinity, quantity: 'resistance', spec: EGT, ambientC: 12 })
-    expect(open.verdict).toBe('high')
-    expect(open.text).toMatch(/^measured OL \(open\);/)
-  })
-
-  it('shows numbers in the mechanic’s units, judging in base units', () => {
-    // °F = °C × 9/5 + 32 (REFERENCES §9): 12 °C = 53.6 °F
-    const f = explainVerdict({ value: 118, quantity: 'resistance', spec: EGT, ambientC: 12, unit: 'kohm', temperatureUnit: 'degF' })
-    expect(f.text).toBe('measured 0.118 kΩ; a Pt200 at 53.6 °F should read 0.2094 kΩ ± 2 %; low')
+describe('fixed specs', () => {
+  it('a 5 V supply against 4.8–5.2 V, shown in the mechanic’s units', () => {
     // REFERENCES §7: 5 V reference 4.8–5.2 V; SI prefix m = 10⁻³
+    expect(resolveCardSpec({ kind: 'range', min: 4.8, max: 5.2 }).judge).toEqual({ min: 4.8, max: 5.2 })
     expect(explainVerdict({ value: 4.62, quantity: 'voltage', spec: { kind: 'range', min: 4.8, max: 5.2 }, unit: 'mV' }).text)
       .toBe('measured 4620 mV; spec 4800–5200 mV; low')
     // A temperature tolerance is a difference: 5 °C is 9 °F, with no 32° offset (REFERENCES §9)
@@ -90,21 +117,27 @@ describe('explainVerdict', () => {
       .toBe('measured 50 °F; spec 68 ± 9 °F; low')
   })
 
-  it('DEF at 32.5 % passes the ISO 22241 window; 26 % is low', () => {
-    // ISO 22241-1 (REFERENCES §8): urea 31.8–33.2 % by mass
-    const def = { kind: 'range', min: 31.8, max: 33.2 } as const
-    expect(explainVerdict({ value: 32.5, quantity: 'concentration', spec: def }).text).toBe('measured 32.5 %; spec 31.8–33.2 %; pass')
-    expect(explainVerdict({ value: 26, quantity: 'concentration', spec: def }).verdict).toBe('low')
+  it('DEF: ISO 22241 limits, and a reading within the refractometer’s ± 0.5 % outside them is marginal', () => {
+    // ISO 22241-1 (REFERENCES §8): 31.8–33.2 %; handheld refractometers read about ± 0.5 % (common practice)
+    const def = { kind: 'range', min: 31.8, max: 33.2, margin: 0.5 } as const
+    expect(explainVerdict({ value: 32.5, quantity: 'concentration', spec: def })).toMatchObject({ verdict: 'pass', marginal: false })
+    const edge = explainVerdict({ value: 31.5, quantity: 'concentration', spec: def })
+    expect(edge).toMatchObject({ verdict: 'low', marginal: true })
+    expect(edge.text)
+      .toBe('measured 31.5 %; spec 31.8–33.2 %; low, but within the ± 0.5 % the instrument itself may be off: measure again before acting')
+    expect(explainVerdict({ value: 33.6, quantity: 'concentration', spec: def })).toMatchObject({ verdict: 'high', marginal: true })
+    expect(explainVerdict({ value: 26, quantity: 'concentration', spec: def })).toMatchObject({ verdict: 'low', marginal: false })
   })
 
   it('rejects impossible input with a clear error', () => {
     // our own input contract
-    expect(() => explainVerdict({ value: Number.NaN, quantity: 'resistance', spec: EGT, ambientC: 12 })).toThrow(/number/)
-    expect(() => explainVerdict({ value: -3, quantity: 'resistance', spec: EGT, ambientC: 12 })).toThrow(/negative/)
-    expect(() => explainVerdict({ value: 5, quantity: 'voltage', spec: EGT, ambientC: 12 })).toThrow(/resistance/)
+    expect(() => explainVerdict({ value: Number.NaN, quantity: 'resistance', spec: EGT, partTempC: 12 })).toThrow(/number/)
+    expect(() => explainVerdict({ value: -3, quantity: 'resistance', spec: EGT, partTempC: 12 })).toThrow(/negative/)
+    expect(() => explainVerdict({ value: 5, quantity: 'voltage', spec: EGT, partTempC: 12 })).toThrow(/resistance/)
     expect(() => explainVerdict({ value: Infinity, quantity: 'voltage', spec: { kind: 'range', min: 1 } })).toThrow(/OL/)
     expect(() => explainVerdict({ value: 5, quantity: 'voltage', spec: { kind: 'range', min: 1 }, unit: 'ohm' })).toThrow(/does not measure/)
     expect(() => explainVerdict({ value: 5, quantity: 'force' as never, spec: { kind: 'range', min: 1 } })).toThrow(/Unknown quantity/)
+    expect(() => resolveCardSpec({ kind: 'magic' } as never)).toThrow(/Unknown spec kind/)
   })
 })
 
@@ -120,13 +153,20 @@ describe('answers, next steps and display helpers', () => {
     expect(() => judgeAnswer({ measure: 'voltage' }, 'yes')).toThrow(/reading/)
   })
 
-  it('low and high may have their own ways, else fail', () => {
+  it('routes: an option its own way, a marginal reading the marginal way, low and high theirs, else fail', () => {
     // our own rule (card format)
-    const s = { next: { pass: 'a', fail: 'b', high: 'c' } }
+    const s = {
+      next: { pass: 'a', fail: 'b', high: 'c', marginal: 'm', unjudged: 'u' },
+      routes: [{ option: 'Charge and retest', to: 'r' }],
+    }
     expect(nextAfter(s, 'pass')).toBe('a')
     expect(nextAfter(s, 'low')).toBe('b')
     expect(nextAfter(s, 'high')).toBe('c')
+    expect(nextAfter(s, 'high', { marginal: true })).toBe('m')
     expect(nextAfter(s, 'fail')).toBe('b')
+    expect(nextAfter(s, 'fail', { answer: 'Charge and retest' })).toBe('r')
+    expect(nextAfter(s, 'unjudged')).toBe('u')
+    expect(() => nextAfter({ next: { pass: 'a', fail: 'b' } }, 'unjudged')).toThrow(/cannot be judged/)
   })
 
   it('formats like a meter and converts specs', () => {

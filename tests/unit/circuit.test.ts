@@ -22,6 +22,12 @@ describe('classifySensorCircuit', () => {
     const low = classifySensorCircuit({ refVolts: 4.6 })
     expect(low.verdict).toBe('low_reference')
     expect(low.findings[0]).toMatch(/4\.6 V.*4\.8 V/)
+    // Ohm's law: with no current a wire's resistance drops no voltage, so an unloaded low reading is never "resistance in the wire"
+    expect(low.findings[0]).toMatch(/with nothing connected.*leak to ground/)
+    expect(low.findings[0]).toMatch(/Resistance in the wire cannot show without a load/)
+    const loaded = classifySensorCircuit({ refVolts: 4.6, refLoaded: true })
+    expect(loaded.verdict).toBe('low_reference')
+    expect(loaded.findings[0]).toMatch(/under load.*resistance in the wire or a connector/)
     const high = classifySensorCircuit({ refVolts: 5.4 })
     expect(high.verdict).toBe('high_reference')
     expect(high.findings[0]).toMatch(/5\.4 V.*5\.2 V/)

@@ -14,6 +14,8 @@ export class FakeSyncServer {
   photos = new Map<string, string>()
   requests: { method: string, url: string, ops?: number, position?: unknown }[] = []
   pullChanges: Record<string, Record<string, unknown>[]> = {}
+  /** A paged pull: each request answers the next page, with `more` while pages are left. */
+  pullPages: Record<string, Record<string, unknown>[]>[] = []
   conflicts: Record<string, unknown>[] = []
   cursor = 0
   /** Ops whose data the server refuses, by entity id, with the reason. */
@@ -52,9 +54,12 @@ export class FakeSyncServer {
 
   private pull() {
     this.cursor += 1
-    const changes = this.pullChanges
-    this.pullChanges = {}
-    return json(200, { cursor: String(this.cursor), lastSeq: this.lastSeq, changes, conflicts: this.conflicts, revokedCallIds: [] })
+    const page = this.pullPages.shift()
+    const changes = page ?? this.pullChanges
+    if (!page) this.pullChanges = {}
+    const more = this.pullPages.length > 0
+    const answer = { cursor: String(this.cursor), lastSeq: this.lastSeq, changes, conflicts: this.conflicts, revokedCallIds: [], more }
+    return json(200, answer)
   }
 
   private putPhoto(id: string, init: RequestInit) {

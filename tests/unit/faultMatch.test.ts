@@ -1,14 +1,22 @@
 import { describe, expect, it } from 'vitest'
-import { codeMatchesPattern, faultCodeKey, isReturnedFaultCode, parseCodePattern, returnedFaultCodes, suggestCards } from '../../shared/utils/faultMatch'
+import {
+  codeMatchesPattern, faultCodeKey, isReturnedFaultCode, parseCodePattern, parseFaultCodeText, patternProblemForKind, returnedFaultCodes,
+  suggestCards, suggestTestCards,
+} from '../../shared/utils/faultMatch'
+import { cardDefinitionSchema } from '../../shared/schemas/testCards'
+import { SEED_CARDS } from '../../server/db/seed/cards'
 
 describe('code patterns', () => {
   it('reads the pattern forms a card may list', () => {
     // our own card format over SAE J2012 codes and J1939 SPN/FMI pairs
     expect(parseCodePattern('P0544')).toEqual({ form: 'j2012', prefix: 'P0544', exact: true })
     expect(parseCodePattern('p20*')).toEqual({ form: 'j2012', prefix: 'P20', exact: false })
-    expect(parseCodePattern('SPN 3242')).toEqual({ form: 'j1939', spn: 3242, fmi: null })
-    expect(parseCodePattern('SPN 173 FMI *')).toEqual({ form: 'j1939', spn: 173, fmi: null })
-    expect(parseCodePattern(' spn 110 fmi 3 ')).toEqual({ form: 'j1939', spn: 110, fmi: 3 })
+    expect(parseCodePattern('SPN 3242')).toEqual({ form: 'j1939', spn: 3242, fmi: null, kind: null })
+    expect(parseCodePattern('SPN 173 FMI *')).toEqual({ form: 'j1939', spn: 173, fmi: null, kind: null })
+    expect(parseCodePattern(' spn 110 fmi 3 ')).toEqual({ form: 'j1939', spn: 110, fmi: 3, kind: null })
+    expect(parseCodePattern('SPN 3242 FMI circuit')).toEqual({ form: 'j1939', spn: 3242, fmi: null, kind: 'circuit' })
+    expect(parseCodePattern('p2080-p2084')).toEqual({ form: 'j2012_range', from: 'P2080', to: 'P2084' })
+    expect(parseCodePattern('P242A–P242E')).toEqual({ form: 'j2012_range', from: 'P242A', to: 'P242E' })
   })
 
   it.each([
@@ -19,6 +27,10 @@ describe('code patterns', () => {
     ['SPN 110 FMI 32', /0–31/],
     ['SPN', /not a code pattern/],
     ['', /not a code pattern/],
+    ['SPN 3242 FMI hot', /a kind \(condition, circuit/],
+    ['P2084-P2080', /backwards/],
+    ['P0544-P2033', /same two characters/],
+    ['P054-P0549', /not a code pattern/],
   ])('refuses %j naming the problem', (bad, msg) => {
     // SAE J2012 structure (letter PCBU, digit 0–3, hex); SAE J1939: SPN 19 bits, FMI 5 bits
     expect(() => parseCodePattern(bad)).toThrow(msg)
@@ -34,6 +46,19 @@ describe('code patterns', () => {
     expect(codeMatchesPattern('SPN 173 FMI *', { spn: 173, fmi: 0 })).toBe(true)
     expect(codeMatchesPattern('SPN 110 FMI 3', { spn: 110, fmi: 4 })).toBe(false)
     expect(codeMatchesPattern('SPN 110 FMI 3', { spn: 110, fmi: 3 })).toBe(true)
+    // FMI kinds (SAE J1939-73 as grouped by fmiKind): 3–6 circuit, 2 signal, 0 data valid
+    expect(codeMatchesPattern('SPN 3242 FMI circuit', { spn: 3242, fmi: 4 })).toBe(true)
+    expect(codeMatchesPattern('SPN 3242 FMI circuit', { spn: 3242, fmi: 2 })).toBe(false)
+    expect(codeMatchesPattern('SPN 3242 FMI signal', { spn: 3242, fmi: 2 })).toBe(true)
+    expect(codeMatchesPattern('SPN 3242 FMI circuit', { spn: 3242, fmi: 0 })).toBe(false)
+    expect(codeMatchesPattern('SPN 3242 FMI condition', { spn: 3242, fmi: 0 })).toBe(true)
+    // J2012 ranges compare the last three characters as hexadecimal, ends included
+    expect(codeMatchesPattern('P2080-P2084', { code: 'P2080' })).toBe(true)
+    expect(codeMatchesPattern('P2080-P2084', { code: 'P2084' })).toBe(true)
+    expect(codeMatchesPattern('P2080-P2084', { code: 'P2085' })).toBe(false)
+    expect(codeMatchesPattern('P242A-P242E', { code: 'P242C' })).toBe(true)
+    expect(codeMatchesPattern('P242A-P242E', { code: 'P2429' })).toBe(false)
+    expect(codeMatchesPattern('P2080-P2084', { code: 'C2081' })).toBe(false)
     // a J1939 pattern never matches a J2012 code and the reverse
     expect(codeMatchesPattern('SPN 110', { code: 'P0110' })).toBe(false)
     expect(codeMatchesPattern('P0*', { spn: 110, fmi: 3 })).toBe(false)
@@ -56,6 +81,72 @@ describe('code patterns', () => {
     expect(suggestCards(cards, [])).toEqual([])
   })
 
+  it('a card’s kind holds even against a pattern that takes every FMI', () => {
+    // our own rule: sensor-circuit cards fit circuit and signal FMIs, condition cards data-valid ones (SAE J1939-73 groups)
+    const loose = [
+      { id: 'circuit', kind: 'sensor_circuit' as const, codePatterns: ['SPN 3242 FMI *'] },
+      { id: 'hot', kind: 'condition' as const, codePatterns: ['SPN 3242'] },
+    ]
+    expect(suggestCards(loose, [{ spn: 3242, fmi: 0 }]).map(s => s.card.id)).toEqual(['hot'])
+    expect(suggestCards(loose, [{ spn: 3242, fmi: 3 }]).map(s => s.card.id)).toEqual(['circuit'])
+    // a J2012 code carries no FMI: the pattern alone decides
+    expect(suggestCards([{ id: 'x', kind: 'condition' as const, codePatterns: ['P2428-P2429'] }], [{ code: 'P2428' }]).length).toBe(1)
+  })
+
+  it('names a pattern a card of its kind may not list', () => {
+    // our own rule, over the FMI kinds of SAE J1939-73
+    expect(patternProblemForKind('SPN 3242 FMI *', 'sensor_circuit')).toMatch(/takes every FMI.*SPN 3242 FMI circuit and SPN 3242 FMI signal/)
+    expect(patternProblemForKind('SPN 3242 FMI 0', 'sensor_circuit')).toMatch(/is a condition FMI/)
+    expect(patternProblemForKind('SPN 3242 FMI 4', 'sensor_circuit')).toBeNull()
+    expect(patternProblemForKind('SPN 110 FMI circuit', 'condition')).toMatch(/circuit FMI/)
+    expect(patternProblemForKind('SPN 110 FMI 16', 'condition')).toBeNull()
+    expect(patternProblemForKind('SPN 110', 'system')).toBeNull()
+    expect(patternProblemForKind('P0118', 'sensor_circuit')).toBeNull()
+  })
+
+  it('reads fault codes as typed, naming the one it cannot read', () => {
+    // SAE J2012 form; J1939 SPN 0–524287, FMI 0–31
+    expect(parseFaultCodeText(' p0545 ')).toEqual({ code: 'P0545' })
+    expect(parseFaultCodeText('SPN 3242 FMI 4')).toEqual({ spn: 3242, fmi: 4 })
+    expect(parseFaultCodeText('spn3242fmi4')).toEqual({ spn: 3242, fmi: 4 })
+    expect(() => parseFaultCodeText('PO545')).toThrow(/PO545.*letter O/)
+    expect(() => parseFaultCodeText('SPN 3242 FMI 40')).toThrow(/FMI must be 0–31/)
+    expect(() => parseFaultCodeText('SPN 3242')).toThrow(/SPN 3242 FMI 4/)
+    expect(() => parseFaultCodeText('')).toThrow(/Empty/)
+  })
+})
+
+describe('the seeded library: how the code failed picks the card', () => {
+  const library = SEED_CARDS.map(c => ({ slug: c.slug, definition: cardDefinitionSchema.parse(c.definition) }))
+  const slugs = (faults: Parameters<typeof suggestTestCards>[1]) => suggestTestCards(library, faults).map(s => s.card.slug)
+
+  it('the same exhaust SPN: a circuit FMI leads to the sensor card, a data-valid FMI to the over-temperature card', () => {
+    // SAE J1939-73: FMI 4 voltage below normal (circuit); FMI 0 data valid but above normal range (condition)
+    expect(slugs([{ spn: 3242, fmi: 4 }])).toEqual(['egt-rtd-sensor'])
+    expect(slugs([{ spn: 3242, fmi: 0 }])).toEqual(['aftertreatment-overtemp'])
+    expect(slugs([{ spn: 3242, fmi: 16 }])).toEqual(['aftertreatment-overtemp'])
+  })
+
+  it('the same coolant SPN: circuit-high to the sensor card, data-valid high to the engine over-temperature card', () => {
+    // SAE J1939-73: FMI 3 voltage above normal (an open NTC); FMI 0 / 16 data valid, above normal
+    expect(slugs([{ spn: 110, fmi: 3 }])).toEqual(['coolant-temp-ntc'])
+    expect(slugs([{ spn: 110, fmi: 0 }])).toEqual(['engine-overtemp'])
+    expect(slugs([{ spn: 110, fmi: 16 }])).toEqual(['engine-overtemp'])
+  })
+
+  it('J2012 families by range', () => {
+    // SAE J2012 code families as the python-OBD and OBDIICodes lists title them (REFERENCES.md §4): P0545 EGT circuit low,
+    // P2031–P2036 EGT sensor 2 circuits, P2080–P2087 EGT range/performance; P0118 coolant temperature circuit high;
+    // P2428 exhaust gas temperature too high (from memory)
+    expect(slugs([{ code: 'P0545' }])).toEqual(['egt-rtd-sensor'])
+    expect(slugs([{ code: 'P2033' }])).toEqual(['egt-rtd-sensor'])
+    expect(slugs([{ code: 'P2087' }])).toEqual(['egt-rtd-sensor'])
+    expect(slugs([{ code: 'P2428' }])).toEqual(['aftertreatment-overtemp'])
+    expect(slugs([{ code: 'P0118' }])).toEqual(['coolant-temp-ntc'])
+  })
+})
+
+describe('code labels', () => {
   it('labels codes', () => {
     // SAE J2012 normal form; J1939 SPN/FMI pair
     expect(faultCodeKey({ code: ' p0118' })).toBe('P0118')

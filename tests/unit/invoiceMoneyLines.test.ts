@@ -61,6 +61,22 @@ describe('invoiceMoneyLines', () => {
     ])
   })
 
+  it('lists a check dated today, recorded this morning, before its refund the same morning', () => {
+    // Recorded 08:14 UTC with today's date (placed at noon when only the date is known), refunded 08:15.
+    const lines = invoiceMoneyLines({ ...base, paidCents: 9500, creditedCents: 1000,
+      creditNotes: [{ number: 1, reason: 'Travel billed twice', totalCents: -1000, createdAt: '2026-12-02T08:14:30Z' }],
+      payments: [payment({ amountCents: 10000, reference: 'CK 5521', receivedOn: '2026-12-02', createdAt: '2026-12-02T08:14:00Z',
+        refunds: [{ amountCents: 500, reason: 'Cash back at the counter', createdAt: '2026-12-02T08:15:00Z' }] })] }, day)
+    expect(lines.map(l => l.label)).toEqual([
+      'Paid by check CK 5521, 2026-12-02',
+      'Credit note CN-1, 2026-12-02: Travel billed twice',
+      'Refunded, 2026-12-02: Cash back at the counter',
+      'Balance due',
+    ])
+    // 217.50 − 100.00 − 10.00 + 5.00 = 112.50
+    expect(lines.at(-1)!.amountCents).toBe(11250)
+  })
+
   it('says when more came in than is owed', () => {
     const lines = invoiceMoneyLines({ ...base, status: 'paid', paidCents: 22750,
       payments: [payment({ method: 'cash', amountCents: 22750 })] }, day)

@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { sha256Hex, useFieldStore } from '../../app/stores/field'
-import { useOutboxStore } from '../../app/stores/outbox'
+import { useSyncStore } from '../../app/stores/sync'
 import { readBundle, readOutbox } from '../../app/utils/fieldDb'
 import { readPhotoQueue } from '../../app/utils/syncApply'
 import { FakeSyncServer, json } from './fakeSyncServer'
@@ -31,15 +31,15 @@ describe('photo queue', () => {
 
   it('uploads only after the op is applied, and keeps the bytes until the server confirms the hash', async () => {
     const id = await useFieldStore().addPhoto(CALL_ID, { bytes: jpegish(), contentType: 'image/jpeg' })
-    const outbox = useOutboxStore()
+    const sync = useSyncStore()
     // 1. The push fails: nothing is uploaded.
     server.script = url => (url === '/api/sync/push' ? json(503, {}) : undefined)
-    await outbox.runOnce({ fetch: server.fetch })
+    await sync.runOnce({ fetch: server.fetch })
     expect(server.requests.some(r => r.method === 'PUT')).toBe(false)
     expect(await readPhotoQueue()).toHaveLength(1)
     // 2. The op goes through, the upload answer is not a confirmation: bytes kept, error noted.
     server.script = (url, init) => (init.method === 'PUT' ? json(200, { ok: true }) : undefined)
-    await outbox.runOnce({ fetch: server.fetch })
+    await sync.runOnce({ fetch: server.fetch })
     expect(await readOutbox()).toEqual([])
     let [q] = await readPhotoQueue()
     expect(q).toMatchObject({ id, opApplied: true, tries: 1 })
@@ -50,7 +50,7 @@ describe('photo queue', () => {
     expect(q?.bytes.byteLength).toBe(2006)
     // 4. The server confirms: the phone's copy goes, the record says uploaded.
     server.script = undefined
-    const r = await useOutboxStore().runOnce({ fetch: server.fetch })
+    const r = await useSyncStore().runOnce({ fetch: server.fetch })
     expect(r.ok).toBe(true)
     expect(server.photos.get(id)).toBe(q?.sha256)
     expect(await readPhotoQueue()).toEqual([])
@@ -60,7 +60,7 @@ describe('photo queue', () => {
   it('keeps the bytes when the server refuses them', async () => {
     await useFieldStore().addPhoto(CALL_ID, { bytes: jpegish(), contentType: 'image/jpeg' })
     server.script = (url, init) => (init.method === 'PUT' ? json(422, { statusText: 'Not an image' }) : undefined)
-    await useOutboxStore().runOnce({ fetch: server.fetch })
+    await useSyncStore().runOnce({ fetch: server.fetch })
     const [q] = await readPhotoQueue()
     expect(q?.lastError).toMatch(/Not an image/)
     expect(q?.bytes.byteLength).toBe(2006)

@@ -1,6 +1,8 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { useFieldStore } from '../../app/stores/field'
-import { PUSH_BATCH, useOutboxStore } from '../../app/stores/outbox'
+import { useOutboxStore } from '../../app/stores/outbox'
+import { useSyncStore } from '../../app/stores/sync'
+import { PUSH_BATCH } from '../../app/utils/syncClient'
 import { commitChanges, readBundle, readJournal, readOutbox } from '../../app/utils/fieldDb'
 import { discardRejected } from '../../app/utils/syncApply'
 import { FakeSyncServer, json } from './fakeSyncServer'
@@ -14,42 +16,42 @@ const note = (text: string) => useFieldStore().addRecord('note', { callId: CALL_
 describe('sync pass', () => {
   it('pushes the waiting ops in seq order and empties the outbox only for answered ops', async () => {
     await note('one'); await note('two'); await useFieldStore().updateCall(CALL_ID, { status: 'en_route' })
-    const outbox = useOutboxStore()
-    const r = await outbox.runOnce({ fetch: server.fetch })
+    const sync = useSyncStore()
+    const r = await sync.runOnce({ fetch: server.fetch })
     expect(r.ok).toBe(true)
     expect(await readOutbox()).toEqual([])
     expect([...server.stored.keys()]).toEqual([1, 2, 3])
     expect((await readJournal()).map(j => [j.seq, j.status])).toEqual([[3, 'applied'], [2, 'applied'], [1, 'applied']])
-    expect(outbox.lastSyncAt).not.toBeNull()
+    expect(sync.lastSyncAt).not.toBeNull()
   })
 
   it('treats a captive portal 200 as failure and keeps every op', async () => {
     await note('kept')
     server.script = url => (url === '/api/sync/push' ? new Response('<html><body>Accept the Wi-Fi terms</body></html>', { status: 200, headers: { 'content-type': 'text/html' } }) : undefined)
-    const outbox = useOutboxStore()
-    const r = await outbox.runOnce({ fetch: server.fetch })
+    const sync = useSyncStore()
+    const r = await sync.runOnce({ fetch: server.fetch })
     expect(r).toMatchObject({ ok: false, kind: 'invalid' })
     expect((await readOutbox()).map(e => e.state)).toEqual(['pending'])
-    expect(outbox.lastSyncAt).toBeNull()
+    expect(sync.lastSyncAt).toBeNull()
   })
 
   it('pauses on 401 and keeps the queue; asks for an update on 426', async () => {
     await note('kept')
     server.script = () => json(401, { statusText: 'Sign in first' })
-    const outbox = useOutboxStore()
-    expect(await outbox.runOnce({ fetch: server.fetch })).toMatchObject({ ok: false, kind: 'signin' })
-    expect(outbox.paused).toBe('signin')
+    const sync = useSyncStore()
+    expect(await sync.runOnce({ fetch: server.fetch })).toMatchObject({ ok: false, kind: 'signin' })
+    expect(sync.paused).toBe('signin')
     expect(await readOutbox()).toHaveLength(1)
     server.script = () => json(426, { statusText: 'Update Wayside' })
-    expect(await outbox.runOnce({ fetch: server.fetch })).toMatchObject({ ok: false, kind: 'update' })
-    expect(outbox.paused).toBe('update')
+    expect(await sync.runOnce({ fetch: server.fetch })).toMatchObject({ ok: false, kind: 'update' })
+    expect(sync.paused).toBe('update')
     expect(await readOutbox()).toHaveLength(1)
   })
 
   it('reports Retry-After of a busy server and keeps the queue', async () => {
     await note('kept')
     server.script = () => json(503, { statusText: 'Busy' }, { 'Retry-After': '30' })
-    const r = await useOutboxStore().runOnce({ fetch: server.fetch })
+    const r = await useSyncStore().runOnce({ fetch: server.fetch })
     expect(r).toMatchObject({ ok: false, kind: 'server', retryAfterMs: 30_000 })
     expect(await readOutbox()).toHaveLength(1)
   })
@@ -57,14 +59,14 @@ describe('sync pass', () => {
   it('keeps the queue when the network fails mid-way', async () => {
     await note('kept')
     server.script = () => { throw new TypeError('Failed to fetch') }
-    expect(await useOutboxStore().runOnce({ fetch: server.fetch })).toMatchObject({ ok: false, kind: 'offline' })
+    expect(await useSyncStore().runOnce({ fetch: server.fetch })).toMatchObject({ ok: false, kind: 'offline' })
     expect(await readOutbox()).toHaveLength(1)
   })
 
   it(`sends at most ${PUSH_BATCH} ops a batch, in seq order`, async () => {
     const changes = Array.from({ length: 1200 }, (_, i) => ({ entity: 'note' as const, entityId: crypto.randomUUID(), action: 'create' as const, changes: { callId: CALL_ID, text: `n${i}` } }))
     await commitChanges(CALL_ID, changes)
-    const r = await useOutboxStore().runOnce({ fetch: server.fetch })
+    const r = await useSyncStore().runOnce({ fetch: server.fetch })
     expect(r.ok).toBe(true)
     expect(server.requests.filter(q => q.url === '/api/sync/push').map(q => q.ops)).toEqual([500, 500, 200])
     expect(server.lastSeq).toBe(1200)
@@ -76,13 +78,14 @@ describe('sync pass', () => {
     await note('after')
     server.refuse.set(bad, 'unit: not a known unit')
     const outbox = useOutboxStore()
-    await outbox.runOnce({ fetch: server.fetch })
+    const sync = useSyncStore()
+    await sync.runOnce({ fetch: server.fetch })
     const left = await readOutbox()
     expect(left.map(e => [e.entityId, e.state, e.reason])).toEqual([[bad, 'rejected', 'unit: not a known unit']])
     expect(outbox.rejected).toHaveLength(1)
     // A second pass does not resend it.
     server.requests = []
-    await outbox.runOnce({ fetch: server.fetch })
+    await sync.runOnce({ fetch: server.fetch })
     expect(server.requests.filter(q => q.url === '/api/sync/push')).toEqual([])
     await discardRejected(left[0]!.seq)
     expect(await readOutbox()).toEqual([])
@@ -101,7 +104,7 @@ describe('sync pass', () => {
       const ops = JSON.parse(String(init.body)).ops
       return ops[0].seq < 3 ? json(409, { data: { expectedSeq: 3 } }) : undefined
     }
-    const r = await useOutboxStore().runOnce({ fetch: strict.fetch })
+    const r = await useSyncStore().runOnce({ fetch: strict.fetch })
     expect(r.ok).toBe(true)
     expect(await readOutbox()).toEqual([])
     expect(strict.lastSeq).toBe(3)
@@ -119,7 +122,7 @@ describe('sync pass', () => {
       for (const e of ops) { o.delete(e.seq); o.put({ ...e, seq: e.seq + 5 }, e.seq + 5) }
       tx.objectStore('meta').put(7, 'seq')
     })
-    const r = await useOutboxStore().runOnce({ fetch: server.fetch })
+    const r = await useSyncStore().runOnce({ fetch: server.fetch })
     expect(r.ok).toBe(true)
     expect([...server.stored.keys()]).toEqual([1, 2])
     await note('c')
@@ -128,9 +131,9 @@ describe('sync pass', () => {
 
   it('sends the position only when given one', async () => {
     await note('a')
-    await useOutboxStore().runOnce({ fetch: server.fetch })
+    await useSyncStore().runOnce({ fetch: server.fetch })
     await note('b')
-    await useOutboxStore().runOnce({ fetch: server.fetch, position: { lat: 45.4, lon: -93.2, at: '2026-05-01T10:00:00.000Z' } })
+    await useSyncStore().runOnce({ fetch: server.fetch, position: { lat: 45.4, lon: -93.2, at: '2026-05-01T10:00:00.000Z' } })
     expect(server.requests.filter(q => q.url === '/api/sync/push').map(q => q.position)).toEqual([undefined, { lat: 45.4, lon: -93.2, at: '2026-05-01T10:00:00.000Z' }])
   })
 })
@@ -144,14 +147,14 @@ describe('pull', () => {
       if (url.startsWith('/api/sync/pull')) await field.updateCall(CALL_ID, { storyCause: 'Mine, not sent yet' })
       return undefined
     }
-    await useOutboxStore().runOnce({ fetch: server.fetch })
+    await useSyncStore().runOnce({ fetch: server.fetch })
     const b = await readBundle(CALL_ID)
     expect(b?.call.locationText).toBe('Moved to exit 19') // server's field
     expect(b?.call.version).toBe(5)
     expect(b?.call.storyCause).toBe('Mine, not sent yet') // still waiting: the phone's value shows
     server.script = undefined
     server.pullChanges = { calls: [demoCall({ version: 6, storyCause: 'Mine, not sent yet', locationText: 'Moved to exit 19' })] }
-    await useOutboxStore().runOnce({ fetch: server.fetch })
+    await useSyncStore().runOnce({ fetch: server.fetch })
     expect(await readOutbox()).toEqual([])
     await reloadApp()
     expect((await useFieldStore().loadCall(CALL_ID))?.call.version).toBe(6)
@@ -172,7 +175,7 @@ describe('conflicts', () => {
     const conflict = { id: '44444444-4444-4444-8444-444444444444', callId: CALL_ID, entity: 'call', entityId: CALL_ID, field: 'storyCause', baseValue: null, deviceValue: 'Phone text', serverValue: 'Office text', status: 'open', reason: 'Changed in both places' }
     server.pullChanges = { conflicts: [conflict] }
     server.conflicts = [conflict]
-    await useOutboxStore().runOnce({ fetch: server.fetch })
+    await useSyncStore().runOnce({ fetch: server.fetch })
     expect(await readOutbox()).toEqual([]) // a conflict answer takes the op out: the server holds both values now
     let view = await field.loadCall(CALL_ID)
     expect(view?.call.storyCause).toBe('Office text')
@@ -183,5 +186,36 @@ describe('conflicts', () => {
     expect(op).toMatchObject({ entity: 'conflictResolution', entityId: conflict.id, action: 'create', changes: { conflictId: conflict.id, choice: 'value', value: 'Both, merged' } })
     view = await field.loadCall(CALL_ID)
     expect(view?.conflicts[0]?.pendingChoice).toBe('value')
+  })
+})
+
+describe('paged pull', () => {
+  const reading = (id: string) => ({ id, callId: CALL_ID, label: 'Sensor', value: 209.4, unit: 'ohm', quantity: 'resistance' })
+
+  it('follows the server\'s pages while it says more, keeping each page before asking for the next', async () => {
+    server.pullPages = [
+      { calls: [demoCall({ version: 7, locationText: 'Exit 19' })] },
+      { readings: [reading('55555555-5555-4555-8555-555555555551')] },
+      { readings: [reading('55555555-5555-4555-8555-555555555552')] },
+    ]
+    const r = await useSyncStore().runOnce({ fetch: server.fetch })
+    expect(r.ok).toBe(true)
+    const pulls = server.requests.filter(q => q.url.startsWith('/api/sync/pull'))
+    expect(pulls).toHaveLength(3)
+    // Each page asks from the cursor the page before it answered.
+    expect(pulls.map(q => new URL(q.url, 'http://x').searchParams.get('cursor'))).toEqual(['c1', '1', '2'])
+    const b = await readBundle(CALL_ID)
+    expect(b?.call.locationText).toBe('Exit 19')
+    expect(Object.keys(b?.records.readings ?? {})).toHaveLength(2)
+  })
+
+  it('stops with a reason when the server says more without moving on', async () => {
+    const stuck = { cursor: '9', lastSeq: 0, changes: {}, conflicts: [], more: true }
+    server.script = url => (url.startsWith('/api/sync/pull') ? json(200, stuck) : undefined)
+    const sync = useSyncStore()
+    const r = await sync.runOnce({ fetch: server.fetch })
+    expect(r).toMatchObject({ ok: false, kind: 'server' })
+    expect(server.requests.filter(q => q.url.startsWith('/api/sync/pull')).length).toBeLessThanOrEqual(2)
+    expect(sync.lastSyncAt).toBeNull()
   })
 })

@@ -3,14 +3,17 @@
 // created before it); updates and conflict settlements run one by one. The fast pass has no
 // savepoints; if the database refuses a row, the push runs again carefully, with a savepoint
 // around each insert and update, so only the refused op is rejected (see SyncApplier).
-import { eq, inArray, sql, type SQL } from 'drizzle-orm'
+import { and, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { Op } from '#shared/schemas/sync'
 import {
   checkOp, RECORD_ENTITY_NAMES, SYNC_ENTITIES, type CheckedOp, type RecordCreate, type RecordEntityName,
   type UpdatableEntityName,
 } from '#shared/sync/entities'
+import { clockBoundFlag, longSpanIds } from '#shared/sync/clockBounds'
+import { isBilledStatus } from '#shared/utils/callStatus'
 import { judge } from '#shared/utils/spec'
+import type { ClockKind } from '#shared/utils/billing'
 import type { Tx } from '../db'
 import { callOutcomeProblem, writeCallChanges, type CallRow } from './callWrite'
 import { resolveConflictInTx, SyncRuleError } from './conflicts'
@@ -31,13 +34,16 @@ const word = (entity: RecordEntityName) => SYNC_ENTITIES[entity].words.one
 const TABLE = RECORD_TABLES
 // The registry's order: test runs first, since readings may point at a run created in the same push.
 const FLUSH_ORDER = RECORD_ENTITY_NAMES
-/** Columns that are not the record's content, left out when a repeated create is compared. */
-const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt'])
+/** Columns that are not the record's content, left out when a repeated create is compared (the flag is the server's). */
+const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt', 'flag'])
 
 const toDate = (v: unknown) => (typeof v === 'string' ? new Date(v) : null)
 
 type Row = Record<string, unknown> & { id: string, callId: string }
 type Pending = { index: number, row: Row }
+/** A clock event as the bounds judge it: its device time, and the server's flag once it has one. */
+type ClockSeen = { id: string, kind: ClockKind, at: Date, flag: string | null }
+type ConflictInsert = typeof tables.conflicts.$inferInsert
 
 /** What the push already knows about rows its ops point at, fetched in a few queries up front. */
 interface Refs {
@@ -46,6 +52,7 @@ interface Refs {
   trucks: Set<string>
   stock: Map<string, { unitPriceCents: number, coreChargeCents: number }> // `${truckId}:${partNumber}`
   signedCalls: Map<string, string> // callId → sign-off id
+  clock: Map<string, ClockSeen[]> // callId → its clock events (stored, and queued in this push)
 }
 
 function isDataError(err: unknown) {
@@ -65,8 +72,15 @@ export class SyncApplier {
   readonly results: OpOutcome[]
   private parsed: Parsed[]
   private calls = new Map<string, CallRow>()
-  private refs: Refs = { testRuns: new Map(), cardVersions: new Set(), trucks: new Set(), stock: new Map(), signedCalls: new Map() }
+  private refs: Refs = {
+    testRuns: new Map(), cardVersions: new Set(), trucks: new Set(), stock: new Map(), signedCalls: new Map(), clock: new Map(),
+  }
+
+  /** The server's now for this push: the upper bound of a phone's clock. */
+  private now = new Date()
   private buffers = new Map<ChildEntity, Pending[]>()
+  /** Creates for invoiced or paid calls: kept as conflicts, never added to the record. */
+  private billed: { index: number, op: Op, entity: ChildEntity, data: Record<string, unknown> }[] = []
   private sp = 0
   /** Fast pass only: inserts left for the push's closing statement. */
   deferred: SQL[] = []
@@ -97,8 +111,9 @@ export class SyncApplier {
               : this.childUpdate(op, p.entity, p.data))
       }
     }
+    await this.keepBilled()
     if (this.careful) await this.flush()
-    else this.deferred = this.deferFlush()
+    else this.deferred = await this.deferFlush()
     return this.results
   }
 
@@ -107,12 +122,13 @@ export class SyncApplier {
    * its stored results, in one statement. Any clash (an id that exists already) or refusal fails
    * that statement, and the careful pass then compares and rejects op by op.
    */
-  private deferFlush(): SQL[] {
+  private async deferFlush(): Promise<SQL[]> {
     const out: SQL[] = []
     for (const entity of FLUSH_ORDER) {
       const pending = this.buffers.get(entity)
       if (!pending?.length) continue
       this.buffers.delete(entity)
+      if (entity === 'clockEvent') await this.flagLongSpans(pending)
       const first = new Map<string, Pending>()
       for (const p of pending) {
         const f = first.get(p.row.id)
@@ -130,6 +146,7 @@ export class SyncApplier {
     const { tx } = this
     const callIds = new Set<string>()
     const runIds = new Set<string>(), cardIds = new Set<string>(), truckIds = new Set<string>(), signCalls = new Set<string>()
+    const clockCalls = new Set<string>()
     const conflictIds: string[] = []
     this.parsed.forEach((p, i) => {
       if (!p.ok) return
@@ -139,6 +156,7 @@ export class SyncApplier {
         if (p.entity === 'testRun') cardIds.add(p.data.cardId as string)
         if (p.entity === 'partLine' && p.data.serviceTruckId) truckIds.add(p.data.serviceTruckId as string)
         if (p.entity === 'signOff') signCalls.add(p.data.callId as string)
+        if (p.entity === 'clockEvent') clockCalls.add(p.data.callId as string)
       }
       else if (p.kind === 'update' && p.entity === 'call') callIds.add(this.ops[i]!.entityId)
       else if (p.kind === 'command') conflictIds.push(p.data.conflictId)
@@ -174,8 +192,22 @@ export class SyncApplier {
       jobs.push(tx.select({ id: tables.signOffs.id, callId: tables.signOffs.callId }).from(tables.signOffs).where(inArray(tables.signOffs.callId, [...signCalls]))
         .then((rows) => { for (const r of rows) this.refs.signedCalls.set(r.callId, r.id) }))
     }
+    if (clockCalls.size) {
+      const c = tables.clockEvents
+      jobs.push(tx.select({ id: c.id, callId: c.callId, kind: c.kind, deviceAt: c.deviceAt, createdAt: c.createdAt, flag: c.flag })
+        .from(c).where(inArray(c.callId, [...clockCalls]))
+        .then((rows) => {
+          for (const r of rows) this.clockOf(r.callId).push({ id: r.id, kind: r.kind, at: r.deviceAt ?? r.createdAt, flag: r.flag })
+        }))
+    }
     // Sequential on the one connection anyway; Promise.all just keeps the code flat.
     await Promise.all(jobs)
+  }
+
+  private clockOf(callId: string): ClockSeen[] {
+    let list = this.refs.clock.get(callId)
+    if (!list) this.refs.clock.set(callId, list = [])
+    return list
   }
 
   /** The call of a record an op changes in place; read, not locked (the record's row is). */
@@ -197,6 +229,7 @@ export class SyncApplier {
     const call = this.calls.get(data.callId as string)
     const problem = this.accessProblem(call)
     if (problem) { this.results[index] = rejected(problem); return }
+    if (isBilledStatus(call!.status)) { this.billed.push({ index, op, entity, data }); return }
     const built = this.buildRow(entity, op, data)
     if (typeof built === 'string') { this.results[index] = rejected(built); return }
     if (entity === 'testRun') this.refs.testRuns.set(built.id, built.callId)
@@ -243,7 +276,11 @@ export class SyncApplier {
         }
       }
       case 'note': return { id, callId, createdBy, deviceAt, text: (data as RecordCreate<'note'>).text }
-      case 'clockEvent': return { id, callId, createdBy, deviceAt, kind: (data as RecordCreate<'clockEvent'>).kind }
+      case 'clockEvent': {
+        // The phone's time is kept (labor is priced from it); the server flags it when out of bounds.
+        const flag = clockBoundFlag(deviceAt, { takenAt: this.calls.get(callId)!.receivedAt, now: this.now })
+        return { id, callId, createdBy, deviceAt, kind: (data as RecordCreate<'clockEvent'>).kind, flag }
+      }
       case 'photo': {
         const d = data as RecordCreate<'photo'>
         if (d.sizeBytes > this.limits.photoMaxBytes) return `sizeBytes: larger than the ${this.limits.photoMaxBytes}-byte photo limit`
@@ -279,6 +316,7 @@ export class SyncApplier {
       const pending = this.buffers.get(entity)
       if (!pending?.length) continue
       this.buffers.delete(entity)
+      if (entity === 'clockEvent') await this.flagLongSpans(pending)
       await this.insertAll(entity, pending)
     }
   }
@@ -330,6 +368,84 @@ export class SyncApplier {
     }
   }
 
+  // ── Clock bounds ────────────────────────────────────────────────────────────────────────
+  /**
+   * A span nobody works in one go (see longSpanIds), among each call's clock events with the ones
+   * about to be written: those get the flag in their row, the stored end of the span an UPDATE.
+   */
+  private async flagLongSpans(pending: Pending[]) {
+    const stored: string[] = []
+    for (const callId of new Set(pending.map(p => p.row.callId))) {
+      const known = this.clockOf(callId)
+      const seen = new Set(known.map(e => e.id))
+      const fresh: ClockSeen[] = []
+      for (const p of pending) {
+        if (p.row.callId !== callId || seen.has(p.row.id)) continue
+        seen.add(p.row.id)
+        fresh.push({ id: p.row.id, kind: p.row.kind as ClockKind, at: p.row.deviceAt as Date, flag: p.row.flag as string | null })
+      }
+      const long = new Set(longSpanIds([...known, ...fresh]))
+      for (const e of known) {
+        if (long.has(e.id) && !e.flag) { e.flag = 'long_span'; stored.push(e.id) }
+      }
+      for (const e of fresh) if (long.has(e.id) && !e.flag) e.flag = 'long_span'
+      for (const p of pending) {
+        const e = fresh.find(f => f.id === p.row.id)
+        if (e) p.row.flag = e.flag
+      }
+      known.push(...fresh)
+    }
+    if (!stored.length) return
+    const c = tables.clockEvents
+    await this.inSavepointRaw(() => this.tx.update(c).set({ flag: 'long_span' }).where(and(inArray(c.id, stored), isNull(c.flag))))
+  }
+
+  // ── Creates for billed calls ────────────────────────────────────────────────────────────
+  /**
+   * New work for an invoiced or paid call is kept as a conflict for the office (a credit note or a
+   * follow-up call), never added to the record the invoice was priced from. Sent again, the same
+   * record is the same conflict; a record stored before the call was billed is a plain repeat.
+   */
+  private async keepBilled() {
+    for (const { index, op, entity, data } of this.billed) {
+      this.results[index] = await this.inSavepoint(op.changes, () => this.billedCreate(op, entity, data))
+    }
+  }
+
+  private async billedCreate(op: Op, entity: ChildEntity, data: Record<string, unknown>): Promise<OpOutcome> {
+    const call = this.calls.get(data.callId as string)!
+    const table = TABLE[entity]
+    const [there] = await this.tx.select({ id: table.id }).from(table).where(eq(table.id, op.entityId))
+    if (there) return this.repeatOfStored(entity, op, data)
+    const what = `the ${word(entity)} is kept for the office to add to a credit note or a follow-up call`
+    const reason = billedReason('callId', call.status, what)
+    const { conflicts } = tables
+    const [kept] = await this.tx.select({ id: conflicts.id }).from(conflicts)
+      .where(and(eq(conflicts.entity, entity), eq(conflicts.entityId, op.entityId), eq(conflicts.field, 'callId')))
+    if (!kept) {
+      await this.raise([{
+        callId: call.id, entity, entityId: op.entityId, field: 'callId', reason, opId: op.opId, raisedBy: this.user.id,
+        deviceValue: jsonb(data), serverValue: jsonb(null),
+      }])
+    }
+    return { status: 'conflict', reason }
+  }
+
+  /** A create whose record is stored already (made before the call was billed): the same content is a no-op. */
+  private async repeatOfStored(entity: ChildEntity, op: Op, data: Record<string, unknown>): Promise<OpOutcome> {
+    const built = this.buildRow(entity, op, data)
+    if (typeof built === 'string') return rejected(built)
+    const table = TABLE[entity]
+    const [row] = await this.tx.select().from(table).where(eq(table.id, op.entityId)) as Record<string, unknown>[]
+    const same = Object.keys(built).every(k => NOT_CONTENT.has(k) || sameSyncValue(built[k], row![k]))
+    if (!same) return rejected(`entityId: a different ${word(entity)} already has this id`)
+    return { status: 'applied', version: (row!.version as number) ?? 1 }
+  }
+
+  private async raise(rows: ConflictInsert[]) {
+    await this.tx.insert(tables.conflicts).values(rows)
+  }
+
   // ── Updates ─────────────────────────────────────────────────────────────────────────────
   private async callUpdate(op: Op, changes: Record<string, unknown>): Promise<OpOutcome> {
     const call = this.calls.get(op.entityId)
@@ -371,7 +487,7 @@ export class SyncApplier {
       delete takes.outcome
     }
     let after = call
-    if (Object.keys(takes).length) after = await writeCallChanges(this.tx, call, takes, this.user)
+    if (Object.keys(takes).length) after = await writeCallChanges(this.tx, call, takes, this.user, { deviceAt: new Date(op.at) })
     if (conflicts.length) await this.tx.insert(tables.conflicts).values(conflicts)
     this.calls.set(after.id, after)
     const reason = notes.length ? notes.join('; ') : undefined
@@ -381,14 +497,31 @@ export class SyncApplier {
   /** Fault codes and test runs change in place; only their call's writers reach them. */
   private async childUpdate(op: Op, entity: Exclude<UpdatableEntityName, 'call'>, changes: Record<string, unknown>): Promise<OpOutcome> {
     const table = TABLE[entity]
-    const [row] = await this.tx.select({ callId: table.callId }).from(table).where(eq(table.id, op.entityId)).for('update')
+    const [row] = await this.tx.select().from(table).where(eq(table.id, op.entityId)).for('update') as Record<string, unknown>[]
     if (!row) return rejected(`entityId: no such ${word(entity)}`)
-    const problem = this.accessProblem(await this.callOf(row.callId as string))
+    const call = await this.callOf(row.callId as string)
+    const problem = this.accessProblem(call)
     if (problem) return rejected(problem === FORBIDDEN ? FORBIDDEN : 'entityId: no such call')
+    if (isBilledStatus(call!.status)) return this.billedUpdate(op, entity, call!, row, changes)
     const set: Record<string, unknown> = { ...changes }
     for (const k of ['clearedAt', 'finishedAt']) if (k in set) set[k] = toDate(set[k])
     const [out] = await this.tx.update(table).set(set as any).where(eq(table.id, op.entityId)).returning({ version: table.version })
     return { status: 'applied', version: (out as { version: number }).version }
+  }
+
+  /** A change to a record of an invoiced or paid call: each field kept as a conflict, the record unchanged. */
+  private async billedUpdate(
+    op: Op, entity: ChildEntity, call: CallRow, row: Record<string, unknown>, changes: Record<string, unknown>,
+  ): Promise<OpOutcome> {
+    const fields = Object.keys(changes).filter(f => !sameSyncValue(changes[f], row[f]))
+    if (!fields.length) return { status: 'applied', version: row.version as number }
+    const base = op.base ?? {}
+    const reasons = fields.map(f => billedReason(f, call.status, 'kept for the office'))
+    await this.raise(fields.map((field, i) => ({
+      callId: call.id, entity, entityId: op.entityId, field, reason: reasons[i]!, opId: op.opId, raisedBy: this.user.id,
+      baseValue: jsonb(field in base ? base[field] : null), deviceValue: jsonb(changes[field]), serverValue: jsonb(row[field]),
+    })))
+    return { status: 'conflict', version: row.version as number, reason: reasons.join('; ') }
   }
 
   private async resolution(data: Extract<CheckedOp, { kind: 'command' }>['data'], hasValue: boolean): Promise<OpOutcome> {
@@ -442,6 +575,11 @@ export class SyncCarefulPass extends Error {
   constructor(readonly refusal: unknown) {
     super('a row was refused; the push runs again op by op')
   }
+}
+
+/** Why new work waits for the office: an invoice was priced from the call's record. */
+function billedReason(field: string, status: string, what: string) {
+  return `${field}: the call is ${status}; ${what}`
 }
 
 /** A value for a jsonb column that keeps JSON null and strings as JSON. */

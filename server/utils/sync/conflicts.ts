@@ -31,9 +31,10 @@ export async function resolveConflictInTx(tx: Tx, user: User, conflictId: string
   if (!conflict || !call || (user.role === 'mechanic' && call.mechanicId !== user.id)) {
     throw new SyncRuleError('conflictId', 'no such conflict', 404)
   }
+  if (conflict.entity !== 'call') return settleRecordConflict(tx, user, conflict, call, choice)
   const field = conflict.field as CallSyncField
   const schema = callFieldSchemas[field]
-  if (conflict.entity !== 'call' || !schema) throw new SyncRuleError('conflictId', `settling ${conflict.entity}.${conflict.field} is not supported`)
+  if (!schema) throw new SyncRuleError('conflictId', `settling ${conflict.entity}.${conflict.field} is not supported`)
 
   let target: unknown
   if (choice === 'server') target = call[field as keyof CallRow]
@@ -71,6 +72,26 @@ export async function resolveConflictInTx(tx: Tx, user: User, conflictId: string
     status: 'resolved', choice, resolvedValue: sql`${JSON.stringify(target ?? null)}::jsonb`, resolvedBy: user.id, resolvedAt: sql`now()`,
   }).where(eq(conflicts.id, conflict.id)).returning()
   return { conflict: settled!, call: after }
+}
+
+/**
+ * A record's conflict (work sent for a billed call): the record an invoice was priced from stays
+ * as it is, so the only settlement is keeping it; the office carries the work to a credit note or
+ * a follow-up call.
+ */
+async function settleRecordConflict(tx: Tx, user: User, conflict: ConflictRow, call: CallRow, choice: ConflictChoice) {
+  if (choice !== 'server') {
+    throw new SyncRuleError('choice', `the call is ${call.status}; keep the record and add the work to a credit note or a follow-up call`)
+  }
+  if (conflict.status === 'resolved') {
+    if (conflict.choice === choice) return { conflict, call }
+    throw new SyncRuleError('conflictId', 'already settled', 409)
+  }
+  const [settled] = await tx.update(tables.conflicts).set({
+    status: 'resolved', choice, resolvedValue: sql`${JSON.stringify(conflict.serverValue ?? null)}::jsonb`,
+    resolvedBy: user.id, resolvedAt: sql`now()`,
+  }).where(eq(tables.conflicts.id, conflict.id)).returning()
+  return { conflict: settled!, call }
 }
 
 export async function resolveConflict(user: User, conflictId: string, choice: ConflictChoice, value: unknown, hasValue: boolean) {

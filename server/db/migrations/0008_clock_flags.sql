@@ -1,0 +1,2 @@
+ALTER TABLE "clock_events" ADD COLUMN "flag" text;--> statement-breakpoint
+ALTER TABLE "clock_events" ADD CONSTRAINT "clock_events_flag" CHECK ("clock_events"."flag" IS NULL OR "clock_events"."flag" IN ('before_call', 'future', 'long_span'));
