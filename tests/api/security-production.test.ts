@@ -94,6 +94,7 @@ describe('a production start', () => {
     NUXT_STRIPE_SECRET_KEY: `sk_test_${randomBytes(12).toString('hex')}`,
     NUXT_STRIPE_WEBHOOK_SECRET: `whsec_${randomBytes(12).toString('hex')}`,
     NUXT_STRIPE_API_HOST: 'payments.example.invalid', NUXT_STRIPE_API_PROTOCOL: 'https',
+    NUXT_SITE_URL: 'https://service.example.invalid',
     ...extra,
   })
 
@@ -105,6 +106,7 @@ describe('a production start', () => {
         NUXT_SESSION_PASSWORD: 'wayside-test-session-password-0123456789abcdef',
         NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: '2525', NUXT_STRIPE_API_HOST: '127.0.0.1', NUXT_STRIPE_API_PROTOCOL: 'http',
         NUXT_STRIPE_SECRET_KEY: 'sk_test_wayside_local', NUXT_STRIPE_WEBHOOK_SECRET: 'whsec_wayside_local',
+        NUXT_SITE_URL: `http://127.0.0.1:${ownServerPort(8)}`,
       },
       stdio: ['ignore', 'pipe', 'pipe'],
     })
@@ -117,7 +119,7 @@ describe('a production start', () => {
     const code = await new Promise<number | null>(resolve => proc.once('exit', resolve))
     expect(code).toBe(1)
     const named = ['NUXT_SESSION_PASSWORD', 'NUXT_SESSION_COOKIE_SECURE', 'NUXT_SMTP_HOST', 'NUXT_STRIPE_SECRET_KEY',
-      'NUXT_STRIPE_WEBHOOK_SECRET', 'NUXT_STRIPE_API_HOST']
+      'NUXT_STRIPE_WEBHOOK_SECRET', 'NUXT_STRIPE_API_HOST', 'NUXT_SITE_URL']
     for (const v of named) {
       expect(output, v).toContain(v)
     }
