@@ -66,7 +66,8 @@ function siteUrlProblem(url: string): string | null {
   let u: URL
   try {
     u = new URL(url)
-  } catch {
+  }
+  catch {
     return 'is not an address'
   }
   if (isLoopback(u.hostname)) return 'points at this machine, which no payer or fleet can reach'

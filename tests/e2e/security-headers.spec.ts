@@ -52,8 +52,10 @@ test('the phone runs under the policy: service worker, offline shell, and the li
   await expect(page.getByRole('list', { name: 'Open calls' }).getByRole('link', { name: /#5/ })).toBeVisible()
 
   await page.goto(`/m/calls/${CALL_5}/compare`)
-  await page.getByRole('button', { name: 'Cold soak' }).click()
-  for (const [label, v] of [['Coolant', '9'], ['Oil', '12'], ['Intake air', '15'], ['Fuel', '-40']] as const) {
+  await page.getByRole('radio', { name: 'Key on, engine off' }).click()
+  await page.getByLabel('Engine off for (hours)').fill('10')
+  await page.getByLabel('Air here (°C)').fill('12')
+  for (const [label, v] of [['Coolant', '9'], ['Oil', '12'], ['Intake manifold air', '15'], ['Fuel', '-40']] as const) {
     await page.getByLabel(`${label} (°C)`).fill(v)
   }
   const canvas = page.locator('canvas')
