@@ -1,6 +1,9 @@
 // Wayside: one Nuxt app for the mechanic's phone and the office's desktop.
 export default defineNuxtConfig({
-  modules: ['@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  modules: [
+    '@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss',
+    '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt',
+  ],
   devtools: { enabled: false },
   app: {
     head: {
