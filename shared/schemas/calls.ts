@@ -54,18 +54,23 @@ export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
   shutdown: 'Shut down, will not run',
 }
 
-const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
-const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
+const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90')
+  .max(90, 'Latitude is from -90 to 90').nullable().optional()
+const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180')
+  .max(180, 'Longitude is from -180 to 180').nullable().optional()
 
 /** The dispatch fields as the office edits them; sync's call fields take the same schemas. */
 export const dispatchFields = {
-  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)')
-    .refine(noNul, NUL_MESSAGE),
+  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is')
+    .max(300, 'Location is too long (at most 300 characters)').refine(noNul, NUL_MESSAGE),
   lat: latField,
   lon: lonField,
   complaint: z.string({ message: 'Write the driver\'s complaint' }).trim().min(1, 'Write the driver\'s complaint')
     .max(2000, 'Complaint is too long (at most 2000 characters)').refine(noNul, NUL_MESSAGE),
-  lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters').refine(noNul, NUL_MESSAGE), { message: 'Lamps must be a list' })
+  lamps: z.array(
+    z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters').refine(noNul, NUL_MESSAGE),
+    { message: 'Lamps must be a list' },
+  )
     .max(12, 'At most 12 lamps'),
   derate: z.enum(DERATE_STATES, { message: 'Pick how the engine runs' }),
   derateNote: optText(300, 'Derate note'),
@@ -105,10 +110,16 @@ export const callCreateSchema = z.object({
   mechanicId: recordId('a mechanic').optional(),
   serviceTruckId: recordId('a service truck').nullable().optional(),
 }).superRefine((v, ctx) => {
-  if (!v.customerId && !v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
-  if (v.customerId && v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  if (!v.customerId && !v.newCustomer) {
+    ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
+  }
+  if (v.customerId && v.newCustomer) {
+    ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  }
   if (v.unitId && v.newUnit) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'Pick a unit or add a new one, not both' })
-  if (v.newCustomer && v.unitId) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  if (v.newCustomer && v.unitId) {
+    ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  }
   positionRule(v, ctx)
 })
 
@@ -136,7 +147,10 @@ export const callPatchSchema = z.object({
 })
 
 /** The dispatch fields a PATCH may change, in the order the call page lists them. */
-export const CALL_EDIT_FIELDS = ['customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat', 'safetyNotes', 'callerName', 'callerPhone', 'poNumber', 'authLimitCents'] as const
+export const CALL_EDIT_FIELDS = [
+  'customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat', 'safetyNotes',
+  'callerName', 'callerPhone', 'poNumber', 'authLimitCents',
+] as const
 export type CallEditField = (typeof CALL_EDIT_FIELDS)[number]
 
 export const callAssignSchema = z.object({

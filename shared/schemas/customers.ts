@@ -10,7 +10,8 @@ const email = z.string({ message: 'Billing e-mail must be text' }).trim().toLowe
   .nullable().optional().transform(v => (v === '' ? null : v))
 
 const customerFields = {
-  name: z.string({ message: 'Enter the customer name' }).trim().min(1, 'Enter the customer name').max(160, 'Name is too long (at most 160 characters)'),
+  name: z.string({ message: 'Enter the customer name' }).trim().min(1, 'Enter the customer name')
+    .max(160, 'Name is too long (at most 160 characters)'),
   kind: z.enum(CUSTOMER_KINDS, { message: 'Pick fleet or owner-operator' }),
   billingTerms: z.enum(BILLING_TERMS, { message: 'Pick card or account' }),
   netDays: optInt(0, 180, 'Net days'),
@@ -54,7 +55,8 @@ export const siteCreateSchema = z.object({
   name: z.string({ message: 'Name the place' }).trim().min(1, 'Name the place').max(120, 'Name is too long'),
   address: optText(300, 'Address'),
   lat: z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90'),
-  lon: z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180'),
+  lon: z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180')
+    .max(180, 'Longitude is from -180 to 180'),
 })
 
 export type CustomerCreateInput = z.input<typeof customerCreateSchema>

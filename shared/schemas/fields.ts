@@ -9,7 +9,8 @@ export const NUL_MESSAGE = 'May not contain a NUL character'
 
 /** Optional free text; '' and spaces become null. */
 export const optText = (max: number, label = 'This') =>
-  z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long (at most ${max} characters)`).refine(noNul, NUL_MESSAGE)
+  z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long (at most ${max} characters)`)
+    .refine(noNul, NUL_MESSAGE)
     .nullable().optional().transform(v => (v === '' ? null : v))
 
 /** Optional whole number within a range; null clears it. */

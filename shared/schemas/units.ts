@@ -8,14 +8,16 @@ const vinField = z.string({ message: 'VIN must be text' }).trim().toUpperCase().
   .nullable().optional().transform(v => (v === '' ? null : v))
 
 const unitFields = {
-  unitNumber: z.string({ message: 'Enter the customer\'s unit number' }).trim().min(1, 'Enter the customer\'s unit number').max(40, 'Unit number is too long (at most 40 characters)'),
+  unitNumber: z.string({ message: 'Enter the customer\'s unit number' }).trim().min(1, 'Enter the customer\'s unit number')
+    .max(40, 'Unit number is too long (at most 40 characters)'),
   vin: vinField,
   vinOverrideReason: optText(300, 'The reason'),
   yearMakeModel: optText(120, 'Year, make and model'),
   engine: optText(120, 'Engine'),
   odometer: optInt(0, 9_999_999, 'Odometer'),
   odometerUnit: z.enum(ODOMETER_UNITS, { message: 'Odometer is in km or mi' }),
-  engineHours: z.number({ message: 'Engine hours must be a number' }).min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
+  engineHours: z.number({ message: 'Engine hours must be a number' }).min(0, 'Engine hours cannot be below 0')
+    .max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
   notes: optText(2000, 'Notes'),
 }
 
@@ -30,7 +32,11 @@ function vinRule(v: { vin?: string | null, vinOverrideReason?: string | null }, 
   if (!p) return
   if (p.kind !== 'check_digit') ctx.addIssue({ code: 'custom', path: ['vin'], message: p.reason })
   else if (!v.vinOverrideReason || v.vinOverrideReason.length < 3) {
-    ctx.addIssue({ code: 'custom', path: ['vin'], message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"` })
+    ctx.addIssue({
+      code: 'custom',
+      path: ['vin'],
+      message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"`,
+    })
   }
 }
 function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?: string | null }>(v: T): T {
@@ -42,7 +48,9 @@ function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?:
 export const unitDraftSchema = z.object({ ...unitFields, odometerUnit: unitFields.odometerUnit.default('km') })
   .superRefine(vinRule).transform(dropNeedlessReason)
 
-export const unitCreateSchema = z.object({ customerId: recordId('the customer'), ...unitFields, odometerUnit: unitFields.odometerUnit.default('km') })
+export const unitCreateSchema = z.object({
+  customerId: recordId('the customer'), ...unitFields, odometerUnit: unitFields.odometerUnit.default('km'),
+})
   .superRefine(vinRule).transform(dropNeedlessReason)
 
 export const unitPatchSchema = z.object({
