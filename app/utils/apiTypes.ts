@@ -9,3 +9,7 @@ export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
 export type UnitView = Answer<'/api/units/:id', 'get'>
 export type InvoiceView = Answer<'/api/invoices/:id', 'get'>
 export type BillingDeskView = Answer<'/api/billing/desk', 'get'>
+export type TruckListView = Answer<'/api/service-trucks', 'get'>
+export type TruckStockView = Answer<'/api/service-trucks/:id/stock', 'get'>
+export type StockMovesView = Answer<'/api/service-trucks/:id/moves', 'get'>
+export type AgingView = Answer<'/api/billing/aging', 'get'>
