@@ -13,7 +13,9 @@ export const usePrefsStore = defineStore('prefs', () => {
   /** Whether the mechanic agreed to send their position when syncing; asked once. */
   const positionConsent = ref<'unasked' | 'yes' | 'no'>('unasked')
 
-  function toggleTheme() { theme.value = theme.value === 'night' ? 'sunlight' : 'night' }
+  function toggleTheme() {
+    theme.value = theme.value === 'night' ? 'sunlight' : 'night'
+  }
 
   return { theme, temperatureUnit, pressureUnit, resistanceUnit, voltageUnit, distanceUnit, positionConsent, toggleTheme }
 }, {

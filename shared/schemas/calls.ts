@@ -55,8 +55,10 @@ export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
   shutdown: 'Shut down, will not run',
 }
 
-const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
-const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
+const latField = z.number({ message: 'Latitude must be a number' })
+  .min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
+const lonField = z.number({ message: 'Longitude must be a number' })
+  .min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
 
 /** The dispatch fields as the office edits them; sync's call fields take the same schemas. */
 export const dispatchFields = {
@@ -104,10 +106,16 @@ export const callCreateSchema = z.object({
   mechanicId: recordId('a mechanic').optional(),
   serviceTruckId: recordId('a service truck').nullable().optional(),
 }).superRefine((v, ctx) => {
-  if (!v.customerId && !v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
-  if (v.customerId && v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  if (!v.customerId && !v.newCustomer) {
+    ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
+  }
+  if (v.customerId && v.newCustomer) {
+    ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  }
   if (v.unitId && v.newUnit) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'Pick a unit or add a new one, not both' })
-  if (v.newCustomer && v.unitId) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  if (v.newCustomer && v.unitId) {
+    ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  }
   positionRule(v, ctx)
 })
 
@@ -135,7 +143,10 @@ export const callPatchSchema = z.object({
 })
 
 /** The dispatch fields a PATCH may change, in the order the call page lists them. */
-export const CALL_EDIT_FIELDS = ['customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat', 'safetyNotes', 'callerName', 'callerPhone', 'poNumber', 'authLimitCents'] as const
+export const CALL_EDIT_FIELDS = [
+  'customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat',
+  'safetyNotes', 'callerName', 'callerPhone', 'poNumber', 'authLimitCents',
+] as const
 export type CallEditField = (typeof CALL_EDIT_FIELDS)[number]
 
 export const callAssignSchema = z.object({

@@ -55,7 +55,8 @@ export const siteCreateSchema = z.object({
   name: requiredText(120, 'Name', { missing: 'Name the place' }),
   address: optText(300, 'Address'),
   lat: z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90'),
-  lon: z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180'),
+  lon: z.number({ message: 'Longitude must be a number' })
+    .min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180'),
 })
 
 export type CustomerCreateInput = z.input<typeof customerCreateSchema>

@@ -11,8 +11,14 @@ export const reportRangeSchema = z.object({
 }).transform((v, ctx) => {
   const to = v.to ?? new Date().toISOString().slice(0, 10)
   const from = v.from ?? new Date(Date.parse(`${to}T00:00:00Z`) - 29 * 86_400_000).toISOString().slice(0, 10)
-  if (from > to) { ctx.addIssue({ code: 'custom', path: ['from'], message: 'From must be on or before to' }); return z.NEVER }
-  if (Date.parse(to) - Date.parse(from) > 366 * 86_400_000) { ctx.addIssue({ code: 'custom', path: ['from'], message: 'Pick at most a year' }); return z.NEVER }
+  if (from > to) {
+    ctx.addIssue({ code: 'custom', path: ['from'], message: 'From must be on or before to' })
+    return z.NEVER
+  }
+  if (Date.parse(to) - Date.parse(from) > 366 * 86_400_000) {
+    ctx.addIssue({ code: 'custom', path: ['from'], message: 'Pick at most a year' })
+    return z.NEVER
+  }
   return { from, to }
 })
 export type ReportRange = z.output<typeof reportRangeSchema>

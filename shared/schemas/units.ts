@@ -16,7 +16,8 @@ const unitFields = {
   engine: optText(120, 'Engine'),
   odometer: optInt(0, 9_999_999, 'Odometer'),
   odometerUnit: z.enum(ODOMETER_UNITS, { message: 'Odometer is in km or mi' }),
-  engineHours: z.number({ message: 'Engine hours must be a number' }).min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
+  engineHours: z.number({ message: 'Engine hours must be a number' })
+    .min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
   notes: optText(2000, 'Notes', { multiline: true }),
 }
 
@@ -31,7 +32,10 @@ function vinRule(v: { vin?: string | null, vinOverrideReason?: string | null }, 
   if (!p) return
   if (p.kind !== 'check_digit') ctx.addIssue({ code: 'custom', path: ['vin'], message: p.reason })
   else if (!v.vinOverrideReason || v.vinOverrideReason.length < 3) {
-    ctx.addIssue({ code: 'custom', path: ['vin'], message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"` })
+    ctx.addIssue({
+      code: 'custom', path: ['vin'],
+      message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"`,
+    })
   }
 }
 function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?: string | null }>(v: T): T {
@@ -43,7 +47,9 @@ function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?:
 export const unitDraftSchema = z.object({ ...unitFields, odometerUnit: unitFields.odometerUnit.default('km') })
   .superRefine(vinRule).transform(dropNeedlessReason)
 
-export const unitCreateSchema = z.object({ customerId: recordId('the customer'), ...unitFields, odometerUnit: unitFields.odometerUnit.default('km') })
+export const unitCreateSchema = z.object({
+  customerId: recordId('the customer'), ...unitFields, odometerUnit: unitFields.odometerUnit.default('km'),
+})
   .superRefine(vinRule).transform(dropNeedlessReason)
 
 export const unitPatchSchema = z.object({
