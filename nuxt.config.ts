@@ -1,6 +1,11 @@
+import { fileURLToPath } from 'node:url'
+
 // Wayside: one Nuxt app for the mechanic's phone and the office's desktop.
 export default defineNuxtConfig({
-  modules: ['@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  modules: [
+    '@nuxt/eslint', '@pinia/nuxt', 'pinia-plugin-persistedstate/nuxt', '@nuxtjs/tailwindcss', '@vite-pwa/nuxt', 'nuxt-auth-utils',
+    '@vueuse/nuxt', 'nuxt-security',
+  ],
   devtools: { enabled: false },
   app: {
     head: {
@@ -12,6 +17,10 @@ export default defineNuxtConfig({
         { name: 'theme-color', content: '#0b1d2a' },
       ],
       link: [{ rel: 'icon', href: '/favicon.svg', type: 'image/svg+xml' }],
+      // Before any module: zod would probe for eval (new Function) when it builds its schemas, and
+      // the content security policy reports that probe as a violation; without it zod parses
+      // without compiling (globalThis.__zod_globalConfig is the config zod's core reads first).
+      script: [{ innerHTML: 'globalThis.__zod_globalConfig={jitless:true}', tagPriority: 'critical' }],
     },
   },
   css: ['~/assets/css/main.css'],
@@ -50,11 +59,16 @@ export default defineNuxtConfig({
     // Photo bytes: a folder for the fs driver here; server/plugins/storage.ts mounts it.
     uploadsDir: '.data/uploads',
     uploadsS3Bucket: '',
+    // Sign-in limiter (server/utils/loginLimiter.ts): failures per account at one address, then
+    // a pause of loginLockMinutes; a much higher bound per address over the same window.
     loginMaxFailures: 5,
-    loginMaxFailuresPerAddress: 20,
+    loginMaxFailuresPerAddress: 100,
     loginLockMinutes: 15,
+    // Behind a load balancer: take the client's address from X-Forwarded-For (NUXT_TRUST_PROXY=true).
+    trustProxy: false,
     session: {
-      cookie: { sameSite: 'lax', httpOnly: true, secure: false },
+      // Secure unless the local scripts (plain http on 127.0.0.1) set NUXT_SESSION_COOKIE_SECURE=false.
+      cookie: { sameSite: 'lax', httpOnly: true, secure: true },
       maxAge: 60 * 60 * 24 * 14,
     },
     public: {
@@ -72,12 +86,23 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   nitro: {
     prerender: { routes: ['/shell'] },
+    // Static files are compressed once at build and served as the client accepts (brotli, gzip);
+    // answers made per request are compressed by server/plugins/compression.ts.
+    compressPublicAssets: { gzip: true, brotli: true },
   },
   typescript: {
     strict: true,
     tsConfig: { compilerOptions: { noUncheckedIndexedAccess: true } },
   },
   telemetry: false,
+  hooks: {
+    // Our error handler first (503 for a database that does not answer, request ids in JSON
+    // errors), then Nuxt's, which renders app/error.vue for pages.
+    'nitro:config'(config) {
+      const nuxtHandlers = [config.errorHandler].flat().filter((h): h is string => typeof h === 'string')
+      config.errorHandler = [fileURLToPath(new URL('./server/error.ts', import.meta.url)), ...nuxtHandlers]
+    },
+  },
   // Lint with Nuxt's own config and its stylistic rules (npm run lint; part of npm test).
   eslint: { config: { stylistic: true } },
   pwa: {
@@ -113,5 +138,44 @@ export default defineNuxtConfig({
     },
     client: { installPrompt: false, periodicSyncForUpdates: 3600 },
     devOptions: { enabled: false },
+  },
+  // Security headers and the content security policy (nuxt-security 2.5: the line that runs on
+  // Node 20). Its rate limiter is off (in one process's memory; the sign-in limiter lives in
+  // PostgreSQL), its size limiter too (server/middleware/bodyLimit.ts caps bodies by route), and
+  // its XSS filter and CORS handler (Vue escapes output; the API is same-origin only).
+  security: {
+    rateLimiter: false,
+    requestSizeLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+    // Keep console output: the phone's sync reports through it and the browser tests read it.
+    removeLoggers: false,
+    nonce: true,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ['\'self\''],
+        'base-uri': ['\'none\''],
+        'object-src': ['\'none\''],
+        'frame-ancestors': ['\'self\''],
+        'form-action': ['\'self\''],
+        // Nuxt's entry and inline payload carry the per-request nonce (prerendered pages such as
+        // the offline shell get hashes instead); 'strict-dynamic' lets those load the route chunks.
+        'script-src': ['\'self\'', '\'strict-dynamic\'', '\'nonce-{{nonce}}\''],
+        'script-src-attr': ['\'none\''],
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
+        // Photos waiting on the phone are shown from blob: URLs; the signature is a data: PNG.
+        'img-src': ['\'self\'', 'data:', 'blob:'],
+        'font-src': ['\'self\'', 'data:'],
+        'connect-src': ['\'self\''],
+        'worker-src': ['\'self\''],
+        'manifest-src': ['\'self\''],
+        // HTTPS is the load balancer's job; upgrading here would break plain http on 127.0.0.1.
+        'upgrade-insecure-requests': false,
+      },
+      referrerPolicy: 'same-origin',
+      // The phone asks for its position (with consent) and may use the camera for photos.
+      permissionsPolicy: { 'camera': ['self'], 'geolocation': ['self'], 'microphone': [], 'display-capture': [], 'fullscreen': ['self'] },
+    },
   },
 })

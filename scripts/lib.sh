@@ -4,6 +4,10 @@
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+# These scripts run Wayside on this machine over plain http: say so, so the production checks
+# (server/plugins/production.ts) stand aside and the session cookie works without HTTPS.
+export WAYSIDE_LOCAL=1
+export NUXT_SESSION_COOKIE_SECURE="${NUXT_SESSION_COOKIE_SECURE:-false}"
 DATA="$ROOT/.data"
 PGPORT="${WAYSIDE_PG_PORT:-54329}"
 PGUSER_DB=wayside

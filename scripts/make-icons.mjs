@@ -15,9 +15,11 @@ function crc32(buf) {
   return (crc ^ 0xffffffff) >>> 0
 }
 function chunk(type, data) {
-  const len = Buffer.alloc(4); len.writeUInt32BE(data.length)
+  const len = Buffer.alloc(4)
+  len.writeUInt32BE(data.length)
   const td = Buffer.concat([Buffer.from(type), data])
-  const crc = Buffer.alloc(4); crc.writeUInt32BE(crc32(td))
+  const crc = Buffer.alloc(4)
+  crc.writeUInt32BE(crc32(td))
   return Buffer.concat([len, td, crc])
 }
 function png(size, pixel) {
@@ -27,12 +29,23 @@ function png(size, pixel) {
     for (let x = 0; x < size; x++) {
       const [r, g, b, a] = pixel(x / size, y / size)
       const o = y * (size * 4 + 1) + 1 + x * 4
-      raw[o] = r; raw[o + 1] = g; raw[o + 2] = b; raw[o + 3] = a
+      raw[o] = r
+      raw[o + 1] = g
+      raw[o + 2] = b
+      raw[o + 3] = a
     }
   }
   const ihdr = Buffer.alloc(13)
-  ihdr.writeUInt32BE(size, 0); ihdr.writeUInt32BE(size, 4); ihdr[8] = 8; ihdr[9] = 6
-  return Buffer.concat([Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))])
+  ihdr.writeUInt32BE(size, 0)
+  ihdr.writeUInt32BE(size, 4)
+  ihdr[8] = 8
+  ihdr[9] = 6
+  return Buffer.concat([
+    Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]),
+    chunk('IHDR', ihdr),
+    chunk('IDAT', deflateSync(raw)),
+    chunk('IEND', Buffer.alloc(0)),
+  ])
 }
 function scene(inset) {
   return (u, v) => {

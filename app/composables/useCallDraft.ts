@@ -91,7 +91,12 @@ export function useCallDraft(userId: () => string | undefined) {
     ready = true
     window.addEventListener('pagehide', save)
   })
-  onBeforeUnmount(() => { if (import.meta.client) { save(); window.removeEventListener('pagehide', save) } })
+  onBeforeUnmount(() => {
+    if (import.meta.client) {
+      save()
+      window.removeEventListener('pagehide', save)
+    }
+  })
 
   function clear() {
     draft.value = blankCallDraft()

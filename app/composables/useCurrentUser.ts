@@ -12,7 +12,9 @@ export async function forgetDeviceUser() {
 }
 export async function deviceUser(): Promise<User | undefined> {
   if (!import.meta.client) return undefined
-  try { return await get<User>(USER_KEY, deviceStore('meta')) }
+  try {
+    return await get<User>(USER_KEY, deviceStore('meta'))
+  }
   catch { return undefined }
 }
 
@@ -35,7 +37,10 @@ export function useCurrentUser() {
       offlineUser.value = (await deviceUser()) ?? null
       return offlineUser.value
     }
-    if (answer.user) { await refreshSession(); return answer.user }
+    if (answer.user) {
+      await refreshSession()
+      return answer.user
+    }
     return null
   }
 

@@ -31,13 +31,18 @@ export function useDispatchBoard() {
     key: DISPATCH_KEY, query: { open: 'true', pageSize: 200, sort: 'receivedAt', dir: 'asc' },
   })
   const lastLoaded = ref(Date.now())
-  watch(fetched.data, () => { lastLoaded.value = Date.now() })
+  watch(fetched.data, () => {
+    lastLoaded.value = Date.now()
+  })
   const visible = useDocumentVisibility()
   const { pause, resume } = useIntervalFn(() => fetched.refresh(), DISPATCH_POLL_MS, { immediate: false })
   onMounted(resume)
   onBeforeUnmount(pause)
   watch(visible, (v) => {
-    if (v === 'visible') { fetched.refresh(); resume() }
+    if (v === 'visible') {
+      fetched.refresh()
+      resume()
+    }
     else pause()
   })
   return { data: fetched.data, error: fetched.error, refresh: fetched.refresh, status: fetched.status, lastLoaded, ready: fetched }

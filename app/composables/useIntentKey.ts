@@ -6,7 +6,9 @@ import type { WatchSource } from 'vue'
  */
 export function useIntentKey(source?: WatchSource | WatchSource[]) {
   const key = ref(crypto.randomUUID())
-  const renew = () => { key.value = crypto.randomUUID() }
+  const renew = () => {
+    key.value = crypto.randomUUID()
+  }
   if (source) watch(source, renew, { deep: true })
   return { key, renew }
 }

@@ -6,7 +6,12 @@ import type { ComboOption } from '~/utils/dataTable'
  * the previous answer are narrowed to the text typed so far, and `loading` stays true, so a fast
  * "type, Enter" never picks a row that no longer matches.
  */
-export function useLookup<T>(url: string, q: Ref<string>, map: (row: T) => ComboOption, extra: () => Record<string, string | undefined> = () => ({})) {
+export function useLookup<T>(
+  url: string,
+  q: Ref<string>,
+  map: (row: T) => ComboOption,
+  extra: () => Record<string, string | undefined> = () => ({}),
+) {
   const rows = ref<T[]>([]) as Ref<T[]>
   const answered = ref<string | null>(null)
   const running = ref(false)
@@ -18,9 +23,17 @@ export function useLookup<T>(url: string, q: Ref<string>, map: (row: T) => Combo
     running.value = true
     try {
       const res = await $fetch<{ items: T[] }>(url, { query: { q: q.value.trim() || undefined, pageSize: 8, ...extra() } })
-      if (n === asked) { rows.value = res.items; answered.value = qs }
+      if (n === asked) {
+        rows.value = res.items
+        answered.value = qs
+      }
     }
-    catch { if (n === asked) { rows.value = []; answered.value = qs } }
+    catch {
+      if (n === asked) {
+        rows.value = []
+        answered.value = qs
+      }
+    }
     finally { if (n === asked) running.value = false }
   }
   watchDebounced(question, run, { debounce: 150 })

@@ -4,7 +4,9 @@ import type { CreditNoteInput, PaymentRecordInput, RefundInput } from '#shared/s
 export function usePayments() {
   const refreshKeys = useRefreshKeys()
   async function post(path: string, body: object, key: string, invoiceId: string) {
-    try { return await $fetch(path, { method: 'POST', body, headers: { 'Idempotency-Key': key } }) }
+    try {
+      return await $fetch(path, { method: 'POST', body, headers: { 'Idempotency-Key': key } })
+    }
     finally { await refreshKeys(invoiceKey(invoiceId)) }
   }
   return {

@@ -3,13 +3,15 @@ import type { UserCreateInput, UserPatchInput } from '#shared/schemas/users'
 export const PEOPLE_KEY = 'setup-people'
 
 export function usePeople() {
+  // Not refreshNuxtData: it waits for an idle moment that may not come (useRefreshKeys.ts).
+  const refresh = useRefreshKeys()
   async function addPerson(input: UserCreateInput) {
     await $fetch('/api/users', { method: 'POST', body: input })
-    await refreshNuxtData(PEOPLE_KEY)
+    await refresh(PEOPLE_KEY)
   }
   async function changePerson(id: string, patch: UserPatchInput) {
     await $fetch(`/api/users/${id}`, { method: 'PATCH', body: patch })
-    await refreshNuxtData(PEOPLE_KEY)
+    await refresh(PEOPLE_KEY)
   }
   return { addPerson, changePerson }
 }

@@ -16,10 +16,18 @@ export function useReadingUnit(quantity: MaybeRefOrGetter<NumericMeasure>) {
     },
     set(u) {
       switch (toValue(quantity)) {
-        case 'temperature': prefs.temperatureUnit = u as 'degC' | 'degF'; break
-        case 'resistance': prefs.resistanceUnit = u as 'ohm' | 'kohm'; break
-        case 'voltage': prefs.voltageUnit = u as 'V' | 'mV'; break
-        case 'pressure': prefs.pressureUnit = u as 'kPa' | 'psi'; break
+        case 'temperature':
+          prefs.temperatureUnit = u as 'degC' | 'degF'
+          break
+        case 'resistance':
+          prefs.resistanceUnit = u as 'ohm' | 'kohm'
+          break
+        case 'voltage':
+          prefs.voltageUnit = u as 'V' | 'mV'
+          break
+        case 'pressure':
+          prefs.pressureUnit = u as 'kPa' | 'psi'
+          break
       }
     },
   })

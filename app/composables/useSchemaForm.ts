@@ -8,7 +8,11 @@ import type { z } from 'zod'
 export interface FormView {
   errorOf: (name: string) => string | undefined
   errorId: (name: string) => string
-  attrs: (name: string, hintId?: string) => { 'aria-invalid': 'true' | undefined, 'aria-describedby': string | undefined, 'class': string | undefined }
+  attrs: (name: string, hintId?: string) => {
+    'aria-invalid': 'true' | undefined
+    'aria-describedby': string | undefined
+    'class': string | undefined
+  }
   /** The fields under one key (`newCustomer`), for a component that shows a nested object. */
   under: (prefix: string) => FormView
 }
@@ -46,15 +50,26 @@ export function useSchemaForm<S extends z.ZodType>(schema: S, idPrefix: string, 
 
   function check<T extends z.ZodType = S>(input: unknown, other?: T): z.output<T> | undefined {
     const r = (other ?? schema).safeParse(input)
-    if (r.success) { errors.value = {}; return r.data as z.output<T> }
+    if (r.success) {
+      errors.value = {}
+      return r.data as z.output<T>
+    }
     show(fieldErrorsOf(r.error))
     return undefined
   }
-  function fail(err: unknown) { show(errorFields(err)) }
+  function fail(err: unknown) {
+    show(errorFields(err))
+  }
   async function save(work: () => unknown): Promise<boolean> {
     busy.value = true
-    try { await work(); return true }
-    catch (err) { fail(err); return false }
+    try {
+      await work()
+      return true
+    }
+    catch (err) {
+      fail(err)
+      return false
+    }
     finally { busy.value = false }
   }
   /** The message for a field, or for the first of its sub-fields (`spec` shows `spec.min`'s). */
@@ -65,7 +80,11 @@ export function useSchemaForm<S extends z.ZodType>(schema: S, idPrefix: string, 
   /** Bind on the input: `v-bind="form.attrs('partNumber')"`; `hintId` stays described while there is no error. */
   function attrs(name: string, hintId?: string) {
     const bad = !!errorOf(name)
-    return { 'aria-invalid': bad ? 'true' as const : undefined, 'aria-describedby': bad ? errorId(name) : hintId, 'class': bad ? 'field-error' : undefined }
+    return {
+      'aria-invalid': bad ? 'true' as const : undefined,
+      'aria-describedby': bad ? errorId(name) : hintId,
+      'class': bad ? 'field-error' : undefined,
+    }
   }
   // Reactive, so templates read `form.busy` and `form.errors.x` without `.value`.
   const view = (prefix: string): FormView => ({
@@ -74,5 +93,15 @@ export function useSchemaForm<S extends z.ZodType>(schema: S, idPrefix: string, 
     attrs: (n, hint) => attrs(prefix + n, hint),
     under: p => view(`${prefix}${p}.`),
   })
-  return reactive({ errors, busy, check, fail, save, clear: () => { errors.value = {} }, ...view('') }) as SchemaForm<S>
+  return reactive({
+    errors,
+    busy,
+    check,
+    fail,
+    save,
+    clear: () => {
+      errors.value = {}
+    },
+    ...view(''),
+  }) as SchemaForm<S>
 }

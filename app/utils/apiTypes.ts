@@ -4,7 +4,8 @@ import type { InternalApi, Serialize, Simplify } from 'nitropack/types'
 
 type Answer<Route extends keyof InternalApi, M extends keyof InternalApi[Route]> = Simplify<Serialize<Awaited<InternalApi[Route][M]>>>
 
-export type CallRecordView = Answer<'/api/calls/:id', 'get'>
+/** The office's whole record (a mechanic's answer, `view: 'mechanic'`, leaves out the customer's billing fields). */
+export type CallRecordView = Extract<Answer<'/api/calls/:id', 'get'>, { view: 'office' }>
 export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
 export type UnitView = Answer<'/api/units/:id', 'get'>
 export type InvoiceView = Answer<'/api/invoices/:id', 'get'>

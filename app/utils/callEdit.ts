@@ -40,8 +40,10 @@ const KNOWN_LAMPS = ['check_engine', 'stop_engine', 'emissions', 'def', 'abs', '
 
 export function callEditDraftOf(c: CallFields): CallEditDraft {
   return {
-    unitId: c.unitId ?? '', locationText: c.locationText, lat: c.lat === null ? '' : String(c.lat), lon: c.lon === null ? '' : String(c.lon),
-    complaint: c.complaint, lamps: c.lamps.filter(l => KNOWN_LAMPS.includes(l)), otherLamps: c.lamps.filter(l => !KNOWN_LAMPS.includes(l)).join(', '),
+    unitId: c.unitId ?? '', locationText: c.locationText,
+    lat: c.lat === null ? '' : String(c.lat), lon: c.lon === null ? '' : String(c.lon),
+    complaint: c.complaint, lamps: c.lamps.filter(l => KNOWN_LAMPS.includes(l)),
+    otherLamps: c.lamps.filter(l => !KNOWN_LAMPS.includes(l)).join(', '),
     derate: c.derate, derateNote: c.derateNote ?? '', loaded: c.loaded, hazmat: c.hazmat, safetyNotes: c.safetyNotes ?? '',
     callerName: c.callerName ?? '', callerPhone: c.callerPhone ?? '', poNumber: c.poNumber ?? '',
     authLimit: c.authLimitCents === null ? '' : (c.authLimitCents / 100).toFixed(2),
@@ -60,9 +62,12 @@ export function callPatchOf(d: CallEditDraft): Omit<CallPatchInput, 'version'> {
 }
 
 export const CALL_FIELD_LABELS: Record<keyof ReturnType<typeof callPatchOf>, string> = {
-  customerId: 'Customer', unitId: 'Unit', locationText: 'Location', lat: 'Latitude', lon: 'Longitude', complaint: 'Complaint', lamps: 'Lamps',
+  customerId: 'Customer', unitId: 'Unit', locationText: 'Location', lat: 'Latitude', lon: 'Longitude',
+  complaint: 'Complaint', lamps: 'Lamps',
   derate: 'Engine', derateNote: 'Derate detail', loaded: 'Loaded', hazmat: 'Hazmat', safetyNotes: 'Scene safety', callerName: 'Caller',
   callerPhone: 'Call-back number', poNumber: 'PO number', authLimitCents: 'Authorized up to',
 }
 
-export const showValue = (v: unknown) => (v === null || v === undefined || v === '' ? '' : Array.isArray(v) ? v.join(', ') : typeof v === 'boolean' ? (v ? 'yes' : 'no') : String(v))
+export const showValue = (v: unknown) => (v === null || v === undefined || v === ''
+  ? ''
+  : Array.isArray(v) ? v.join(', ') : typeof v === 'boolean' ? (v ? 'yes' : 'no') : String(v))

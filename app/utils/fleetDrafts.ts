@@ -24,8 +24,12 @@ export type UnitDraft = {
   notes: string
 }
 
-export const blankCustomer = (name = ''): CustomerDraft => ({ name, kind: 'fleet', billingTerms: 'card', netDays: '', billingEmail: '', phone: '', taxExempt: false, notes: '' })
-export const blankUnit = (unitNumber = ''): UnitDraft => ({ unitNumber, vin: '', vinOverrideReason: '', yearMakeModel: '', engine: '', odometer: '', odometerUnit: 'km', engineHours: '', notes: '' })
+export const blankCustomer = (name = ''): CustomerDraft => ({
+  name, kind: 'fleet', billingTerms: 'card', netDays: '', billingEmail: '', phone: '', taxExempt: false, notes: '',
+})
+export const blankUnit = (unitNumber = ''): UnitDraft => ({
+  unitNumber, vin: '', vinOverrideReason: '', yearMakeModel: '', engine: '', odometer: '', odometerUnit: 'km', engineHours: '', notes: '',
+})
 
 export function customerInput(d: CustomerDraft): CustomerCreateInput {
   return { ...d, netDays: d.billingTerms === 'account' ? numberFromText(d.netDays) : null }
@@ -34,17 +38,38 @@ export function unitInput(d: UnitDraft): UnitDraftInput {
   return { ...d, odometer: numberFromText(d.odometer), engineHours: numberFromText(d.engineHours) }
 }
 
-type CustomerRow = { name: string, kind: string, billingTerms: 'card' | 'account', netDays: number | null, billingEmail: string | null, phone: string | null, taxExempt: boolean, notes: string | null }
+type CustomerRow = {
+  name: string
+  kind: string
+  billingTerms: 'card' | 'account'
+  netDays: number | null
+  billingEmail: string | null
+  phone: string | null
+  taxExempt: boolean
+  notes: string | null
+}
 export function customerDraftOf(c: CustomerRow): CustomerDraft {
   return {
-    name: c.name, kind: c.kind === 'owner_operator' ? 'owner_operator' : 'fleet', billingTerms: c.billingTerms, netDays: c.netDays === null ? '' : String(c.netDays),
+    name: c.name, kind: c.kind === 'owner_operator' ? 'owner_operator' : 'fleet', billingTerms: c.billingTerms,
+    netDays: c.netDays === null ? '' : String(c.netDays),
     billingEmail: c.billingEmail ?? '', phone: c.phone ?? '', taxExempt: c.taxExempt, notes: c.notes ?? '',
   }
 }
-type UnitRow = { unitNumber: string, vin: string | null, vinOverrideReason: string | null, yearMakeModel: string | null, engine: string | null, odometer: number | null, odometerUnit: string, engineHours: number | null, notes: string | null }
+type UnitRow = {
+  unitNumber: string
+  vin: string | null
+  vinOverrideReason: string | null
+  yearMakeModel: string | null
+  engine: string | null
+  odometer: number | null
+  odometerUnit: string
+  engineHours: number | null
+  notes: string | null
+}
 export function unitDraftOf(u: UnitRow): UnitDraft {
   return {
-    unitNumber: u.unitNumber, vin: u.vin ?? '', vinOverrideReason: u.vinOverrideReason ?? '', yearMakeModel: u.yearMakeModel ?? '', engine: u.engine ?? '',
+    unitNumber: u.unitNumber, vin: u.vin ?? '', vinOverrideReason: u.vinOverrideReason ?? '',
+    yearMakeModel: u.yearMakeModel ?? '', engine: u.engine ?? '',
     odometer: u.odometer === null ? '' : String(u.odometer), odometerUnit: u.odometerUnit === 'mi' ? 'mi' : 'km',
     engineHours: u.engineHours === null ? '' : String(u.engineHours), notes: u.notes ?? '',
   }

@@ -10,7 +10,10 @@ import { chromium, type BrowserContext, type Page } from '@playwright/test'
 const BASE = process.env.WAYSIDE_BENCH_URL ?? process.env.WAYSIDE_TEST_URL ?? 'http://127.0.0.1:3190'
 const RUNS = Number(process.env.WAYSIDE_BENCH_RUNS ?? 5)
 const CPU_SLOWDOWN = 4
-const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']
+const ARGS = [
+  '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+  '--disable-background-networking', '--disable-component-update', '--disable-sync',
+]
 const profile = mkdtempSync(join(tmpdir(), 'wayside-bench-'))
 
 function launch(dir = profile): Promise<BrowserContext> {
@@ -25,7 +28,10 @@ async function slow(page: Page) {
   await cdp.send('Emulation.setCPUThrottlingRate', { rate: CPU_SLOWDOWN })
 }
 
-const median = (xs: number[]) => { const s = [...xs].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]! }
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b)
+  return s[Math.floor(s.length / 2)]!
+}
 
 try {
   // Once with signal: sign in, let the worker take over and the first sync fill IndexedDB.
@@ -63,8 +69,10 @@ try {
     await ctx.close()
     rmSync(bare, { recursive: true, force: true })
   }
-  console.log(`cold offline start of /m to first call, CPU ${CPU_SLOWDOWN}× slower: median ${median(cold)} ms (runs: ${cold.join(', ')} ms)`)
-  console.log(`static page (/favicon.svg) from the same server, CPU ${CPU_SLOWDOWN}× slower: median ${median(staticFile)} ms (runs: ${staticFile.join(', ')} ms)`)
+  console.log(`cold offline start of /m to first call, CPU ${CPU_SLOWDOWN}× slower: `
+    + `median ${median(cold)} ms (runs: ${cold.join(', ')} ms)`)
+  console.log(`static page (/favicon.svg) from the same server, CPU ${CPU_SLOWDOWN}× slower: `
+    + `median ${median(staticFile)} ms (runs: ${staticFile.join(', ')} ms)`)
 }
 finally {
   rmSync(profile, { recursive: true, force: true })

@@ -41,7 +41,8 @@ async function pushAll(cookie: string, callId: string, n: number) {
   const clientId = randomUUID()
   const at = new Date().toISOString()
   const ops = Array.from({ length: n }, (_, i) => ({
-    opId: randomUUID(), clientId, seq: i + 1, at, schemaVersion: 1, entity: 'reading', entityId: randomUUID(), action: 'create', changes: reading(callId, i),
+    opId: randomUUID(), clientId, seq: i + 1, at, schemaVersion: 1,
+    entity: 'reading', entityId: randomUUID(), action: 'create', changes: reading(callId, i),
   }))
   const started = performance.now()
   for (let i = 0; i < ops.length; i += BATCH) {
@@ -50,7 +51,9 @@ async function pushAll(cookie: string, callId: string, n: number) {
       body: JSON.stringify({ clientId, ops: ops.slice(i, i + BATCH) }),
     })
     const body = await res.json() as { results: { status: string }[] }
-    if (!res.ok || body.results.some(r => r.status !== 'applied')) throw new Error(`push failed: ${res.status} ${JSON.stringify(body).slice(0, 300)}`)
+    if (!res.ok || body.results.some(r => r.status !== 'applied')) {
+      throw new Error(`push failed: ${res.status} ${JSON.stringify(body).slice(0, 300)}`)
+    }
   }
   return performance.now() - started
 }
@@ -62,10 +65,12 @@ async function insertAll(callId: string, n: number) {
     const lit = (v: unknown) => client.escapeLiteral(typeof v === 'string' ? v : JSON.stringify(v))
     const values = Array.from({ length: n }, (_, i) => {
       const r = reading(callId, i)
-      return `(${lit(randomUUID())}, ${lit(callId)}, ${lit(MECH1)}, ${lit(at)}, ${lit(r.label)}, ${lit(r.quantity)}, ${r.value}, ${lit(r.unit)}, ${lit(r.component)}, ${lit(r.pins)}, ${lit(r.conditions)}, ${lit(r.spec)}, 'pass')`
+      return `(${lit(randomUUID())}, ${lit(callId)}, ${lit(MECH1)}, ${lit(at)}, ${lit(r.label)}, ${lit(r.quantity)}, ${r.value}, `
+        + `${lit(r.unit)}, ${lit(r.component)}, ${lit(r.pins)}, ${lit(r.conditions)}, ${lit(r.spec)}, 'pass')`
     }).join(',\n')
     const started = performance.now()
-    await client.query(`INSERT INTO readings (id, call_id, created_by, device_at, label, quantity, value, unit, component, pins, conditions, spec, verdict) VALUES ${values}`)
+    await client.query('INSERT INTO readings (id, call_id, created_by, device_at, label, quantity, value, unit, component, pins, '
+      + `conditions, spec, verdict) VALUES ${values}`)
     return performance.now() - started
   }
   finally { client.release() }

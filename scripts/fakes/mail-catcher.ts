@@ -81,7 +81,9 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
       // Connections held while stalled are turned away; their clients gave up long ago.
       if (!stalled) {
         for (const release of held.splice(0)) {
-          try { release(Object.assign(new Error('Try again'), { responseCode: 421 })) }
+          try {
+            release(Object.assign(new Error('Try again'), { responseCode: 421 }))
+          }
           catch { /* the client closed it */ }
         }
       }

@@ -15,6 +15,9 @@ const pay = await startPaymentFake({
 })
 console.log(`[fakes] SMTP catcher 127.0.0.1:${smtpPort} (read back at http://127.0.0.1:${mailHttpPort}/messages), payment fake 127.0.0.1:${payPort}`)
 
-const stop = async () => { await Promise.allSettled([mail.close(), pay.close()]); process.exit(0) }
+const stop = async () => {
+  await Promise.allSettled([mail.close(), pay.close()])
+  process.exit(0)
+}
 process.on('SIGINT', stop)
 process.on('SIGTERM', stop)

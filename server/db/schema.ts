@@ -62,12 +62,26 @@ export const users = pgTable('users', {
   check('users_lon_range', sql`${t.lastLon} IS NULL OR ${t.lastLon} BETWEEN -180 AND 180`),
 ])
 
-/** Failed sign-ins per key (`email:…` or `ip:…`), for slowing and then refusing guesses. */
+/**
+ * Sign-in tries reserved per key (`acct:<email>|<ip>` or `ip:<ip>`) within a window that starts at
+ * the first try; `lockedUntil` is the pause after a key used up its bound (server/utils/loginLimiter.ts).
+ */
 export const loginAttempts = pgTable('login_attempts', {
   key: text('key').primaryKey(),
   failures: integer('failures').notNull().default(0),
   lastFailureAt: ts('last_failure_at').notNull().defaultNow(),
   lockedUntil: ts('locked_until'),
+  windowStartedAt: ts('window_started_at').notNull().defaultNow(),
+})
+
+/**
+ * Each person's session epoch, sealed into their session cookie at sign-in and compared on every
+ * request: signing out or a new password moves it on, which ends every session made before.
+ */
+export const sessionEpochs = pgTable('session_epochs', {
+  userId: uuid('user_id').primaryKey().references(() => users.id, { onDelete: 'cascade' }),
+  epoch: integer('epoch').notNull().default(0),
+  changedAt: ts('changed_at').notNull().defaultNow(),
 })
 
 // ── Our business ──────────────────────────────────────────────────────────────────────────
@@ -178,10 +192,12 @@ export const rates = pgTable('rates', {
   ...synced,
 }, t => [
   check('rates_travel_unit', sql`${t.travelUnit} IN ('km', 'mi')`),
-  check('rates_nonneg', sql`${t.laborCentsPerHour} >= 0 AND ${t.travelCentsPerUnit} >= 0 AND ${t.partsMarkupPct} >= 0 AND ${t.taxRateBasisPoints} >= 0 AND ${t.averageRoadKph} > 0`),
+  check('rates_nonneg', sql`${t.laborCentsPerHour} >= 0 AND ${t.travelCentsPerUnit} >= 0 AND ${t.partsMarkupPct} >= 0 AND ${
+    sql`${t.taxRateBasisPoints} >= 0 AND ${t.averageRoadKph} > 0`}`),
   check('rates_travel_basis', sql`${t.travelBasis} IN ('distance', 'time')`),
   check('rates_hours', sql`${t.openMinute} BETWEEN 0 AND 1440 AND ${t.closeMinute} BETWEEN 0 AND 1440`),
-  check('rates_fees_nonneg', sql`${t.travelCentsPerHour} >= 0 AND ${t.shopSuppliesBasisPoints} >= 0 AND ${t.environmentalFeeCents} >= 0 AND ${t.roadFactorPct} >= 100`),
+  check('rates_fees_nonneg', sql`${t.travelCentsPerHour} >= 0 AND ${t.shopSuppliesBasisPoints} >= 0 AND ${
+    sql`${t.environmentalFeeCents} >= 0 AND ${t.roadFactorPct} >= 100`}`),
 ])
 
 // ── Fleets and units ──────────────────────────────────────────────────────────────────────
@@ -715,8 +731,14 @@ export const callsRelations = relations(calls, ({ one, many }) => ({
   events: many(callEvents),
   conflicts: many(conflicts),
 }))
-export const customersRelations = relations(customers, ({ many }) => ({ units: many(units), sites: many(customerSites), calls: many(calls) }))
-export const customerSitesRelations = relations(customerSites, ({ one }) => ({ customer: one(customers, { fields: [customerSites.customerId], references: [customers.id] }) }))
+export const customersRelations = relations(customers, ({ many }) => ({
+  units: many(units),
+  sites: many(customerSites),
+  calls: many(calls),
+}))
+export const customerSitesRelations = relations(customerSites, ({ one }) => ({
+  customer: one(customers, { fields: [customerSites.customerId], references: [customers.id] }),
+}))
 export const unitsRelations = relations(units, ({ one, many }) => ({
   customer: one(customers, { fields: [units.customerId], references: [customers.id] }),
   calls: many(calls),
@@ -736,9 +758,16 @@ export const signOffsRelations = childOfCall(signOffs)
 export const callEventsRelations = childOfCall(callEvents)
 export const conflictsRelations = childOfCall(conflicts)
 export const testCardsRelations = relations(testCards, ({ many }) => ({ versions: many(testCardVersions) }))
-export const testCardVersionsRelations = relations(testCardVersions, ({ one }) => ({ card: one(testCards, { fields: [testCardVersions.cardId], references: [testCards.id] }) }))
-export const serviceTrucksRelations = relations(serviceTrucks, ({ many, one }) => ({ stock: many(truckStock), yard: one(yards, { fields: [serviceTrucks.yardId], references: [yards.id] }) }))
-export const truckStockRelations = relations(truckStock, ({ one }) => ({ truck: one(serviceTrucks, { fields: [truckStock.truckId], references: [serviceTrucks.id] }) }))
+export const testCardVersionsRelations = relations(testCardVersions, ({ one }) => ({
+  card: one(testCards, { fields: [testCardVersions.cardId], references: [testCards.id] }),
+}))
+export const serviceTrucksRelations = relations(serviceTrucks, ({ many, one }) => ({
+  stock: many(truckStock),
+  yard: one(yards, { fields: [serviceTrucks.yardId], references: [yards.id] }),
+}))
+export const truckStockRelations = relations(truckStock, ({ one }) => ({
+  truck: one(serviceTrucks, { fields: [truckStock.truckId], references: [serviceTrucks.id] }),
+}))
 export const invoicesRelations = relations(invoices, ({ one, many }) => ({
   call: one(calls, { fields: [invoices.callId], references: [calls.id] }),
   customer: one(customers, { fields: [invoices.customerId], references: [customers.id] }),
@@ -751,7 +780,9 @@ export const invoiceAdjustmentsRelations = relations(invoiceAdjustments, ({ one 
   invoice: one(invoices, { fields: [invoiceAdjustments.invoiceId], references: [invoices.id] }),
   by: one(users, { fields: [invoiceAdjustments.byUserId], references: [users.id] }),
 }))
-export const invoiceLinesRelations = relations(invoiceLines, ({ one }) => ({ invoice: one(invoices, { fields: [invoiceLines.invoiceId], references: [invoices.id] }) }))
+export const invoiceLinesRelations = relations(invoiceLines, ({ one }) => ({
+  invoice: one(invoices, { fields: [invoiceLines.invoiceId], references: [invoices.id] }),
+}))
 export const paymentsRelations = relations(payments, ({ one, many }) => ({
   invoice: one(invoices, { fields: [payments.invoiceId], references: [invoices.id] }),
   refunds: many(refunds),

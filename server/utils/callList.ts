@@ -22,7 +22,9 @@ export async function listCalls(user: User, q: z.output<typeof callListQuerySche
     )!)
   }
   const cond = where.length ? and(...where) : undefined
-  const sortCol = { number: calls.number, receivedAt: calls.receivedAt, statusChangedAt: calls.statusChangedAt, status: calls.status }[q.sort ?? 'receivedAt']
+  const sortCol = {
+    number: calls.number, receivedAt: calls.receivedAt, statusChangedAt: calls.statusChangedAt, status: calls.status,
+  }[q.sort ?? 'receivedAt']
   const order = q.dir === 'asc' ? asc(sortCol) : desc(sortCol)
 
   const db = useDb()
@@ -44,7 +46,9 @@ export async function listCalls(user: User, q: z.output<typeof callListQuerySche
       .where(cond),
   ])
   return {
-    items: rows.map(r => ({ ...r.call, changeXid: undefined, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null })),
+    items: rows.map(r => ({
+      ...r.call, changeXid: undefined, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
+    })),
     total: count?.n ?? 0,
   }
 }

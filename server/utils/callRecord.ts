@@ -89,3 +89,8 @@ export async function getCallRecord(id: string) {
 }
 
 export type CallRecord = NonNullable<Awaited<ReturnType<typeof getCallRecord>>>
+
+/** What a mechanic sees of a call: the customer without billing details (server/utils/mechanicView.ts). */
+export function forMechanic(record: CallRecord) {
+  return { ...record, customer: mechanicCustomer(record.customer) }
+}

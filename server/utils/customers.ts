@@ -17,9 +17,12 @@ export async function listCustomers(q: z.output<typeof customerListQuerySchema>)
   }
   const cond = where.length ? and(...where) : undefined
   // Correlated subqueries name their tables outright: drizzle leaves columns unqualified in a one-table select.
-  const openCalls = sql<number>`(SELECT count(*)::int FROM calls oc WHERE oc.customer_id = "customers"."id" AND oc.status NOT IN (${sql.join(CLOSED_STATUSES.map(s => sql`${s}`), sql`, `)}))`
+  const openCalls = sql<number>`(SELECT count(*)::int FROM calls oc WHERE oc.customer_id = "customers"."id"
+    AND oc.status NOT IN (${sql.join(CLOSED_STATUSES.map(s => sql`${s}`), sql`, `)}))`
   const unitCount = sql<number>`(SELECT count(*)::int FROM units cu WHERE cu.customer_id = "customers"."id")`
-  const sortCol = { name: customers.name, kind: customers.kind, billingTerms: customers.billingTerms, createdAt: customers.createdAt, openCalls }[q.sort ?? 'name']
+  const sortCol = {
+    name: customers.name, kind: customers.kind, billingTerms: customers.billingTerms, createdAt: customers.createdAt, openCalls,
+  }[q.sort ?? 'name']
   const order = q.dir === 'desc' ? desc(sortCol) : asc(sortCol)
   const db = useDb()
   const [rows, [n]] = await Promise.all([
@@ -59,7 +62,9 @@ export async function updateCustomer(id: string, patch: z.output<typeof customer
   // Switching to card drops net days; switching to account needs them (checked here against the stored row too).
   const terms = changes.billingTerms ?? existing.billingTerms
   if (terms === 'card') changes.netDays = null
-  else if ((changes.netDays === undefined ? existing.netDays : changes.netDays) === null) ruleError('netDays', 'An account customer needs net days (0 for due on receipt)')
+  else if ((changes.netDays === undefined ? existing.netDays : changes.netDays) === null) {
+    ruleError('netDays', 'An account customer needs net days (0 for due on receipt)')
+  }
   const [row] = await db.update(tables.customers).set(changes)
     .where(and(eq(tables.customers.id, id), eq(tables.customers.version, version))).returning()
   if (!row) staleAnswer(await getCustomer(id), 'customer')

@@ -15,8 +15,10 @@ const QUERIES: Record<ReportName, (r: ReportRange) => ReturnType<typeof sql>> = 
     GROUP BY d ORDER BY d`,
   'response-times': r => sql`
     SELECT to_char(date_trunc('day', received_at), 'YYYY-MM-DD') AS day, count(*)::int AS calls,
-      round(percentile_cont(0.5) WITHIN GROUP (ORDER BY extract(epoch FROM assigned_at - received_at) / 60)::numeric, 1)::float AS "medianToAssignMin",
-      round(percentile_cont(0.5) WITHIN GROUP (ORDER BY extract(epoch FROM on_site_at - received_at) / 60)::numeric, 1)::float AS "medianToArriveMin"
+      round(percentile_cont(0.5) WITHIN GROUP (ORDER BY extract(epoch FROM assigned_at - received_at) / 60)::numeric, 1)::float
+        AS "medianToAssignMin",
+      round(percentile_cont(0.5) WITHIN GROUP (ORDER BY extract(epoch FROM on_site_at - received_at) / 60)::numeric, 1)::float
+        AS "medianToArriveMin"
     FROM calls WHERE ${range(r, 'received_at')} AND assigned_at IS NOT NULL
     GROUP BY 1 ORDER BY 1`,
   'fix-rate': r => sql`

@@ -11,13 +11,18 @@ export async function listUnits(q: z.output<typeof unitListQuerySchema>) {
   if (q.customerId) where.push(eq(units.customerId, q.customerId))
   if (q.q) {
     const like = likePattern(q.q)
-    where.push(or(ilike(units.unitNumber, like), ilike(units.vin, like), ilike(units.yearMakeModel, like), ilike(units.engine, like), ilike(customers.name, like))!)
+    where.push(or(
+      ilike(units.unitNumber, like), ilike(units.vin, like), ilike(units.yearMakeModel, like),
+      ilike(units.engine, like), ilike(customers.name, like),
+    )!)
   }
   const cond = where.length ? and(...where) : undefined
   // Correlated subqueries name their tables outright (drizzle may leave columns unqualified).
   const lastCall = sql<string | null>`(SELECT max(uc.received_at) FROM calls uc WHERE uc.unit_id = "units"."id")`
   const callCount = sql<number>`(SELECT count(*)::int FROM calls uc WHERE uc.unit_id = "units"."id")`
-  const sortCol = { unitNumber: units.unitNumber, customer: customers.name, yearMakeModel: units.yearMakeModel, odometer: units.odometer, lastCall }[q.sort ?? 'unitNumber']
+  const sortCol = {
+    unitNumber: units.unitNumber, customer: customers.name, yearMakeModel: units.yearMakeModel, odometer: units.odometer, lastCall,
+  }[q.sort ?? 'unitNumber']
   const order = q.dir === 'desc' ? sql`${sortCol} DESC NULLS LAST` : sql`${sortCol} ASC NULLS LAST`
   const db = useDb()
   const [rows, [n]] = await Promise.all([
@@ -27,7 +32,9 @@ export async function listUnits(q: z.output<typeof unitListQuerySchema>) {
     db.select({ n: sql<number>`count(*)::int` }).from(units).innerJoin(customers, eq(customers.id, units.customerId)).where(cond),
   ])
   return {
-    items: rows.map(r => ({ ...withoutXid(r.unit), customer: r.customer, lastCallAt: r.lastCall ? new Date(r.lastCall) : null, callCount: r.callCount })),
+    items: rows.map(r => ({
+      ...withoutXid(r.unit), customer: r.customer, lastCallAt: r.lastCall ? new Date(r.lastCall) : null, callCount: r.callCount,
+    })),
     total: n?.n ?? 0,
   }
 }
@@ -60,7 +67,9 @@ export async function getUnitWithHistory(id: string, user: User) {
       id: c.id, number: c.number, status: c.status, outcome: c.outcome, receivedAt: c.receivedAt, completedAt: c.completedAt,
       locationText: c.locationText, complaint: c.complaint, mechanic: c.mechanic,
       story: { complaint: c.storyComplaint, cause: c.storyCause, correction: c.storyCorrection },
-      faultCodes: c.faultCodes.map(f => ({ id: f.id, code: f.code, spn: f.spn, fmi: f.fmi, state: f.state, count: f.count, description: describeFaultCodeSafe(f) })),
+      faultCodes: c.faultCodes.map(f => ({
+        id: f.id, code: f.code, spn: f.spn, fmi: f.fmi, state: f.state, count: f.count, description: describeFaultCodeSafe(f),
+      })),
       partLines: c.partLines.map(p => ({ id: p.id, partNumber: p.partNumber, description: p.description, quantity: p.quantity })),
       comebacks: comebacks.filter(x => x.callId === c.id).map(x => ({ ...x, earlierNumber: numberOf.get(x.earlierCallId) ?? null })),
       repeatedBy: comebacks.filter(x => x.earlierCallId === c.id).map(x => ({ ...x, laterNumber: numberOf.get(x.callId) ?? null })),
@@ -70,7 +79,9 @@ export async function getUnitWithHistory(id: string, user: User) {
 
 /** describeFaultCode for stored rows: a malformed code from a device is shown as typed, not a 500. */
 export function describeFaultCodeSafe(f: { code: string | null, spn: number | null, fmi: number | null }) {
-  try { return describeFaultCode(f) }
+  try {
+    return describeFaultCode(f)
+  }
   catch (err) { return { label: f.code ?? `SPN ${f.spn} FMI ${f.fmi}`, problem: (err as Error).message } }
 }
 
@@ -113,6 +124,7 @@ export async function updateUnit(id: string, patch: z.output<typeof unitPatchSch
 
 /** Units of these ids that belong to the customer, for checking a pick. */
 export async function unitBelongsTo(tx: Tx | Db, unitId: string, customerId: string) {
-  const rows = await tx.select({ id: tables.units.id }).from(tables.units).where(and(inArray(tables.units.id, [unitId]), eq(tables.units.customerId, customerId)))
+  const rows = await tx.select({ id: tables.units.id }).from(tables.units)
+    .where(and(inArray(tables.units.id, [unitId]), eq(tables.units.customerId, customerId)))
   return rows.length > 0
 }

@@ -1,5 +1,6 @@
 import { z } from 'zod'
-import { noNul, NUL_MESSAGE, optText, recordId, versionField } from './fields'
+import { optText, recordId, versionField } from './fields'
+import { cleanText, requiredText, searchQuery } from './text'
 import { customerCreateSchema } from './customers'
 import { unitDraftSchema } from './units'
 import { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus } from '../utils/callStatus'
@@ -24,7 +25,7 @@ export const callListQuerySchema = z.object({
   mechanicId: z.string().uuid('Not a valid mechanic id').optional(),
   customerId: z.string().uuid('Not a valid customer id').optional(),
   unitId: z.string().uuid('Not a valid unit id').optional(),
-  q: z.string().trim().max(100).optional(),
+  q: searchQuery,
   sort: z.enum(['number', 'receivedAt', 'statusChangedAt', 'status']).optional(),
   dir: z.enum(['asc', 'desc']).optional(),
   page: z.coerce.number({ message: 'Page must be a number' }).int().min(1).max(10_000).default(1),
@@ -54,24 +55,24 @@ export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
   shutdown: 'Shut down, will not run',
 }
 
-const latField = z.number({ message: 'Latitude must be a number' }).min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
-const lonField = z.number({ message: 'Longitude must be a number' }).min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
+const latField = z.number({ message: 'Latitude must be a number' })
+  .min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()
+const lonField = z.number({ message: 'Longitude must be a number' })
+  .min(-180, 'Longitude is from -180 to 180').max(180, 'Longitude is from -180 to 180').nullable().optional()
 
 /** The dispatch fields as the office edits them; sync's call fields take the same schemas. */
 export const dispatchFields = {
-  locationText: z.string({ message: 'Say where the truck is' }).trim().min(1, 'Say where the truck is').max(300, 'Location is too long (at most 300 characters)')
-    .refine(noNul, NUL_MESSAGE),
+  locationText: requiredText(300, 'Location', { missing: 'Say where the truck is' }),
   lat: latField,
   lon: lonField,
-  complaint: z.string({ message: 'Write the driver\'s complaint' }).trim().min(1, 'Write the driver\'s complaint')
-    .max(2000, 'Complaint is too long (at most 2000 characters)').refine(noNul, NUL_MESSAGE),
-  lamps: z.array(z.string().trim().min(1).max(40, 'A lamp name is at most 40 characters').refine(noNul, NUL_MESSAGE), { message: 'Lamps must be a list' })
-    .max(12, 'At most 12 lamps'),
+  complaint: requiredText(2000, 'Complaint', { multiline: true, missing: 'Write the driver\'s complaint' }),
+  lamps: z.array(cleanText('A lamp name').min(1, 'Name the lamp').max(40, 'A lamp name is at most 40 characters'),
+    { message: 'Lamps must be a list' }).max(12, 'At most 12 lamps'),
   derate: z.enum(DERATE_STATES, { message: 'Pick how the engine runs' }),
   derateNote: optText(300, 'Derate note'),
   loaded: z.boolean({ message: 'Loaded must be yes or no' }),
   hazmat: z.boolean({ message: 'Hazmat must be yes or no' }),
-  safetyNotes: optText(1000, 'Safety notes'),
+  safetyNotes: optText(1000, 'Safety notes', { multiline: true }),
   callerName: optText(120, 'Caller name'),
   callerPhone: optText(40, 'Caller phone'),
   poNumber: optText(60, 'PO number'),
@@ -105,10 +106,16 @@ export const callCreateSchema = z.object({
   mechanicId: recordId('a mechanic').optional(),
   serviceTruckId: recordId('a service truck').nullable().optional(),
 }).superRefine((v, ctx) => {
-  if (!v.customerId && !v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
-  if (v.customerId && v.newCustomer) ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  if (!v.customerId && !v.newCustomer) {
+    ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick the customer, or add a new one' })
+  }
+  if (v.customerId && v.newCustomer) {
+    ctx.addIssue({ code: 'custom', path: ['customerId'], message: 'Pick a customer or add a new one, not both' })
+  }
   if (v.unitId && v.newUnit) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'Pick a unit or add a new one, not both' })
-  if (v.newCustomer && v.unitId) ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  if (v.newCustomer && v.unitId) {
+    ctx.addIssue({ code: 'custom', path: ['unitId'], message: 'A new customer has no units yet: add the unit as new' })
+  }
   positionRule(v, ctx)
 })
 
@@ -136,7 +143,10 @@ export const callPatchSchema = z.object({
 })
 
 /** The dispatch fields a PATCH may change, in the order the call page lists them. */
-export const CALL_EDIT_FIELDS = ['customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat', 'safetyNotes', 'callerName', 'callerPhone', 'poNumber', 'authLimitCents'] as const
+export const CALL_EDIT_FIELDS = [
+  'customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat',
+  'safetyNotes', 'callerName', 'callerPhone', 'poNumber', 'authLimitCents',
+] as const
 export type CallEditField = (typeof CALL_EDIT_FIELDS)[number]
 
 export const callAssignSchema = z.object({
@@ -145,8 +155,8 @@ export const callAssignSchema = z.object({
 })
 
 export const callCancelSchema = z.object({
-  reason: z.string({ message: 'Say why the call is cancelled' }).trim().min(3, 'Say why the call is cancelled')
-    .max(500, 'Reason is too long (at most 500 characters)').refine(noNul, NUL_MESSAGE),
+  reason: requiredText(500, 'Reason', { multiline: true, missing: 'Say why the call is cancelled' })
+    .min(3, 'Say why the call is cancelled'),
   version: versionField.optional(),
 })
 

@@ -1,16 +1,11 @@
 import { z } from 'zod'
+import { searchQuery, text, type TextOptions } from './text'
 
 // Small field builders the office forms share. An empty box means "none": '' becomes null, and
 // undefined stays undefined so a PATCH leaves the field alone.
 
-/** PostgreSQL text cannot hold a NUL character: refuse it here, naming the field, not at the database. */
-export const noNul = (s: string | null | undefined) => !s?.includes('\u0000')
-export const NUL_MESSAGE = 'May not contain a NUL character'
-
-/** Optional free text; '' and spaces become null. */
-export const optText = (max: number, label = 'This') =>
-  z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long (at most ${max} characters)`).refine(noNul, NUL_MESSAGE)
-    .nullable().optional().transform(v => (v === '' ? null : v))
+/** Optional free text; '' and spaces become null (the shared text schema: no control characters). */
+export const optText = (max: number, label = 'This', opts: TextOptions = {}) => text(max, label, opts)
 
 /** Optional whole number within a range; null clears it. */
 export const optInt = (min: number, max: number, label: string) =>
@@ -28,5 +23,5 @@ export const pageQuery = {
   page: z.coerce.number({ message: 'Page must be a number' }).int().min(1).max(10_000).default(1),
   pageSize: z.coerce.number({ message: 'Page size must be a number' }).int().min(1).max(200).default(25),
   dir: z.enum(['asc', 'desc']).optional(),
-  q: z.string().trim().max(100).optional(),
+  q: searchQuery,
 }

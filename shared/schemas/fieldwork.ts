@@ -3,6 +3,7 @@
 // none, dollars typed for cents). What the form accepts the server accepts; the device checks the
 // whole op against the wire schema again before it is queued.
 import { z } from 'zod'
+import { cleanText } from './text'
 import { parseDtc } from '../utils/dtc'
 import { specBounds } from '../utils/spec'
 import {
@@ -144,7 +145,8 @@ export const signOffInputSchema = z.object({
 export const verificationInputSchema = z.object({
   codesCleared: z.boolean(),
   liveValuesChecked: z.boolean(),
-  liveValuesNote: blank(z.string().trim().max(500, 'At most 500 characters').optional()),
+  liveValuesNote: blank(cleanText('Live values note', { multiline: true })
+    .max(500, 'At most 500 characters').optional()),
   testDriveKm: keypad(z.number().min(0, 'Distance cannot be negative').max(2000, 'Distance is too large').optional(), 'Test drive distance'),
   testDriveMinutes: keypad(z.number().min(0, 'Time cannot be negative').max(1440, 'Time is too long').optional(), 'Test drive time'),
   lampsOff: z.boolean(),

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { cleanText } from './text'
 
 export const INVOICE_STATUSES = ['draft', 'sent', 'paid', 'void'] as const
 export type InvoiceStatus = (typeof INVOICE_STATUSES)[number]
@@ -7,14 +8,15 @@ export const invoiceCreateSchema = z.object({
   callId: z.string({ message: 'Pick a call' }).uuid('Not a valid call id'),
 })
 
-const reason = z.string({ message: 'Say why' }).trim().min(3, 'Say why, in a few words').max(300, 'Keep the reason under 300 characters')
+const reason = cleanText('Reason', { multiline: true, missing: 'Say why' }).min(3, 'Say why, in a few words')
+  .max(300, 'Keep the reason under 300 characters')
 const quantity = z.number({ message: 'Quantity must be a number' }).positive('Quantity must be above zero')
   .max(10_000, 'Quantity is too large')
 const unitCents = z.number({ message: 'Unit price must be an amount' }).int('Unit price must be whole cents')
   .min(0, 'Unit price cannot be negative').max(10_000_000, 'Unit price is too large')
-const description = z.string({ message: 'Describe the line' }).trim().min(2, 'Describe the line')
+const description = cleanText('Description', { missing: 'Describe the line' }).min(2, 'Describe the line')
   .max(200, 'Keep the description under 200 characters')
-const lineKey = z.string({ message: 'Name the line' }).min(1, 'Name the line').max(80)
+const lineKey = cleanText('Line', { missing: 'Name the line' }).min(1, 'Name the line').max(80)
 
 /** Kinds of line the office may add by hand. */
 export const OFFICE_LINE_KINDS = ['labor', 'travel', 'part', 'fee'] as const

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { cleanText } from './text'
 
 /** Ways the office takes money on an invoice. Cards never: the payer uses the payment page. */
 export const OFFICE_PAYMENT_METHODS = ['account', 'check', 'bank_transfer', 'cash'] as const
@@ -29,10 +30,10 @@ export const paymentRecordSchema = z.object({
   method: z.enum(OFFICE_PAYMENT_METHODS,
     { message: 'Choose account, check, bank transfer or cash; a card is paid by the payer on the payment page' }),
   amountCents: cents('The amount').optional(),
-  reference: z.string().trim().max(100, 'Keep the reference under 100 characters').optional()
+  reference: cleanText('Reference').max(100, 'Keep the reference under 100 characters').optional()
     .transform(v => (v ? v : undefined)),
   receivedOn: z.iso.date({ message: 'Give the date as YYYY-MM-DD' }).optional(),
-  note: z.string().trim().max(500, 'Keep the note under 500 characters').optional(),
+  note: cleanText('Note', { multiline: true }).max(500, 'Keep the note under 500 characters').optional(),
   idempotencyKey: idempotencyKeySchema.optional(),
 }).superRefine((v, ctx) => {
   if (v.method !== 'account' && v.amountCents === undefined) ctx.addIssue({ code: 'custom', path: ['amountCents'],

@@ -1,5 +1,7 @@
 import { z } from 'zod'
 import { isTimeZone } from '../utils/businessHours'
+import { isoDay } from './dates'
+import { cleanText } from './text'
 
 const cents = (label: string) => z.number({ message: `${label} must be an amount` }).int(`${label} must be whole cents`)
   .min(0, `${label} cannot be negative`).max(100_000_000, `${label} is too large`)
@@ -7,7 +9,7 @@ const whole = (label: string, min: number, max: number, above = `${label} cannot
   .number({ message: `${label} must be a number` }).int(`${label} must be a whole number`)
   .min(min, `${label} cannot be below ${min}`).max(max, above)
 const yes = (label: string) => z.boolean({ message: `Say whether ${label} are taxed` })
-const text = (label: string, max: number) => z.string({ message: `${label} must be text` }).trim().max(max, `${label} is too long`)
+const text = (label: string, max: number) => cleanText(label).max(max, `${label} is too long`)
 
 /** Highest tax rate accepted, in basis points (30 %): a higher figure is a typing slip. */
 export const MAX_TAX_BASIS_POINTS = 3000
@@ -39,7 +41,7 @@ export const ratesSchema = z.object({
   openMinute: whole('Opening time', 0, 1440).default(0),
   closeMinute: whole('Closing time', 0, 1440).default(1440),
   openDays: z.array(whole('Open day', 1, 7), { message: 'List the open days' }).max(7).default([1, 2, 3, 4, 5, 6, 7]),
-  holidays: z.array(z.iso.date('Holidays are dates like 2026-12-25'), { message: 'List the holidays' })
+  holidays: z.array(isoDay('A holiday'), { message: 'List the holidays' })
     .max(60, 'At most 60 holidays').default([]),
   businessName: text('Business name', 120).default(''),
   businessPhone: text('Business phone', 40).default(''),

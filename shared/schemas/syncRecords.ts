@@ -6,7 +6,7 @@ import { z } from 'zod'
 import { parseDtc } from '../utils/dtc'
 import { CALL_OUTCOMES, CALL_STATUSES, type CallSyncField } from '../utils/callStatus'
 import { callCancelSchema, dispatchFields } from './calls'
-import { noNul, NUL_MESSAGE } from './fields'
+import { cleanText } from './text'
 
 /** A drawn signature as a data URL; a few tens of KB in practice. */
 export const SIGNATURE_MAX_CHARS = 300_000
@@ -20,9 +20,10 @@ export const CONFLICT_CHOICES = ['device', 'server', 'value'] as const
 
 const uuid = (what: string) => z.string().uuid(`Not a valid ${what}`)
 export const isoTime = z.string().datetime({ offset: true, message: 'Expected an ISO 8601 time' })
-const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`).refine(noNul, NUL_MESSAGE)
+// Through the one text schema: a phone's text with a NUL or another control character is refused by name.
+const text = (max: number) => cleanText('This', { multiline: true }).max(max, `At most ${max} characters`)
 const required = (max: number, what: string) =>
-  z.string().trim().min(1, `Enter ${what}`).max(max, `At most ${max} characters`).refine(noNul, NUL_MESSAGE)
+  cleanText(what, { multiline: true }).min(1, `Enter ${what}`).max(max, `At most ${max} characters`)
 const int = (min: number, max: number) => z.number().int('Expected a whole number').min(min, `At least ${min}`).max(max, `At most ${max}`)
 const num = (min: number, max: number) => z.number().min(min, `At least ${min}`).max(max, `At most ${max}`)
 

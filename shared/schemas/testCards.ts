@@ -6,6 +6,7 @@
 import { z } from 'zod'
 import { CARD_KINDS, normalizeCodePattern, patternProblemForKind, parseFaultCodeText, type FaultCodeRef } from '../utils/faultMatch'
 import { checkCardGraph } from './cardGraph'
+import { cleanText } from './text'
 
 export const NUMERIC_MEASURES = ['resistance', 'voltage', 'temperature', 'pressure', 'concentration'] as const
 export const ANSWER_MEASURES = ['yes_no', 'choice'] as const
@@ -72,8 +73,9 @@ const num = (what: string) => z.number({ message: `${what} must be a number` }).
 const positive = (what: string) => num(what).positive(`${what} must be more than 0`)
 const idText = z.string({ message: 'Give an id' }).trim()
   .regex(/^[a-z][a-z0-9_-]{0,39}$/, 'Use lower-case letters, digits, - or _, starting with a letter (at most 40)')
-const text = (what: string, max: number) => z.string({ message: `Enter ${what}` }).trim().min(1, `Enter ${what}`).max(max, `Keep ${what} under ${max} characters`)
-const optText = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters`).optional()
+const text = (what: string, max: number) =>
+  cleanText(what, { multiline: true, missing: `Enter ${what}` }).min(1, `Enter ${what}`).max(max, `Keep ${what} under ${max} characters`)
+const optText = (max: number) => cleanText('This', { multiline: true }).max(max, `Keep it under ${max} characters`).optional()
 
 // Fixed specs take one tolerance in the base unit or in percent; sensor models may also take it
 // in °C, turned into ohms through the sensor's own curve at the part's temperature.
@@ -338,7 +340,7 @@ export const testCardJudgeSchema = z.object({
   stepId: idText,
   reading: reading.optional(),
   partTemp: reading.optional(),
-  answer: z.string().trim().max(120).optional(),
+  answer: cleanText('Answer').max(120, 'Answer is too long (at most 120 characters)').optional(),
   inputs: z.record(z.string(), z.union([z.number(), z.string().max(20)])).optional(),
 }).refine(v => [v.reading, v.answer, v.inputs].filter(x => x !== undefined).length === 1, {
   message: 'Give one of reading, answer or inputs', path: ['reading'],

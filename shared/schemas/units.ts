@@ -1,22 +1,24 @@
 import { z } from 'zod'
 import { vinProblem } from '../utils/vin'
 import { optInt, optText, pageQuery, recordId, versionField } from './fields'
+import { cleanText, requiredText } from './text'
 
 export const ODOMETER_UNITS = ['km', 'mi'] as const
 
-const vinField = z.string({ message: 'VIN must be text' }).trim().toUpperCase().max(40, 'A VIN has 17 characters')
+const vinField = cleanText('VIN').toUpperCase().max(40, 'A VIN has 17 characters')
   .nullable().optional().transform(v => (v === '' ? null : v))
 
 const unitFields = {
-  unitNumber: z.string({ message: 'Enter the customer\'s unit number' }).trim().min(1, 'Enter the customer\'s unit number').max(40, 'Unit number is too long (at most 40 characters)'),
+  unitNumber: requiredText(40, 'Unit number', { missing: 'Enter the customer\'s unit number' }),
   vin: vinField,
   vinOverrideReason: optText(300, 'The reason'),
   yearMakeModel: optText(120, 'Year, make and model'),
   engine: optText(120, 'Engine'),
   odometer: optInt(0, 9_999_999, 'Odometer'),
   odometerUnit: z.enum(ODOMETER_UNITS, { message: 'Odometer is in km or mi' }),
-  engineHours: z.number({ message: 'Engine hours must be a number' }).min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
-  notes: optText(2000, 'Notes'),
+  engineHours: z.number({ message: 'Engine hours must be a number' })
+    .min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
+  notes: optText(2000, 'Notes', { multiline: true }),
 }
 
 /**
@@ -30,7 +32,10 @@ function vinRule(v: { vin?: string | null, vinOverrideReason?: string | null }, 
   if (!p) return
   if (p.kind !== 'check_digit') ctx.addIssue({ code: 'custom', path: ['vin'], message: p.reason })
   else if (!v.vinOverrideReason || v.vinOverrideReason.length < 3) {
-    ctx.addIssue({ code: 'custom', path: ['vin'], message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"` })
+    ctx.addIssue({
+      code: 'custom', path: ['vin'],
+      message: `${p.reason}. If the VIN on the truck really reads so, say why in "Keep this VIN because"`,
+    })
   }
 }
 function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?: string | null }>(v: T): T {
@@ -42,7 +47,9 @@ function dropNeedlessReason<T extends { vin?: string | null, vinOverrideReason?:
 export const unitDraftSchema = z.object({ ...unitFields, odometerUnit: unitFields.odometerUnit.default('km') })
   .superRefine(vinRule).transform(dropNeedlessReason)
 
-export const unitCreateSchema = z.object({ customerId: recordId('the customer'), ...unitFields, odometerUnit: unitFields.odometerUnit.default('km') })
+export const unitCreateSchema = z.object({
+  customerId: recordId('the customer'), ...unitFields, odometerUnit: unitFields.odometerUnit.default('km'),
+})
   .superRefine(vinRule).transform(dropNeedlessReason)
 
 export const unitPatchSchema = z.object({

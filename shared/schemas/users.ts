@@ -1,28 +1,44 @@
 import { z } from 'zod'
 import { ROLES } from '../utils/roles'
+import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH, passwordProblem } from '../utils/passwordStrength'
+import { cleanText, hasControlCharacter, requiredText } from './text'
 
-const password = z.string().min(10, 'Use at least 10 characters').max(200)
+// A new password: the length rule and the guessability check (shared/utils/passwordStrength.ts),
+// with the reason shown beside the box. Never trimmed: spaces are part of a password.
+const password = z.string({ message: 'Enter a password' })
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters`)
+  .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters`)
+  .refine(p => !hasControlCharacter(p), 'A password cannot hold tabs, line breaks or control characters')
+
+function strongEnough(v: { password?: string, name?: string | null, email?: string }, ctx: z.RefinementCtx) {
+  if (v.password === undefined || v.password.length < PASSWORD_MIN_LENGTH || v.password.length > PASSWORD_MAX_LENGTH) return
+  const problem = passwordProblem(v.password, [v.name, v.email])
+  if (problem) ctx.addIssue({ code: 'custom', path: ['password'], message: problem })
+}
+
+const name = requiredText(120, 'Name', { missing: 'Enter a name' })
 
 export const userCreateSchema = z.object({
-  email: z.string().trim().toLowerCase().email('Enter an e-mail address').max(200),
-  name: z.string().trim().min(1, 'Enter a name').max(120),
+  email: cleanText('E-mail').toLowerCase().email('Enter an e-mail address').max(200),
+  name,
   role: z.enum(ROLES, { message: 'Pick a role' }),
-  phone: z.string().trim().max(40).optional(),
+  phone: cleanText('Phone').max(40, 'Phone is too long (at most 40 characters)').optional(),
   password,
-})
+}).superRefine(strongEnough)
 
 export const userPatchSchema = z.object({
-  name: z.string().trim().min(1, 'Enter a name').max(120).optional(),
+  name: name.optional(),
   role: z.enum(ROLES, { message: 'Pick a role' }).optional(),
-  phone: z.string().trim().max(40).nullable().optional(),
+  phone: cleanText('Phone').max(40, 'Phone is too long (at most 40 characters)').nullable().optional(),
   active: z.boolean().optional(),
   onDuty: z.boolean().optional(),
   password: password.optional(),
   /** A mechanic's home truck: the stock their part lines come from unless the call names another. */
   homeTruckId: z.string({ message: 'Pick a truck' }).uuid('Pick a truck').nullable().optional(),
-}).refine(v => Object.keys(v).length > 0, { message: 'Nothing to change' })
+}).superRefine(strongEnough).refine(v => Object.keys(v).length > 0, { message: 'Nothing to change' })
 
-export const idParamsSchema = z.object({ id: z.string().uuid('Not a valid id') })
+/** A record id in the path, made canonical (lower case) so one record never has two spellings. */
+export const idParamsSchema = z.object({ id: z.string().trim().toLowerCase().uuid('Not a valid id') })
 
-export type UserCreateInput = z.infer<typeof userCreateSchema>
-export type UserPatchInput = z.infer<typeof userPatchSchema>
+export type UserCreateInput = z.input<typeof userCreateSchema>
+export type UserPatchInput = z.input<typeof userPatchSchema>

@@ -10,6 +10,11 @@ declare module '#auth-utils' {
   interface UserSession {
     loggedInAt: string
   }
+  /** Sealed in the cookie, never sent to the browser by the session endpoint. */
+  interface SecureSessionData {
+    /** The person's session epoch at sign-in (server/utils/auth.ts); a moved-on epoch ends the session. */
+    epoch: number
+  }
 }
 
 export {}

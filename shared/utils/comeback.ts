@@ -15,7 +15,9 @@ export interface Comeback { callId: string, earlierCallId: string, code: string,
 // a J1939 code is its SPN and FMI together (the same SPN with another failure mode is another
 // fault). A code that cannot be read gives no key and is left out.
 function keyOf(fc: ComebackFaultCode): string | null {
-  try { return faultCodeKey(fc) }
+  try {
+    return faultCodeKey(fc)
+  }
   catch { return null }
 }
 

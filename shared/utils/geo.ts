@@ -34,7 +34,9 @@ export function haversineKm(a: GeoPoint, b: GeoPoint): number {
 
 /** Estimated drive time in whole minutes, rounded up (an ETA given to a driver should not be early). */
 export function driveMinutes(km: number, avgKph: number): number {
-  if (typeof km !== 'number' || !Number.isFinite(km) || km < 0) throw new RangeError(`Distance must be a finite number of km, 0 or more, got ${km}`)
+  if (typeof km !== 'number' || !Number.isFinite(km) || km < 0) {
+    throw new RangeError(`Distance must be a finite number of km, 0 or more, got ${km}`)
+  }
   if (typeof avgKph !== 'number' || !Number.isFinite(avgKph) || avgKph <= 0) {
     throw new RangeError(`Average speed must be a positive finite number of km/h, got ${avgKph}`)
   }

@@ -3,10 +3,21 @@
 // those with one, since "unknown" may be far away.
 import { driveMinutes, haversineKm, type GeoPoint } from './geo'
 
-export interface RankCandidate { id: string, name: string, onDuty: boolean, lastLat: number | null, lastLon: number | null, openCalls: number }
+export interface RankCandidate {
+  id: string
+  name: string
+  onDuty: boolean
+  lastLat: number | null
+  lastLon: number | null
+  openCalls: number
+}
 export interface RankedCandidate<T extends RankCandidate> { mechanic: T, distanceKm: number | null, driveMinutes: number | null }
 
-export function rankMechanics<T extends RankCandidate>(mechanics: readonly T[], callAt: GeoPoint | null, averageRoadKph: number): RankedCandidate<T>[] {
+export function rankMechanics<T extends RankCandidate>(
+  mechanics: readonly T[],
+  callAt: GeoPoint | null,
+  averageRoadKph: number,
+): RankedCandidate<T>[] {
   const ranked = mechanics.map((m) => {
     const known = callAt && m.lastLat !== null && m.lastLon !== null
     const distanceKm = known ? haversineKm({ lat: m.lastLat!, lon: m.lastLon! }, callAt) : null

@@ -81,10 +81,18 @@ export function toBaseUnit(value: number, unit: string): number {
   const u = unitsCheck(value, unit)
   let base: number
   switch (u) {
-    case 'degF': base = ((value - 32) * 5) / 9; break
-    case 'kohm': base = value * 1000; break
-    case 'mV': base = value / 1000; break
-    case 'psi': base = value * PSI_IN_KPA; break
+    case 'degF':
+      base = ((value - 32) * 5) / 9
+      break
+    case 'kohm':
+      base = value * 1000
+      break
+    case 'mV':
+      base = value / 1000
+      break
+    case 'psi':
+      base = value * PSI_IN_KPA
+      break
     default: base = value
   }
   if (UNIT_QUANTITY[u] === 'temperature' && base < -273.15) {

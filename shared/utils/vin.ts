@@ -48,7 +48,10 @@ export function vinProblem(vin: string): { kind: VinProblemKind, reason: string 
   const expected = vinCheckDigit(v)
   const actual = v.charAt(8)
   if (actual !== expected) {
-    return { kind: 'check_digit', reason: `Check digit (9th character) is ${actual} but the rest of the VIN gives ${expected}: recheck each character` }
+    return {
+      kind: 'check_digit',
+      reason: `Check digit (9th character) is ${actual} but the rest of the VIN gives ${expected}: recheck each character`,
+    }
   }
   return null
 }

@@ -60,7 +60,9 @@ describe('roles', () => {
     const c = await signedIn(DEMO.admin)
     const bare = await c.request('POST', '/api/users', { json: {}, noWaysideHeader: true })
     expect(bare.status).toBe(403)
-    const form = await c.request('POST', '/api/users', { body: 'email=a%40b.c', headers: { 'content-type': 'application/x-www-form-urlencoded' } })
+    const form = await c.request('POST', '/api/users', {
+      body: 'email=a%40b.c', headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    })
     expect(form.status).toBe(415)
   })
 })
@@ -94,7 +96,9 @@ describe('people', () => {
   it('refuses a duplicate e-mail with 422 naming the field, and writes nothing', async () => {
     const admin = await signedIn(DEMO.admin)
     const before = (await testPool().query('SELECT count(*)::int n FROM users')).rows[0].n
-    const r = await admin.post('/api/users', { email: DEMO.mech1.toUpperCase(), name: 'Copy', role: 'mechanic', password: 'a-long-password' })
+    const r = await admin.post('/api/users', {
+      email: DEMO.mech1.toUpperCase(), name: 'Copy', role: 'mechanic', password: 'a-long-password',
+    })
     expect(r.status).toBe(422)
     expect(r.body.data.fields.email).toBeTruthy()
     expect((await testPool().query('SELECT count(*)::int n FROM users')).rows[0].n).toBe(before)

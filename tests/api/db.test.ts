@@ -7,9 +7,15 @@ import { DATABASE_URL } from '../support/env'
 const scratchName = `wayside_scratch_${process.pid}`
 const adminUrl = DATABASE_URL.replace(/\/[^/]+$/, '/postgres')
 const scratchUrl = DATABASE_URL.replace(/\/[^/]+$/, `/${scratchName}`)
-const run = (script: string) => execFileSync('npx', ['tsx', script], { env: { ...process.env, NUXT_DATABASE_URL: scratchUrl }, stdio: 'pipe' })
+const run = (script: string) => execFileSync('npx', ['tsx', script], {
+  env: { ...process.env, NUXT_DATABASE_URL: scratchUrl }, stdio: 'pipe',
+})
 
-const TABLES = ['invoices', 'invoice_lines', 'payments', 'users', 'customers', 'customer_sites', 'units', 'calls', 'call_events', 'yards', 'service_trucks', 'truck_stock', 'rates', 'fault_codes', 'readings', 'part_lines', 'clock_events', 'notes', 'sign_offs', 'test_cards', 'test_card_versions']
+const TABLES = [
+  'invoices', 'invoice_lines', 'payments', 'users', 'customers', 'customer_sites', 'units', 'calls', 'call_events', 'yards',
+  'service_trucks', 'truck_stock', 'rates', 'fault_codes', 'readings', 'part_lines', 'clock_events', 'notes', 'sign_offs',
+  'test_cards', 'test_card_versions',
+]
 
 async function counts(client: pg.Client) {
   const out: Record<string, number> = {}

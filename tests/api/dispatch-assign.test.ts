@@ -19,7 +19,9 @@ function kmBetween(aLat: number, aLon: number, bLat: number, bLon: number) {
 }
 
 let dispatcher: Awaited<ReturnType<typeof signedIn>>
-beforeAll(async () => { dispatcher = await signedIn(DEMO.dispatcher) })
+beforeAll(async () => {
+  dispatcher = await signedIn(DEMO.dispatcher)
+})
 
 const newCall = async (extra: Record<string, unknown> = {}) => {
   const r = await dispatcher.post('/api/calls', {
@@ -34,10 +36,13 @@ const newCall = async (extra: Record<string, unknown> = {}) => {
 async function expectedOrder(callId: string, lat: number | null, lon: number | null) {
   const { rows } = await testPool().query(`
     SELECT u.id, u.name, u.on_duty, u.last_lat, u.last_lon,
-      (SELECT count(*)::int FROM calls c WHERE c.mechanic_id = u.id AND c.status IN ('assigned','en_route','on_site') AND c.id <> $1) AS load
+      (SELECT count(*)::int FROM calls c
+        WHERE c.mechanic_id = u.id AND c.status IN ('assigned','en_route','on_site') AND c.id <> $1) AS load
     FROM users u WHERE u.role = 'mechanic' AND u.active`, [callId])
   const dist = (r: any) => (lat === null || r.last_lat === null ? Infinity : kmBetween(r.last_lat, r.last_lon, lat, lon!))
-  return rows.sort((a: any, b: any) => (Number(b.on_duty) - Number(a.on_duty)) || (dist(a) - dist(b)) || (a.load - b.load) || a.name.localeCompare(b.name))
+  return rows
+    .sort((a: any, b: any) => (Number(b.on_duty) - Number(a.on_duty)) || (dist(a) - dist(b)) || (a.load - b.load)
+      || a.name.localeCompare(b.name))
     .map((r: any) => ({ id: r.id, km: dist(r) }))
 }
 
@@ -52,7 +57,10 @@ describe('GET /api/calls/[id]/suggestions', () => {
       expect(r.body.items.map((x: any) => x.mechanic.id)).toEqual(want.map(w => w.id))
       for (const [i, item] of r.body.items.entries()) {
         const km = want[i]!.km
-        if (km === Infinity) { expect(item.distanceKm).toBeNull(); continue }
+        if (km === Infinity) {
+          expect(item.distanceKm).toBeNull()
+          continue
+        }
         expect(item.distanceKm).toBeCloseTo(km, 6)
         expect(item.driveMinutes).toBe(Math.ceil((km * 60) / r.body.averageRoadKph - 1e-9))
       }
@@ -91,7 +99,9 @@ describe('GET /api/calls/[id]/suggestions', () => {
 
   it('is for dispatch only', async () => {
     const call = await newCall()
-    for (const email of [DEMO.office, DEMO.mech1]) expect((await (await signedIn(email)).get(`/api/calls/${call.id}/suggestions`)).status).toBe(403)
+    for (const email of [DEMO.office, DEMO.mech1]) {
+      expect((await (await signedIn(email)).get(`/api/calls/${call.id}/suggestions`)).status).toBe(403)
+    }
   })
 })
 
@@ -105,25 +115,33 @@ describe('POST /api/calls/[id]/assign', () => {
     expect(r.body).toMatchObject({ status: 'assigned', mechanicId: seedId('user:mech2'), serviceTruckId: seedId('truck:Truck 12') })
     expect(r.body.mail).toEqual({ queued: true })
     expect(r.body.assignedAt).toBeTruthy()
-    expect(r.body.events.at(-1)).toMatchObject({ kind: 'assigned', fromStatus: 'received', toStatus: 'assigned', mechanicId: seedId('user:mech2') })
+    expect(r.body.events.at(-1)).toMatchObject({
+      kind: 'assigned', fromStatus: 'received', toStatus: 'assigned', mechanicId: seedId('user:mech2'),
+    })
 
     const got = await waitForMail(m => m.to.includes(DEMO.mech2))
     await new Promise(res => setTimeout(res, 500))
     const all = (await caughtMail()).filter(m => m.to.includes(DEMO.mech2))
     expect(all).toHaveLength(1)
     expect(got[0]!.subject).toContain(`#${call.number}`)
-    for (const part of ['Bluestem Aggregate Co.', call.unit.unitNumber, 'Gravel Pit Road at the scale', 'Air pressure will not build', 'Soft shoulder']) {
+    for (const part of [
+      'Bluestem Aggregate Co.', call.unit.unitNumber, 'Gravel Pit Road at the scale', 'Air pressure will not build', 'Soft shoulder',
+    ]) {
       expect(got[0]!.text).toContain(part)
     }
     expect(await count('mail_log', 'kind = \'call_assigned\'')).toBe(logBefore + 1)
-    expect(await count('mail_log', 'kind = \'call_assigned\' AND related_id = $1 AND status = \'sent\' AND to_address = $2', [call.id, DEMO.mech2])).toBe(1)
+    expect(await count(
+      'mail_log', 'kind = \'call_assigned\' AND related_id = $1 AND status = \'sent\' AND to_address = $2', [call.id, DEMO.mech2],
+    )).toBe(1)
   })
 
   it('reassigns and keeps the history, with a chosen service truck', async () => {
     const call = await newCall()
     await dispatcher.post(`/api/calls/${call.id}/assign`, { mechanicId: seedId('user:mech1') })
     await clearMail()
-    const r = await dispatcher.post(`/api/calls/${call.id}/assign`, { mechanicId: seedId('user:mech2'), serviceTruckId: seedId('truck:Truck 21') })
+    const r = await dispatcher.post(`/api/calls/${call.id}/assign`, {
+      mechanicId: seedId('user:mech2'), serviceTruckId: seedId('truck:Truck 21'),
+    })
     expect(r.status).toBe(200)
     expect(r.body).toMatchObject({ mechanicId: seedId('user:mech2'), serviceTruckId: seedId('truck:Truck 21'), status: 'assigned' })
     const assigned = r.body.events.filter((e: any) => e.kind === 'assigned')

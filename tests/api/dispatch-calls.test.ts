@@ -26,13 +26,18 @@ async function counts() {
 }
 
 let dispatcher: Awaited<ReturnType<typeof signedIn>>
-beforeAll(async () => { dispatcher = await signedIn(DEMO.dispatcher) })
+beforeAll(async () => {
+  dispatcher = await signedIn(DEMO.dispatcher)
+})
 
 describe('POST /api/calls', () => {
   it('takes a call for a picked customer and unit: 201, received, with its first timeline row', async () => {
     const r = await dispatcher.post('/api/calls', base())
     expect(r.status).toBe(201)
-    expect(r.body).toMatchObject({ status: 'received', customerId: PRAIRIE, unitId: PRAIRIE_UNIT, authLimitCents: 150000, lamps: ['check_engine'], derate: 'derated', loaded: true })
+    expect(r.body).toMatchObject({
+      status: 'received', customerId: PRAIRIE, unitId: PRAIRIE_UNIT, authLimitCents: 150000,
+      lamps: ['check_engine'], derate: 'derated', loaded: true,
+    })
     expect(r.body.customer.name).toBe('Prairie Cold Haul')
     expect(r.body.unit.id).toBe(PRAIRIE_UNIT)
     expect(r.body.events).toEqual([expect.objectContaining({ kind: 'status', toStatus: 'received', fromStatus: null })])
@@ -44,7 +49,9 @@ describe('POST /api/calls', () => {
     const before = await counts()
     const r = await dispatcher.post('/api/calls', {
       ...base(), customerId: undefined, unitId: undefined,
-      newCustomer: { name: `Harrow Bend Feed ${uniq()}`, kind: 'owner_operator', billingTerms: 'card', phone: '555-0199', taxExempt: false },
+      newCustomer: {
+        name: `Harrow Bend Feed ${uniq()}`, kind: 'owner_operator', billingTerms: 'card', phone: '555-0199', taxExempt: false,
+      },
       newUnit: { unitNumber: `HB-${uniq()}`, vin: '1M8GDM9AXKP042788', yearMakeModel: '2016 tractor', odometer: 812000 },
     })
     expect(r.status).toBe(201)
@@ -62,7 +69,9 @@ describe('POST /api/calls', () => {
     const without = await dispatcher.post('/api/calls', { ...base(), unitId: undefined, newUnit: { unitNumber: `CD-${uniq()}`, vin } })
     expect(without.status).toBe(400)
     expect(without.body.data.fields['newUnit.vin']).toMatch(/check digit/i)
-    const withReason = await dispatcher.post('/api/calls', { ...base(), unitId: undefined, newUnit: { unitNumber: `CD-${uniq()}`, vin, vinOverrideReason: 'Imported truck, plate VIN read twice' } })
+    const withReason = await dispatcher.post('/api/calls', {
+      ...base(), unitId: undefined, newUnit: { unitNumber: `CD-${uniq()}`, vin, vinOverrideReason: 'Imported truck, plate VIN read twice' },
+    })
     expect(withReason.status).toBe(201)
     expect(withReason.body.unit).toMatchObject({ vin, vinOverrideReason: 'Imported truck, plate VIN read twice' })
   })
@@ -137,7 +146,9 @@ describe('GET /api/calls/[id]', () => {
 describe('PATCH /api/calls/[id]', () => {
   it('saves on the version read, and answers a stale save with 409 and the record as it is now', async () => {
     const { body: call } = await dispatcher.post('/api/calls', base())
-    const first = await dispatcher.patch(`/api/calls/${call.id}`, { version: call.version, poNumber: 'PCH-2', complaint: 'Low power, lamp flashing' })
+    const first = await dispatcher.patch(`/api/calls/${call.id}`, {
+      version: call.version, poNumber: 'PCH-2', complaint: 'Low power, lamp flashing',
+    })
     expect(first.status).toBe(200)
     expect(first.body.poNumber).toBe('PCH-2')
     expect(first.body.version).toBeGreaterThan(call.version)
@@ -176,10 +187,14 @@ describe('POST /api/calls/[id]/cancel', () => {
     const r = await dispatcher.post(`/api/calls/${call.id}/cancel`, { reason: 'Driver got it going again' })
     expect(r.status).toBe(200)
     expect(r.body).toMatchObject({ status: 'cancelled', cancelReason: 'Driver got it going again' })
-    expect(r.body.events.at(-1)).toMatchObject({ kind: 'status', fromStatus: 'received', toStatus: 'cancelled', note: 'Driver got it going again' })
+    expect(r.body.events.at(-1)).toMatchObject({
+      kind: 'status', fromStatus: 'received', toStatus: 'cancelled', note: 'Driver got it going again',
+    })
     const again = await dispatcher.post(`/api/calls/${call.id}/cancel`, { reason: 'twice' })
     expect(again.status).toBe(422)
-    const { rows } = await testPool().query('SELECT count(*)::int n FROM call_events WHERE call_id = $1 AND to_status = $2', [call.id, 'cancelled'])
+    const { rows } = await testPool().query(
+      'SELECT count(*)::int n FROM call_events WHERE call_id = $1 AND to_status = $2', [call.id, 'cancelled'],
+    )
     expect(rows[0].n).toBe(1)
   })
 

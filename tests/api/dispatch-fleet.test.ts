@@ -9,19 +9,28 @@ afterAll(closeTestPool)
 
 const uniq = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1e6).toString(36)}`.toUpperCase()
 let dispatcher: Awaited<ReturnType<typeof signedIn>>
-beforeAll(async () => { dispatcher = await signedIn(DEMO.dispatcher) })
+beforeAll(async () => {
+  dispatcher = await signedIn(DEMO.dispatcher)
+})
 
 describe('customers', () => {
   it('adds, reads, lists by search and edits a customer', async () => {
     const name = `Cinder Flats Haulage ${uniq()}`
-    const created = await dispatcher.post('/api/customers', { name, billingTerms: 'account', netDays: 30, billingEmail: ' AP@Cinder.Example ', phone: '555-0177', taxExempt: true, notes: 'Gate code 4411' })
+    const created = await dispatcher.post('/api/customers', {
+      name, billingTerms: 'account', netDays: 30, billingEmail: ' AP@Cinder.Example ', phone: '555-0177', taxExempt: true,
+      notes: 'Gate code 4411',
+    })
     expect(created.status).toBe(201)
-    expect(created.body).toMatchObject({ name, kind: 'fleet', billingTerms: 'account', netDays: 30, billingEmail: 'ap@cinder.example', taxExempt: true })
+    expect(created.body).toMatchObject({
+      name, kind: 'fleet', billingTerms: 'account', netDays: 30, billingEmail: 'ap@cinder.example', taxExempt: true,
+    })
     const got = await dispatcher.get(`/api/customers/${created.body.id}`)
     expect(got.body).toMatchObject({ name, sites: [], units: [] })
     const found = await dispatcher.get(`/api/customers?q=${encodeURIComponent(name.slice(0, 20))}`)
     expect(found.body.items.map((c: any) => c.id)).toContain(created.body.id)
-    const edited = await dispatcher.patch(`/api/customers/${created.body.id}`, { version: created.body.version, billingTerms: 'card', phone: '' })
+    const edited = await dispatcher.patch(`/api/customers/${created.body.id}`, {
+      version: created.body.version, billingTerms: 'card', phone: '',
+    })
     expect(edited.status).toBe(200)
     expect(edited.body).toMatchObject({ billingTerms: 'card', netDays: null, phone: null })
     const stale = await dispatcher.patch(`/api/customers/${created.body.id}`, { version: created.body.version, name: 'Overwrite' })
@@ -62,7 +71,9 @@ describe('customers', () => {
     const id = seedId('customer:okonkwo')
     const bad = await dispatcher.post(`/api/customers/${id}/sites`, { name: 'Home lot', lat: 123, lon: 0 })
     expect(bad.body.data.fields.lat).toBeTruthy()
-    const r = await dispatcher.post(`/api/customers/${id}/sites`, { name: `Home lot ${uniq()}`, address: 'Millrace', lat: 45.24, lon: -93.32 })
+    const r = await dispatcher.post(`/api/customers/${id}/sites`, {
+      name: `Home lot ${uniq()}`, address: 'Millrace', lat: 45.24, lon: -93.32,
+    })
     expect(r.status).toBe(201)
     expect((await dispatcher.get(`/api/customers/${id}`)).body.sites.map((s: any) => s.id)).toContain(r.body.id)
     expect((await dispatcher.post(`/api/customers/${randomUUID()}/sites`, { name: 'X', lat: 1, lon: 1 })).status).toBe(404)
@@ -80,7 +91,10 @@ describe('units', () => {
 
   it('adds a unit with a valid VIN, finds it, edits it, and refuses a stale edit', async () => {
     const unitNumber = `BA-${uniq()}`
-    const r = await dispatcher.post('/api/units', { customerId, unitNumber, vin: ' 1m8gdm9axkp042788 ', yearMakeModel: '2019 dump truck', engine: '13 L diesel', odometer: 402113, engineHours: 9120.5 })
+    const r = await dispatcher.post('/api/units', {
+      customerId, unitNumber, vin: ' 1m8gdm9axkp042788 ', yearMakeModel: '2019 dump truck', engine: '13 L diesel',
+      odometer: 402113, engineHours: 9120.5,
+    })
     expect(r.status).toBe(201)
     expect(r.body).toMatchObject({ unitNumber, vin: '1M8GDM9AXKP042788', vinOverrideReason: null, odometerUnit: 'km', engineHours: 9120.5 })
     const list = await dispatcher.get(`/api/units?customerId=${customerId}&q=${unitNumber}`)
@@ -112,7 +126,9 @@ describe('units', () => {
   })
 
   it('keeps a wrong check digit with a reason, and drops a needless reason', async () => {
-    const kept = await dispatcher.post('/api/units', { customerId, unitNumber: `BA-${uniq()}`, vin: '1M8GDM9A5KP042788', vinOverrideReason: 'Glider kit, VIN as stamped' })
+    const kept = await dispatcher.post('/api/units', {
+      customerId, unitNumber: `BA-${uniq()}`, vin: '1M8GDM9A5KP042788', vinOverrideReason: 'Glider kit, VIN as stamped',
+    })
     expect(kept.body.vinOverrideReason).toBe('Glider kit, VIN as stamped')
     const fixed = await dispatcher.patch(`/api/units/${kept.body.id}`, { version: kept.body.version, vin: '1M8GDM9AXKP042788' })
     expect(fixed.body).toMatchObject({ vin: '1M8GDM9AXKP042788', vinOverrideReason: null })
@@ -124,7 +140,9 @@ describe('units', () => {
     expect(r.status).toBe(200)
     const byId = Object.fromEntries(r.body.calls.map((c: any) => [c.id, c]))
     const c11 = byId[seedId('call:c11')], c10 = byId[seedId('call:c10')]
-    expect(c11.comebacks).toEqual([expect.objectContaining({ earlierCallId: seedId('call:c10'), code: 'SPN 3516 FMI 18', earlierNumber: c10.number })])
+    expect(c11.comebacks).toEqual([
+      expect.objectContaining({ earlierCallId: seedId('call:c10'), code: 'SPN 3516 FMI 18', earlierNumber: c10.number }),
+    ])
     expect(c11.comebacks[0].days).toBeCloseTo(12, 6)
     expect(c10.repeatedBy).toHaveLength(1)
     expect(c10.comebacks).toEqual([])

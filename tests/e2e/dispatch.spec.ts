@@ -16,12 +16,14 @@ async function tabTo(page: Page, target: Locator, max = 80) {
   throw new Error(`Tab never reached ${target}`)
 }
 
-test('a dispatcher takes a call from a blank form to assigned with the keyboard alone; the mechanic then sees it on the phone', async ({ browser }) => {
+test('a dispatcher takes a call from a blank form to assigned with the keyboard alone; '
+  + 'the mechanic then sees it on the phone', async ({ browser }) => {
   const desk = await browser.newContext({ viewport: DESK })
   const page = await desk.newPage()
   await signIn(page, 'dispatch@wayside.test')
   await page.goto('/dispatch/new')
-  await page.evaluate(() => Object.keys(localStorage).filter(k => k.startsWith('wayside:call-draft')).forEach(k => localStorage.removeItem(k)))
+  await page.evaluate(() => Object.keys(localStorage).filter(k => k.startsWith('wayside:call-draft'))
+    .forEach(k => localStorage.removeItem(k)))
   await page.reload()
 
   // The customer box has the focus on arrival: type, then Enter picks the highlighted match.
@@ -171,10 +173,13 @@ test('a second dispatcher sees a new call appear without reloading', async ({ br
   await pb.goto('/dispatch?view=lanes')
   const customers = await (await pa.request.get('/api/customers?q=Lakeline')).json()
   const text = `Hydraulic leak at the plow, seen by both ${Date.now()}`
-  const made = await pa.request.post('/api/calls', { headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Civic Loop yard', complaint: text } })
+  const made = await pa.request.post('/api/calls', {
+    headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Civic Loop yard', complaint: text },
+  })
   expect(made.status()).toBe(201)
   await expect(pb.getByText(text)).toBeVisible({ timeout: 20_000 })
-  await a.close(); await b.close()
+  await a.close()
+  await b.close()
 })
 
 test('a stale edit shows what the other person changed instead of overwriting it', async ({ browser }) => {
@@ -184,8 +189,14 @@ test('a stale edit shows what the other person changed instead of overwriting it
   await signIn(pa, 'dispatch@wayside.test')
   await signIn(pb, 'admin@wayside.test')
   const customers = await (await pa.request.get('/api/customers?q=Ironwood')).json()
-  const made = await (await pa.request.post('/api/calls', { headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Terminal gate', complaint: 'Marker lamps out', poNumber: 'IFL-1' } })).json()
-  for (const p of [pa, pb]) { await p.goto(`/calls/${made.id}`); await p.getByRole('button', { name: 'Edit' }).click() }
+  const made = await (await pa.request.post('/api/calls', {
+    headers: { 'x-wayside': '1' },
+    data: { customerId: customers.items[0].id, locationText: 'Terminal gate', complaint: 'Marker lamps out', poNumber: 'IFL-1' },
+  })).json()
+  for (const p of [pa, pb]) {
+    await p.goto(`/calls/${made.id}`)
+    await p.getByRole('button', { name: 'Edit' }).click()
+  }
   await pa.getByLabel('PO number').fill('IFL-2')
   await pa.getByRole('button', { name: 'Save changes' }).click()
   await expect(pa.getByText('PO IFL-2')).toBeVisible()
@@ -198,7 +209,8 @@ test('a stale edit shows what the other person changed instead of overwriting it
   await expect(pb.getByLabel('PO number')).toHaveValue('IFL-2')
   const now = await (await pa.request.get(`/api/calls/${made.id}`)).json()
   expect(now.poNumber).toBe('IFL-2')
-  await a.close(); await b.close()
+  await a.close()
+  await b.close()
 })
 
 test('screenshots of the dispatch screens at 1280×800', async ({ page }) => {
@@ -273,7 +285,9 @@ test('the office settles a change made on a phone and in the office from the sam
   await signIn(page, 'dispatch@wayside.test')
   // A call of this test's own, so no phone test meets its conflict.
   const customers = await (await page.request.get('/api/customers?q=Bluestem')).json()
-  const made = await page.request.post('/api/calls', { headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Quarry gate', complaint: 'Gauge reads cold' } })
+  const made = await page.request.post('/api/calls', {
+    headers: { 'x-wayside': '1' }, data: { customerId: customers.items[0].id, locationText: 'Quarry gate', complaint: 'Gauge reads cold' },
+  })
   const callId = (await made.json()).id as string
   await testPool().query('UPDATE calls SET story_cause = \'Thermostat stuck open\' WHERE id = $1', [callId])
   const call = { story_cause: 'Thermostat stuck open' }
@@ -281,7 +295,10 @@ test('the office settles a change made on a phone and in the office from the sam
   const { rows: [conflict] } = await testPool().query(
     `INSERT INTO conflicts (call_id, entity, entity_id, field, base_value, device_value, server_value, reason, raised_by)
      VALUES ($1, 'call', $1, 'storyCause', $2, $3, $4, 'storyCause: changed on the server since the device saw it', $5) RETURNING id`,
-    [callId, JSON.stringify(call.story_cause), JSON.stringify('Coolant sensor connector pin pushed back'), JSON.stringify(call.story_cause), seedId('user:mech1')],
+    [
+      callId, JSON.stringify(call.story_cause), JSON.stringify('Coolant sensor connector pin pushed back'),
+      JSON.stringify(call.story_cause), seedId('user:mech1'),
+    ],
   )
   await page.goto(`/calls/${callId}`)
   const region = page.getByRole('region', { name: /Changes to settle/ })

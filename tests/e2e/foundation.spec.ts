@@ -34,7 +34,8 @@ test('screenshots of the mechanic home (phone) and the dispatch home (desktop)',
   await expect(p.getByRole('heading', { name: 'My calls' })).toBeVisible()
   await p.screenshot({ path: 'tests/e2e/screenshots/mechanic-home-360.png', fullPage: true })
   // Every tappable thing on the phone home is at least 48 px tall (gloved hands).
-  const small = await p.locator('main a, main button, nav a').evaluateAll(els => els.filter(e => e.getBoundingClientRect().height < 47.5).map(e => e.textContent))
+  const small = await p.locator('main a, main button, nav a')
+    .evaluateAll(els => els.filter(e => e.getBoundingClientRect().height < 47.5).map(e => e.textContent))
   expect(small).toEqual([])
   await phone.close()
 

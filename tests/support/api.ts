@@ -8,12 +8,19 @@ export class ApiClient {
   cookie = ''
   constructor(readonly base = BASE_URL) {}
 
-  async request<T = any>(method: string, path: string, opts: { json?: unknown, body?: BodyInit, headers?: Record<string, string>, noWaysideHeader?: boolean } = {}): Promise<Answer<T>> {
+  async request<T = any>(
+    method: string,
+    path: string,
+    opts: { json?: unknown, body?: BodyInit, headers?: Record<string, string>, noWaysideHeader?: boolean } = {},
+  ): Promise<Answer<T>> {
     const headers: Record<string, string> = { ...opts.headers }
     if (!opts.noWaysideHeader) headers['x-wayside'] = '1'
     if (this.cookie) headers.cookie = this.cookie
     let body = opts.body
-    if (opts.json !== undefined) { body = JSON.stringify(opts.json); headers['content-type'] = 'application/json' }
+    if (opts.json !== undefined) {
+      body = JSON.stringify(opts.json)
+      headers['content-type'] = 'application/json'
+    }
     const res = await fetch(this.base + path, { method, headers, body, redirect: 'manual' })
     const set = res.headers.getSetCookie()
     for (const c of set) {
@@ -22,7 +29,9 @@ export class ApiClient {
     }
     const text = await res.text()
     let parsed: any = text
-    try { parsed = text ? JSON.parse(text) : null }
+    try {
+      parsed = text ? JSON.parse(text) : null
+    }
     catch { /* not JSON: keep the text */ }
     return { status: res.status, body: parsed as T, headers: res.headers }
   }

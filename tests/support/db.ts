@@ -11,4 +11,7 @@ export async function count(table: string, where = 'true', params: unknown[] = [
   const r = await testPool().query(`SELECT count(*)::int AS n FROM ${table} WHERE ${where}`, params)
   return r.rows[0].n as number
 }
-export async function closeTestPool() { await pool?.end(); pool = undefined }
+export async function closeTestPool() {
+  await pool?.end()
+  pool = undefined
+}

@@ -14,8 +14,12 @@ export async function startOwnServer(port: number, env: Record<string, string> =
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   let output = ''
-  proc.stdout!.on('data', (b: Buffer) => { output += b.toString() })
-  proc.stderr!.on('data', (b: Buffer) => { output += b.toString() })
+  proc.stdout!.on('data', (b: Buffer) => {
+    output += b.toString()
+  })
+  proc.stderr!.on('data', (b: Buffer) => {
+    output += b.toString()
+  })
   const exited = new Promise<void>(resolve => proc.once('exit', () => resolve()))
   const url = `http://127.0.0.1:${port}`
 
@@ -30,7 +34,9 @@ export async function startOwnServer(port: number, env: Record<string, string> =
   }
   try {
     await until('the server to answer', async () => {
-      try { return (await fetch(`${url}/login`)).ok }
+      try {
+        return (await fetch(`${url}/login`)).ok
+      }
       catch { return false }
     }, 60_000)
   }

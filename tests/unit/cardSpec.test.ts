@@ -145,7 +145,8 @@ describe('answers, next steps and display helpers', () => {
   it('judges yes/no and pick-one steps', () => {
     // our own rule: the card names the passing answers
     expect(judgeAnswer({ measure: 'yes_no', passAnswer: 'yes' }, 'yes').verdict).toBe('pass')
-    expect(judgeAnswer({ measure: 'yes_no', passAnswer: 'yes' }, 'no')).toEqual({ verdict: 'fail', text: 'answered no; passes on yes; fail' })
+    expect(judgeAnswer({ measure: 'yes_no', passAnswer: 'yes' }, 'no'))
+      .toEqual({ verdict: 'fail', text: 'answered no; passes on yes; fail' })
     const choice = { measure: 'choice' as const, options: ['Clear', 'Cloudy', 'Crystals'], passOptions: ['Clear'] }
     expect(judgeAnswer(choice, 'Cloudy').verdict).toBe('fail')
     expect(() => judgeAnswer(choice, 'Green')).toThrow(/not one of/)

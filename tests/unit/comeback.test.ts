@@ -3,7 +3,9 @@ import { COMEBACK_WINDOW_DAYS, findComebacks } from '../../shared/utils/comeback
 
 const DAY = 86_400_000
 const t0 = Date.parse('2026-03-01T08:00:00Z')
-const call = (id: string, daysAfter: number, faultCodes: { code?: string, spn?: number, fmi?: number }[]) => ({ id, at: new Date(t0 + daysAfter * DAY), faultCodes })
+const call = (id: string, daysAfter: number, faultCodes: { code?: string, spn?: number, fmi?: number }[]) => ({
+  id, at: new Date(t0 + daysAfter * DAY), faultCodes,
+})
 
 // The rule is Wayside's own (issue 3): the same fault code on the same unit within 30 days of an
 // earlier call is a comeback. Tests check the rule as stated, no outside source.
@@ -53,7 +55,10 @@ describe('findComebacks', () => {
 
   it('reports every repeated code of a call', () => {
     // our own rule: two codes repeated -> two comebacks for the same call
-    const found = findComebacks([call('a', 0, [{ code: 'P0117' }, { spn: 100, fmi: 1 }]), call('b', 2, [{ spn: 100, fmi: 1 }, { code: 'P0117' }])])
+    const found = findComebacks([
+      call('a', 0, [{ code: 'P0117' }, { spn: 100, fmi: 1 }]),
+      call('b', 2, [{ spn: 100, fmi: 1 }, { code: 'P0117' }]),
+    ])
     expect(found.map(f => f.code).sort()).toEqual(['P0117', 'SPN 100 FMI 1'])
   })
 

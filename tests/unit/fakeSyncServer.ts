@@ -40,10 +40,15 @@ export class FakeSyncServer {
     const first = body.ops[0]
     if (first && first.seq > this.lastSeq + 1) return json(409, { statusCode: 409, data: { expectedSeq: this.lastSeq + 1 } })
     for (const op of body.ops) {
-      if (op.seq <= this.lastSeq) { results.push({ ...this.stored.get(op.seq)!, status: 'duplicate' }); continue }
+      if (op.seq <= this.lastSeq) {
+        results.push({ ...this.stored.get(op.seq)!, status: 'duplicate' })
+        continue
+      }
       if (op.seq !== this.lastSeq + 1) break
       const reason = this.refuse.get(op.entityId)
-      const r: Stored = reason ? { opId: op.opId, seq: op.seq, status: 'rejected', reason } : { opId: op.opId, seq: op.seq, status: 'applied', version: 1 }
+      const r: Stored = reason
+        ? { opId: op.opId, seq: op.seq, status: 'rejected', reason }
+        : { opId: op.opId, seq: op.seq, status: 'applied', version: 1 }
       if (!reason) this.rows.set(`${op.entity}:${op.entityId}`, { ...(this.rows.get(`${op.entity}:${op.entityId}`) ?? {}), ...op.changes })
       this.stored.set(op.seq, r)
       this.lastSeq = op.seq

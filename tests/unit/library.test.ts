@@ -13,7 +13,9 @@ const egt = (version: number, title = 'Exhaust temperature sensor'): TestCardVie
   definition: { ...cardDefinitionSchema.parse(SEED_CARDS[0]!.definition), title },
 })
 
-beforeEach(async () => { await freshDevice() })
+beforeEach(async () => {
+  await freshDevice()
+})
 
 const pullCards = (cards: Record<string, unknown>[], cursor = 'c1') => applyPull(pullAnswer({ testCards: cards }, { cursor }))
 
@@ -56,7 +58,8 @@ describe('library on the phone', () => {
   it('keeps the rates the sync brought and reads the ones in force', async () => {
     const rates = (id: string, effectiveFrom: string, laborCentsPerHour: number) => ({
       id, effectiveFrom, laborCentsPerHour, afterHoursMultiplierPct: 150, minimumLaborTenths: 10, roadCallMinimumCents: 15000,
-      travelCentsPerUnit: 250, travelUnit: 'km', partsMarkupPct: 25, taxRateBasisPoints: 700, laborTaxable: false, averageRoadKph: 70, version: 1,
+      travelCentsPerUnit: 250, travelUnit: 'km', partsMarkupPct: 25, taxRateBasisPoints: 700, laborTaxable: false,
+      averageRoadKph: 70, version: 1,
     })
     expect(await readRates()).toBeUndefined()
     await applyPull(pullAnswer({ rates: [rates('r1', '2026-01-01T00:00:00.000Z', 12500)] }))

@@ -2,7 +2,9 @@ import { describe, expect, it } from 'vitest'
 import { rankMechanics, type RankCandidate } from '../../shared/utils/mechanicRank'
 import { haversineKm } from '../../shared/utils/geo'
 
-const m = (id: string, onDuty: boolean, lat: number | null, lon: number | null, openCalls = 0): RankCandidate => ({ id, name: id, onDuty, lastLat: lat, lastLon: lon, openCalls })
+const m = (id: string, onDuty: boolean, lat: number | null, lon: number | null, openCalls = 0): RankCandidate => ({
+  id, name: id, onDuty, lastLat: lat, lastLon: lon, openCalls,
+})
 
 // The ranking rule is Wayside's own (DESIGN.md routes table): on duty, then distance, then load.
 describe('rankMechanics', () => {

@@ -30,7 +30,10 @@ describe('three-way merge of one call field', () => {
 
   it('compares structured values by content, not key order', () => {
     const checklist = { cones: true, vest: true }
-    const d = mergeCallField(base({ field: 'sceneChecklist', device: { vest: true, cones: true, chocks: true }, server: checklist, base: { value: { vest: true, cones: true } } }))
+    const d = mergeCallField(base({
+      field: 'sceneChecklist', device: { vest: true, cones: true, chocks: true }, server: checklist,
+      base: { value: { vest: true, cones: true } },
+    }))
     expect(d.action).toBe('take')
     expect(sameSyncValue({ a: 1, b: [1, 2] }, { b: [1, 2], a: 1 })).toBe(true)
     expect(sameSyncValue(new Date('2026-03-01T10:00:00Z'), '2026-03-01T10:00:00.000Z')).toBe(true)
@@ -55,7 +58,9 @@ describe('status moves by sync', () => {
   })
 
   it('moves forward even when the server moved too since the device base', () => {
-    const d = mergeCallField(base({ field: 'status', server: 'en_route', device: 'on_site', base: { value: 'assigned' }, serverStatus: 'en_route' }))
+    const d = mergeCallField(base({
+      field: 'status', server: 'en_route', device: 'on_site', base: { value: 'assigned' }, serverStatus: 'en_route',
+    }))
     expect(d).toEqual({ action: 'take', value: 'on_site' })
   })
 
@@ -83,7 +88,8 @@ describe('locked calls and field owners', () => {
       expect(d.action).toBe('conflict')
       expect(d.action === 'conflict' && d.reason).toBe(`storyCause: the call is ${s} and takes no more field changes`)
     }
-    expect(mergeCallField(base({ field: 'status', serverStatus: 'invoiced', server: 'invoiced', device: 'completed' })).action).toBe('conflict')
+    expect(mergeCallField(base({ field: 'status', serverStatus: 'invoiced', server: 'invoiced', device: 'completed' })).action)
+      .toBe('conflict')
   })
 
   it('closes a cancelled call to field changes too, as the phone does', () => {
@@ -99,7 +105,8 @@ describe('locked calls and field owners', () => {
     const d = mergeCallField(base({ field: 'poNumber', device: 'PO-1', server: null }))
     expect(d).toMatchObject({ action: 'reject', reason: expect.stringMatching(/^poNumber: a dispatch field/) })
     expect(mergeCallField(base({ field: 'poNumber', device: 'PO-1', server: null, role: 'dispatcher' })).action).toBe('take')
-    expect(mergeCallField(base({ field: 'complaint', device: 'x', server: 'y', base: { value: 'y' }, role: 'office' })).action).toBe('reject')
+    expect(mergeCallField(base({ field: 'complaint', device: 'x', server: 'y', base: { value: 'y' }, role: 'office' })).action)
+      .toBe('reject')
   })
 
   it('refuses link fields by sync for everyone, and unknown fields', () => {

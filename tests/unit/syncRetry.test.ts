@@ -28,18 +28,34 @@ describe('transaction retry', () => {
 
   it('passes other errors through at once', async () => {
     let runs = 0
-    await expect(withTxRetry(async () => { runs++; throw pgError('23505') }, { sleep: noSleep })).rejects.toThrow('pg 23505')
+    await expect(withTxRetry(async () => {
+      runs++
+      throw pgError('23505')
+    }, { sleep: noSleep })).rejects.toThrow('pg 23505')
     expect(runs).toBe(1)
   })
 
   it('gives up with 503 after the last attempt, never skipping silently', async () => {
     let runs = 0
     const waits: number[] = []
-    await expect(withTxRetry(async () => { runs++; throw pgError('40001') }, { attempts: 4, baseMs: 10, sleep: async (ms) => { waits.push(ms) } }))
+    await expect(withTxRetry(async () => {
+      runs++
+      throw pgError('40001')
+    }, {
+      attempts: 4,
+      baseMs: 10,
+      sleep: async (ms) => {
+        waits.push(ms)
+      },
+    }))
       .rejects.toMatchObject({ statusCode: 503 })
     expect(runs).toBe(4)
     expect(waits).toHaveLength(3)
     // Backoff grows: each wait lies in [ceiling/2, 1.5·ceiling) with ceiling = 10, 20, 40 ms.
-    waits.forEach((w, i) => { const c = 10 * 2 ** i; expect(w).toBeGreaterThanOrEqual(c / 2); expect(w).toBeLessThan(1.5 * c) })
+    waits.forEach((w, i) => {
+      const c = 10 * 2 ** i
+      expect(w).toBeGreaterThanOrEqual(c / 2)
+      expect(w).toBeLessThan(1.5 * c)
+    })
   })
 })

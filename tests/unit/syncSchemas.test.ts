@@ -37,7 +37,8 @@ describe('sync envelope', () => {
 
 describe('create shapes', () => {
   it('reads a reading and names a string value', () => {
-    expect(readingCreateSchema.safeParse({ callId, label: 'Sensor resistance', quantity: 'resistance', value: 138.5, unit: 'ohm' }).success).toBe(true)
+    expect(readingCreateSchema.safeParse({ callId, label: 'Sensor resistance', quantity: 'resistance', value: 138.5, unit: 'ohm' }).success)
+      .toBe(true)
     const bad = readingCreateSchema.safeParse({ callId, label: 'x', quantity: 'resistance', value: '138.5', unit: 'ohm' })
     expect(bad.error!.issues[0]!.path).toEqual(['value'])
   })
@@ -52,8 +53,10 @@ describe('create shapes', () => {
   })
 
   it('takes a signature only as an image data URL', () => {
-    expect(signOffCreateSchema.safeParse({ callId, driverName: 'J. Driver', signature: 'data:image/png;base64,iVBORw0KGgo=' }).success).toBe(true)
-    expect(signOffCreateSchema.safeParse({ callId, driverName: 'J. Driver', signature: 'javascript:alert(1)' }).error!.issues[0]!.path).toEqual(['signature'])
+    expect(signOffCreateSchema.safeParse({ callId, driverName: 'J. Driver', signature: 'data:image/png;base64,iVBORw0KGgo=' }).success)
+      .toBe(true)
+    expect(signOffCreateSchema.safeParse({ callId, driverName: 'J. Driver', signature: 'javascript:alert(1)' }).error!.issues[0]!.path)
+      .toEqual(['signature'])
   })
 })
 

@@ -13,8 +13,14 @@ function card(): CardDefinitionInput {
     cautions: ['Key off before unplugging.'],
     tools: ['Multimeter'],
     steps: [
-      { id: 'ref', title: 'Reference', instruction: 'Measure it.', measure: 'voltage', conditions: 'key_on_engine_off', spec: { kind: 'range', min: 4.8, max: 5.2 }, next: { pass: 'good', fail: 'wire' } },
-      { id: 'wire', title: 'Wire', instruction: 'Measure it.', measure: 'resistance', spec: { kind: 'range', max: 1 }, next: { pass: 'good', fail: 'repair' } },
+      {
+        id: 'ref', title: 'Reference', instruction: 'Measure it.', measure: 'voltage', conditions: 'key_on_engine_off',
+        spec: { kind: 'range', min: 4.8, max: 5.2 }, next: { pass: 'good', fail: 'wire' },
+      },
+      {
+        id: 'wire', title: 'Wire', instruction: 'Measure it.', measure: 'resistance',
+        spec: { kind: 'range', max: 1 }, next: { pass: 'good', fail: 'repair' },
+      },
     ],
     conclusions: [{ id: 'good', text: 'Good', kind: 'ok' }, { id: 'repair', text: 'Repair wiring', kind: 'fault' }],
   }
@@ -141,7 +147,10 @@ describe('card definition schema', () => {
   it('checks yes/no and pick-one steps', () => {
     // our own card format
     const c = card() as unknown as { steps: unknown[] }
-    c.steps[1] = { id: 'wire', title: 'Look', instruction: 'x', measure: 'choice', options: ['Clear', 'Cloudy'], passOptions: ['Green'], next: { pass: 'good', fail: 'repair' } }
+    c.steps[1] = {
+      id: 'wire', title: 'Look', instruction: 'x', measure: 'choice', options: ['Clear', 'Cloudy'], passOptions: ['Green'],
+      next: { pass: 'good', fail: 'repair' },
+    }
     expect(errorsOf(c)['steps.1.passOptions.0']).toMatch(/not one of the options/)
     c.steps[1] = { id: 'wire', title: 'Look', instruction: 'x', measure: 'yes_no', next: { pass: 'good', fail: 'repair', low: 'good' } }
     const e = errorsOf(c)

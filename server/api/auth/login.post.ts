@@ -8,19 +8,20 @@ let decoyHash: Promise<string> | undefined
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await readValidatedBody(event, validateWith(loginSchema))
-  const ip = getRequestIP(event) ?? 'unknown'
-  const delay = await checkLoginAllowed(event, email, ip)
+  // The try is reserved before the password is checked: parallel tries cannot pass the limit.
+  const attempt = await reserveLoginAttempt(event, email, clientAddress(event))
+  const delay = loginDelayMs(attempt)
   if (delay) await new Promise(r => setTimeout(r, delay))
 
   const user = await useDb().query.users.findFirst({ where: eq(sql`lower(${tables.users.email})`, email) })
   decoyHash ??= hashPassword('wayside-decoy-password')
   const ok = await verifyPassword(user?.passwordHash ?? await decoyHash, password)
   if (!user || !ok || !user.active) {
-    await recordLoginFailure(email, ip)
+    await recordLoginFailure(attempt)
     throw createError({ status: 401, statusText: BAD_PAIR, message: BAD_PAIR })
   }
-  await clearLoginFailures(email)
+  await recordLoginSuccess(attempt)
   const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
-  await setUserSession(event, { user: sessionUser, loggedInAt: new Date().toISOString() })
+  await startSession(event, sessionUser)
   return { user: sessionUser }
 })

@@ -2,8 +2,10 @@ import { idParamsSchema } from '#shared/schemas/users'
 
 export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
-  await requireCallAccess(event, id)
+  const { user } = await requireCallAccess(event, id)
   const record = await getCallRecord(id)
   if (!record) throw createError({ status: 404, statusText: 'Call not found' })
-  return record
+  // `view` says which answer this is: a mechanic's leaves out the customer's billing details.
+  if (user.role === 'mechanic') return { ...forMechanic(record), view: 'mechanic' as const }
+  return { ...record, view: 'office' as const }
 })

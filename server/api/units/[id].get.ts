@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, validateWith(idParamsSchema))
   const unit = await getUnitWithHistory(id, user)
   if (!unit) throw createError({ status: 404, statusText: 'Unit not found' })
-  return unit
+  return user.role === 'mechanic' ? { ...unit, customer: mechanicCustomer(unit.customer) } : unit
 })

@@ -10,9 +10,23 @@ export default defineEventHandler(async (event) => {
   }
   if (patch.homeTruckId) await checkHomeTruck(id, patch.homeTruckId)
   const { password, ...rest } = patch
-  const [row] = await useDb().update(tables.users)
-    .set({ ...rest, ...(password ? { passwordHash: await hashPassword(password) } : {}) })
-    .where(eq(tables.users.id, id)).returning()
+  if (password) {
+    // The person's own name and e-mail are the first things a guesser tries.
+    const person = await useDb().query.users.findFirst({ where: eq(tables.users.id, id) })
+    const problem = person && passwordProblem(password, [person.name, person.email, patch.name])
+    if (problem) ruleError('password', problem)
+  }
+  const passwordHash = password ? await hashPassword(password) : undefined
+  // A new password or turning the account off ends the person's sessions everywhere, in the
+  // same transaction as the change.
+  const row = await useDb().transaction(async (tx) => {
+    const [updated] = await tx.update(tables.users).set({ ...rest, ...(passwordHash ? { passwordHash } : {}) })
+      .where(eq(tables.users.id, id)).returning()
+    if (updated && (passwordHash || patch.active === false)) await endSessionsOf(id, tx)
+    return updated
+  })
   if (!row) throw createError({ status: 404, statusText: 'No such person' })
+  // An admin who set their own password stays signed in here, on the new epoch.
+  if (passwordHash && id === admin.id) await startSession(event, admin)
   return publicUser(row)
 })
