@@ -9,3 +9,6 @@ export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
 export type UnitView = Answer<'/api/units/:id', 'get'>
 export type InvoiceView = Answer<'/api/invoices/:id', 'get'>
 export type BillingDeskView = Answer<'/api/billing/desk', 'get'>
+/** The fleet's status page (opened from a link, no account). */
+export type FleetStatusView = Answer<'/api/share/:token', 'get'>
+export type StatusLinkState = Answer<'/api/calls/:id/share', 'get'>
