@@ -86,3 +86,29 @@ test('the fleet follows a call from driving out to done on a 360 px phone, in bo
   await expect(phone.getByRole('heading', { name: 'This link does not work' })).toBeVisible()
   await fleet.close()
 })
+
+test('the office sends the service report of a finished call to the fleet, confirming the address first', async ({ page }) => {
+  const id = randomUUID()
+  await testPool().query(
+    `INSERT INTO calls (id, status, outcome, customer_id, unit_id, location_text, complaint, mechanic_id, story_complaint, story_cause,
+       story_correction, received_at, assigned_at, en_route_at, on_site_at, completed_at)
+     VALUES ($1, 'completed', 'repaired', $2, $3, 'Civic Loop at 3rd, curb lane', 'No crank', $4, 'No crank.',
+       'Starter cable lug loose; 1.9 V drop while cranking.', 'Cleaned and tightened the lug; 0.3 V drop.',
+       now() - interval '3 hours', now() - interval '170 minutes', now() - interval '160 minutes', now() - interval '2 hours',
+       now() - interval '1 hour')`,
+    [id, seedId('customer:lakeline'), seedId('unit:14'), MECH1],
+  )
+  await page.setViewportSize({ width: 1280, height: 900 })
+  await signIn(page, 'office@wayside.test')
+  await page.goto(`/calls/${id}`)
+  const report = page.getByRole('region', { name: 'Service report' })
+  await expect(report.getByRole('link', { name: 'Open the report (PDF)' })).toHaveAttribute('href', `/api/calls/${id}/report.pdf`)
+  await expect(report.getByLabel('Send it to the fleet at')).toHaveValue('fleet.billing@lakeline.test')
+  await report.getByRole('button', { name: 'Send the report…' }).click()
+  const ask = report.getByRole('dialog')
+  await expect(ask).toContainText('to fleet.billing@lakeline.test?')
+  await report.screenshot({ path: 'tests/e2e/screenshots/fleet-report-send.png' })
+  await ask.getByRole('button', { name: 'Send it' }).click()
+  await expect(report.getByRole('status')).toContainText('On its way to fleet.billing@lakeline.test')
+  await expect(page.getByRole('region', { name: 'Timeline' })).toContainText('Service report e-mailed to fleet.billing@lakeline.test')
+})
