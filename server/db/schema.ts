@@ -94,13 +94,50 @@ export const truckStock = pgTable('truck_stock', {
   truckId: uuid('truck_id').notNull().references(() => serviceTrucks.id),
   partNumber: text('part_number').notNull(),
   description: text('description').notNull(),
+  /** On hand. Below zero when the mechanics used more than the count said: a flag to count again. */
   quantity: doublePrecision('quantity').notNull().default(0),
   unitPriceCents: integer('unit_price_cents').notNull(),
   coreChargeCents: integer('core_charge_cents').notNull().default(0),
+  bin: text('bin'),
+  /** Restock when on hand falls below this. */
+  minimum: doublePrecision('minimum').notNull().default(0),
+  costCents: integer('cost_cents').notNull().default(0),
   ...synced,
 }, t => [
   uniqueIndex('truck_stock_part_unique').on(t.truckId, t.partNumber),
   check('truck_stock_price_nonneg', sql`${t.unitPriceCents} >= 0 AND ${t.coreChargeCents} >= 0`),
+  check('truck_stock_minimum_cost', sql`${t.minimum} >= 0 AND ${t.costCents} >= 0`),
+])
+
+/**
+ * Every change to a truck's stock, append-only: a synced part line taking parts off (written by
+ * the `wayside_take_stock` trigger on part_lines, once per part line), a count corrected, a
+ * transfer between trucks, a line added. Who, when, before and after, and why.
+ */
+export const stockMoves = pgTable('stock_moves', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  truckId: uuid('truck_id').notNull().references(() => serviceTrucks.id),
+  stockId: uuid('stock_id').references(() => truckStock.id),
+  partNumber: text('part_number').notNull(),
+  kind: text('kind').notNull(),
+  delta: doublePrecision('delta').notNull(),
+  before: doublePrecision('before'),
+  after: doublePrecision('after'),
+  /** Parts used beyond what was on hand (or on a truck that does not stock the part). */
+  shortfall: doublePrecision('shortfall').notNull().default(0),
+  reason: text('reason'),
+  partLineId: uuid('part_line_id').references(() => partLines.id, { onDelete: 'set null' }),
+  callId: uuid('call_id').references(() => calls.id, { onDelete: 'set null' }),
+  /** Both halves of a transfer share it. */
+  transferId: uuid('transfer_id'),
+  byUserId: uuid('by_user_id').references(() => users.id),
+  at: ts('at').notNull().defaultNow(),
+}, t => [
+  uniqueIndex('stock_moves_part_line_unique').on(t.partLineId),
+  index('stock_moves_truck_idx').on(t.truckId, t.at),
+  index('stock_moves_stock_idx').on(t.stockId, t.at),
+  check('stock_moves_kind', sql`${t.kind} IN ('used', 'count', 'transfer_out', 'transfer_in', 'added')`),
+  check('stock_moves_shortfall', sql`${t.shortfall} >= 0`),
 ])
 
 /** The admin's rates; the newest row by `effectiveFrom` is in force. */
@@ -752,4 +789,9 @@ export const creditNotesRelations = relations(creditNotes, ({ one, many }) => ({
 }))
 export const creditNoteLinesRelations = relations(creditNoteLines, ({ one }) => ({
   note: one(creditNotes, { fields: [creditNoteLines.creditNoteId], references: [creditNotes.id] }),
+}))
+export const stockMovesRelations = relations(stockMoves, ({ one }) => ({
+  truck: one(serviceTrucks, { fields: [stockMoves.truckId], references: [serviceTrucks.id] }),
+  stock: one(truckStock, { fields: [stockMoves.stockId], references: [truckStock.id] }),
+  by: one(users, { fields: [stockMoves.byUserId], references: [users.id] }),
 }))

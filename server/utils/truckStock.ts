@@ -20,6 +20,9 @@ export async function truckStockFor(user: User, truckId: string) {
   const items = await db.select({
     id: truckStock.id, truckId: truckStock.truckId, partNumber: truckStock.partNumber, description: truckStock.description,
     quantity: truckStock.quantity, unitPriceCents: truckStock.unitPriceCents, coreChargeCents: truckStock.coreChargeCents, version: truckStock.version,
+    bin: truckStock.bin, minimum: truckStock.minimum,
+    // What the shop paid is the office's business, not the phone's.
+    costCents: user.role === 'mechanic' ? sql<number | null>`NULL` : truckStock.costCents,
   }).from(truckStock).where(eq(truckStock.truckId, truckId)).orderBy(asc(truckStock.partNumber))
   return { truck: { id: truck.id, name: truck.name }, items }
 }

@@ -3,6 +3,6 @@ export function publicUser(u: typeof tables.users.$inferSelect) {
   return {
     id: u.id, email: u.email, name: u.name, role: u.role, phone: u.phone, active: u.active,
     onDuty: u.onDuty, lastLat: u.lastLat, lastLon: u.lastLon, lastPositionAt: u.lastPositionAt,
-    version: u.version,
+    homeTruckId: u.homeTruckId, version: u.version,
   }
 }

@@ -18,6 +18,8 @@ export const userPatchSchema = z.object({
   active: z.boolean().optional(),
   onDuty: z.boolean().optional(),
   password: password.optional(),
+  /** A mechanic's home truck: the stock their part lines come from unless the call names another. */
+  homeTruckId: z.string({ message: 'Pick a truck' }).uuid('Pick a truck').nullable().optional(),
 }).refine(v => Object.keys(v).length > 0, { message: 'Nothing to change' })
 
 export const idParamsSchema = z.object({ id: z.string().uuid('Not a valid id') })

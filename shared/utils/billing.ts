@@ -281,7 +281,13 @@ function applyAdjustments(lines: PricedLine[], adjustments: PriceAdjustment[], k
     else if (a.action === 'remove') lines.splice(i, 1)
     else {
       checkFields(a.changes)
-      const next = { ...lines[i]!, ...a.changes, adjusted: true }
+      const prev = lines[i]!
+      const next = { ...prev, ...a.changes, adjusted: true }
+      // A new quantity without a new description: the hours or distance the description names follow it.
+      if (a.changes.quantity !== undefined && a.changes.description === undefined) {
+        next.description = prev.description.replace(/^(\D*?)(\d+\.\d) (h|km|mi)\b/, (m, lead: string, q: string, unit: string) =>
+          (Number(q) === prev.quantity ? `${lead}${a.changes.quantity!.toFixed(1)} ${unit}` : m))
+      }
       lines[i] = { ...next, amountCents: roundCents(next.quantity * next.unitCents) }
     }
   }

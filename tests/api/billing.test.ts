@@ -17,7 +17,8 @@ async function finishedCall(customerName: string, opts: CallOpts) {
   const id = randomUUID()
   // 45.498, -93.012 is the north yard; this point is about 10 km due south of it.
   await db.query(`INSERT INTO calls (id, status, outcome, customer_id, location_text, lat, lon, complaint, mechanic_id, service_truck_id, completed_at)
-    VALUES ($1, 'completed', 'repaired', $2, 'Test location', 45.408, -93.012, 'Test complaint', $3, $4, now())`, [id, c.id, mech.id, truck.id])
+    VALUES ($1, 'completed', 'repaired', $2, 'Test location', 45.408, -93.012, 'Test complaint', $3, $4,
+      now())`, [id, c.id, mech.id, truck.id])
   // Tuesday 2026-03-10 10:00 in Chicago (CDT, UTC−5): inside the seeded hours, 07:00–18:00 Monday to Friday.
   const t0 = opts.workFrom ?? Date.parse('2026-03-10T15:00:00Z')
   await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', $2), ($1, 'work_stop', $3)`,
@@ -265,10 +266,12 @@ describe('the office adjusts a draft', () => {
   it('changes a line with a reason, logs who, when, before and after, and reprices what depends on it', async () => {
     const callId = await finishedCall('Prairie Cold Haul', { laborMin: 83 })
     const inv = (await office.post('/api/invoices', { callId })).body
-    const noReason = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'change', key: 'labor', changes: { quantity: 1.2 } })
+    const noReason = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'change', key: 'labor',
+      changes: { quantity: 1.2 } })
     expect(noReason.status).toBe(400)
     expect(noReason.body.data.fields.reason).toBeTruthy()
-    const r = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'change', key: 'labor', changes: { quantity: 1.2 }, reason: 'Waited 12 min for the yard gate' })
+    const r = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'change', key: 'labor', changes: { quantity: 1.2 },
+      reason: 'Waited 12 min for the yard gate' })
     expect(r.status).toBe(200)
     const line = (key: string) => r.body.lines.find((l: any) => l.key === key)
     // 1.2 h × $145.00 = $174.00; shop supplies follow: 5 % of $174.00 = $8.70
@@ -285,14 +288,18 @@ describe('the office adjusts a draft', () => {
     expect(line('travel').source.rate).toBe('travelCentsPerUnit')
 
     const added = await office.post(`/api/invoices/${inv.id}/adjustments`, {
-      action: 'add', reason: 'Two steer tires disposed of', line: { kind: 'fee', description: 'Tire disposal', quantity: 2, unitCents: 400, taxable: true },
+      action: 'add', reason: 'Two steer tires disposed of', line: { kind: 'fee', description: 'Tire disposal', quantity: 2,
+        unitCents: 400, taxable: true },
     })
     const tire = added.body.lines.find((l: any) => l.description === 'Tire disposal')
     expect(tire).toMatchObject({ amountCents: 800, source: { office: true } })
-    const road = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'road', distance: 31.5, reason: 'Trip meter, out and back' })
+    const road = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'road', distance: 31.5,
+      reason: 'Trip meter, out and back' })
     // 31.5 km by road × $2.25 = $70.875 → $70.88
-    expect(road.body.lines.find((l: any) => l.key === 'travel')).toMatchObject({ quantity: 31.5, amountCents: 7088, description: expect.stringMatching(/by road/) })
-    const removed = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'env-fee', reason: 'No fluids on this call' })
+    expect(road.body.lines.find((l: any) => l.key === 'travel')).toMatchObject({ quantity: 31.5, amountCents: 7088,
+      description: expect.stringMatching(/by road/) })
+    const removed = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'env-fee',
+      reason: 'No fluids on this call' })
     expect(removed.body.lines.some((l: any) => l.key === 'env-fee')).toBe(false)
     expect(removed.body.adjustments.map((a: any) => a.action)).toEqual(['change', 'add', 'road', 'remove'])
     expect(await count('invoice_adjustments', 'invoice_id = $1', [inv.id])).toBe(4)
@@ -301,7 +308,8 @@ describe('the office adjusts a draft', () => {
     expect(missing.status).toBe(422)
     expect(missing.body.data.fields.key).toBeTruthy()
     const dispatcher = await signedIn(DEMO.dispatcher)
-    expect((await dispatcher.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'labor', reason: 'x x x' })).status).toBe(403)
+    expect((await dispatcher.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'labor',
+      reason: 'x x x' })).status).toBe(403)
     // Once sent, the invoice is no longer the office's to change.
     await office.post(`/api/invoices/${inv.id}/send`)
     const late = await office.post(`/api/invoices/${inv.id}/adjustments`, { action: 'remove', key: 'labor', reason: 'Too late' })
@@ -316,7 +324,8 @@ describe('clock times the phone could not be trusted on', () => {
   it('are neither billed nor a 500: the draft leaves them out and says so', async () => {
     const callId = await finishedCall('Prairie Cold Haul', { laborMin: 60 })
     // A second work span the server flagged as being in the future: five hours that must not be billed.
-    await testPool().query(`INSERT INTO clock_events (call_id, kind, device_at, flag) VALUES ($1, 'work_start', '2026-03-10T17:00:00Z', 'future'),
+    await testPool().query(`INSERT INTO clock_events (call_id, kind, device_at, flag)
+      VALUES ($1, 'work_start', '2026-03-10T17:00:00Z', 'future'),
       ($1, 'work_stop', '2026-03-10T22:00:00Z', 'future')`, [callId])
     const r = await office.post('/api/invoices', { callId })
     expect(r.status).toBe(201)
@@ -337,8 +346,10 @@ describe('the billing desk', () => {
     expect(item.estimated).toBe(true)
     expect(item.flags.map((f: any) => f.code).sort()).toEqual(['no_po', 'no_sign_off', 'no_story', 'over_limit'])
     expect(item.flags.find((f: any) => f.code === 'over_limit').text).toMatch(/\$50\.00/)
-    await testPool().query(`UPDATE calls SET po_number = 'IFL-1', story_cause = 'Worn belt', story_correction = 'New belt', auth_limit_cents = NULL WHERE id = $1`, [callId])
-    await testPool().query(`INSERT INTO sign_offs (call_id, driver_name, signature) VALUES ($1, 'Test Driver', 'data:image/png;base64,AAAA')`, [callId])
+    await testPool().query(`UPDATE calls SET po_number = 'IFL-1', story_cause = 'Worn belt', story_correction = 'New belt',
+      auth_limit_cents = NULL WHERE id = $1`, [callId])
+    await testPool().query(`INSERT INTO sign_offs (call_id, driver_name, signature)
+      VALUES ($1, 'Test Driver', 'data:image/png;base64,AAAA')`, [callId])
     const again = (await office.get('/api/billing/desk')).body.items.find((i: any) => i.callId === callId)
     expect(again.flags).toEqual([])
     expect((await (await signedIn(DEMO.dispatcher)).get('/api/billing/desk')).status).toBe(403)
@@ -349,7 +360,8 @@ describe('rates', () => {
   it('refuses a tax rate over 30 % and a zone nobody knows, naming the field and saving nothing', async () => {
     const admin = await signedIn(DEMO.admin)
     const { body: { rates } } = await admin.get('/api/rates')
-    expect(rates).toMatchObject({ timeZone: 'America/Chicago', roadFactorPct: 130, partsTaxable: true, businessName: 'Two Rivers Road Service' })
+    expect(rates).toMatchObject({ timeZone: 'America/Chicago', roadFactorPct: 130, partsTaxable: true,
+      businessName: 'Two Rivers Road Service' })
     const { id: _i, version: _v, createdAt: _c, updatedAt: _u, effectiveFrom: _e, ...values } = rates
     const before = await count('rates')
     const high = await admin.post('/api/rates', { ...values, taxRateBasisPoints: 3001 })

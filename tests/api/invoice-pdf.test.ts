@@ -22,7 +22,8 @@ function png(width: number, height: number, rgb: [number, number, number]) {
   ihdr.set([8, 2, 0, 0, 0], 8)
   const row = Buffer.concat([Buffer.from([0]), Buffer.alloc(width * 3).map((_, i) => rgb[i % 3]!)])
   const raw = Buffer.concat(Array.from({ length: height }, () => row))
-  return Buffer.concat([Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))])
+  return Buffer.concat([Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)),
+    chunk('IEND', Buffer.alloc(0))])
 }
 
 /** Each page's text, as pdf.js reads it back, and how many images each page paints. */
@@ -42,7 +43,9 @@ async function readPdf(bytes: Buffer) {
 }
 
 let office: Awaited<ReturnType<typeof signedIn>>
-beforeAll(async () => { office = await signedIn(DEMO.office) })
+beforeAll(async () => {
+  office = await signedIn(DEMO.office)
+})
 afterAll(closeTestPool)
 
 describe('the invoice PDF', () => {
@@ -52,16 +55,21 @@ describe('the invoice PDF', () => {
     const { rows: [truck] } = await db.query(`SELECT id FROM service_trucks WHERE name = 'Truck 11'`)
     const { rows: [mech] } = await db.query(`SELECT id, name FROM users WHERE email = $1`, [DEMO.mech1])
     const unitId = randomUUID()
-    await db.query(`INSERT INTO units (id, customer_id, unit_number, odometer, odometer_unit) VALUES ($1, $2, $3, 412345, 'km')`, [unitId, c.id, `PDF-${unitId.slice(0, 6)}`])
+    await db.query(`INSERT INTO units (id, customer_id, unit_number, odometer, odometer_unit) VALUES ($1, $2, $3, 412345, 'km')`,
+      [unitId, c.id, `PDF-${unitId.slice(0, 6)}`])
     const callId = randomUUID()
     const cause = 'Coolant sensor read 1.2 kΩ at 84 °C (spec 1.1 ± 0.1 kΩ); pulse 350 µs. Driver Łukasz Nováček, Gómez yard.'
-    await db.query(`INSERT INTO calls (id, status, outcome, customer_id, unit_id, location_text, lat, lon, complaint, mechanic_id, service_truck_id, po_number,
+    await db.query(`INSERT INTO calls (id, status, outcome, customer_id, unit_id, location_text, lat, lon, complaint, mechanic_id,
+      service_truck_id, po_number,
       story_complaint, story_cause, story_correction, completed_at)
       VALUES ($1, 'completed', 'repaired', $2, $3, 'Route 8 at mile 12', 45.408, -93.012, 'Gauge reads cold', $4, $5, 'IFL-7781',
-      'Gauge reads cold.', $6, 'Replaced the sensor; 84 °C at operating temperature.', '2026-03-10T17:00:00Z')`, [callId, c.id, unitId, mech.id, truck.id, cause])
-    await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', '2026-03-10T15:00:00Z'), ($1, 'work_stop', '2026-03-10T16:30:00Z')`, [callId])
+      'Gauge reads cold.', $6, 'Replaced the sensor; 84 °C at operating temperature.',
+        '2026-03-10T17:00:00Z')`, [callId, c.id, unitId, mech.id, truck.id, cause])
+    await db.query(`INSERT INTO clock_events (call_id, kind, device_at)
+      VALUES ($1, 'work_start', '2026-03-10T15:00:00Z'), ($1, 'work_stop', '2026-03-10T16:30:00Z')`, [callId])
     for (let i = 0; i < 70; i++) {
-      await db.query(`INSERT INTO part_lines (call_id, part_number, description, quantity, unit_price_cents) VALUES ($1, $2, 'Hose clamp, stainless', 1, 250)`, [callId, `HC-${i}`])
+      await db.query(`INSERT INTO part_lines (call_id, part_number, description, quantity, unit_price_cents)
+        VALUES ($1, $2, 'Hose clamp, stainless', 1, 250)`, [callId, `HC-${i}`])
     }
     const photoId = randomUUID()
     await db.query(`INSERT INTO photos (id, call_id, caption) VALUES ($1, $2, 'Connector after cleaning')`, [photoId, callId])
@@ -95,7 +103,8 @@ describe('the invoice PDF', () => {
     const nfkc = all.normalize('NFKC')
     for (const s of ['1.2 kΩ at 84 °C', '1.1 ± 0.1 kΩ', '350 µs', 'Łukasz Nováček', 'Gómez']) expect(nfkc).toContain(s.normalize('NFKC'))
     // What a payables desk matches by; the business's phone and remit-to address (seeded rates).
-    for (const s of ['Date of service: 2026-03-10', `Mechanic: ${mech.name}`, 'Odometer: 412,345 km', 'PO: IFL-7781', 'Phone 555-0100', 'Remit to: Two Rivers Road Service, 14 Quarry Spur']) {
+    for (const s of ['Date of service: 2026-03-10', `Mechanic: ${mech.name}`, 'Odometer: 412,345 km', 'PO: IFL-7781',
+      'Phone 555-0100', 'Remit to: Two Rivers Road Service, 14 Quarry Spur']) {
       expect(all).toContain(s)
     }
     for (let i = 0; i < 70; i++) expect(all).toContain(`HC-${i} Hose clamp`)

@@ -13,7 +13,8 @@ test('the office adjusts a draft with a reason, sends it to the address it confi
   mkdirSync('test-results', { recursive: true })
   await signIn(page, 'office@wayside.test')
   const desk = page.getByRole('table', { name: /waiting to be billed/ })
-  const row = desk.getByRole('row').filter({ hasText: 'Ironwood Freight Lines' }).filter({ has: page.getByRole('button', { name: 'Draft invoice' }) }).first()
+  const row = desk.getByRole('row').filter({ hasText: 'Ironwood Freight Lines' }).filter({ has: page.getByRole('button',
+    { name: 'Draft invoice' }) }).first()
   // The desk says what to look at first, in words.
   await expect(desk.getByText('if drafted now').first()).toBeVisible()
   await page.screenshot({ path: `${SHOTS}/billing-desk-1280.png`, fullPage: true })
@@ -51,7 +52,8 @@ test('the office adjusts a draft with a reason, sends it to the address it confi
   const pdf = await page.request.get(`${page.url().replace(/\/billing\/invoices\//, '/api/invoices/')}/pdf`)
   expect(pdf.headers()['content-type']).toBe('application/pdf')
   writeFileSync('test-results/invoice.pdf', await pdf.body())
-  execFileSync('pdftoppm', ['-png', '-r', '80', '-f', '1', '-l', '1', '-singlefile', 'test-results/invoice.pdf', `${SHOTS}/invoice-pdf-page1`])
+  execFileSync('pdftoppm', ['-png', '-r', '80', '-f', '1', '-l', '1', '-singlefile', 'test-results/invoice.pdf',
+    `${SHOTS}/invoice-pdf-page1`])
 
   await page.getByRole('button', { name: 'Post to account' }).click()
   await expect(page.getByText(/charge to the fleet's account on/)).toBeVisible()

@@ -77,20 +77,23 @@ describe('a priced call, worked by hand', () => {
       parts: [{ id: 'p1', partNumber: 'TR-ALT-24', description: 'Alternator', quantity: 1, unitPriceCents: 38900, coreChargeCents: 7500 }],
     }))
     expect(amounts(p)).toEqual([
-      ['labor', 15950], ['labor:after', 6525], ['travel', 8280], ['part:p1', 48625], ['core:p1', 7500], ['env-fee', 650], ['supplies', 1124],
+      ['labor', 15950], ['labor:after', 6525], ['travel', 8280], ['part:p1', 48625], ['core:p1', 7500], ['env-fee', 650],
+      ['supplies', 1124],
     ])
     expect(p.lines.find(l => l.key === 'labor:after')!.unitCents).toBe(21750)
     expect(p.subtotalCents).toBe(88654)
     expect(p.taxCents).toBe(3654)
     expect(p.totalCents).toBe(92308)
     // Every line names where it comes from.
-    expect(p.lines.find(l => l.key === 'labor')!.source).toEqual({ rate: 'laborCentsPerHour', clockEventIds: ['s-2026-03-10T21:55:00Z', 'e-2026-03-10T23:18:00Z'] })
+    expect(p.lines.find(l => l.key === 'labor')!.source).toEqual({ rate: 'laborCentsPerHour',
+      clockEventIds: ['s-2026-03-10T21:55:00Z', 'e-2026-03-10T23:18:00Z'] })
     expect(p.lines.find(l => l.key === 'part:p1')!.source).toEqual({ partLineId: 'p1', rate: 'partsMarkupPct' })
   })
 
   it('caps shop supplies', () => {
     // 8 h inside hours × $145 = $1,160.00; 5 % = $58.00, capped at $35.00
-    const p = priceCall(base({ rates: { ...rates, shopSuppliesBasisPoints: 500, shopSuppliesCapCents: 3500 }, clock: work('2026-03-10T13:00:00Z', '2026-03-10T21:00:00Z') }))
+    const p = priceCall(base({ rates: { ...rates, shopSuppliesBasisPoints: 500, shopSuppliesCapCents: 3500 },
+      clock: work('2026-03-10T13:00:00Z', '2026-03-10T21:00:00Z') }))
     expect(amounts(p)).toEqual([['labor', 116000], ['supplies', 3500]])
   })
 
@@ -100,7 +103,8 @@ describe('a priced call, worked by hand', () => {
     expect(amounts(a)).toEqual([['labor', 14500]])
     expect(a.lines[0]!.description).toMatch(/minimum 1\.0 h; 0\.2 h on the clock/)
     // At $90/h: labor $90.00 + travel 10 km × 1.3 = 13.0 km × $2.25 = $29.25 → $119.25; minimum $125 → $5.75 more.
-    const b = priceCall(base({ rates: { ...rates, laborCentsPerHour: 9000 }, clock: work('2026-03-10T15:00:00Z', '2026-03-10T15:10:00Z'), distance: { straightKm: 10 } }))
+    const b = priceCall(base({ rates: { ...rates, laborCentsPerHour: 9000 }, clock: work('2026-03-10T15:00:00Z',
+      '2026-03-10T15:10:00Z'), distance: { straightKm: 10 } }))
     expect(amounts(b)).toEqual([['labor', 9000], ['travel', 2925], ['minimum', 575]])
     expect(b.totalCents).toBe(12500)
   })
@@ -125,7 +129,8 @@ describe('a priced call, worked by hand', () => {
   })
 
   it('charges no tax to a tax-exempt customer', () => {
-    const p = priceCall(base({ taxExempt: true, clock: work('2026-03-10T15:00:00Z', '2026-03-10T16:00:00Z'), parts: [{ partNumber: 'TR-FUSE-30', description: 'Fuse', quantity: 2, unitPriceCents: 650, coreChargeCents: 0 }] }))
+    const p = priceCall(base({ taxExempt: true, clock: work('2026-03-10T15:00:00Z', '2026-03-10T16:00:00Z'),
+      parts: [{ partNumber: 'TR-FUSE-30', description: 'Fuse', quantity: 2, unitPriceCents: 650, coreChargeCents: 0 }] }))
     expect(p.taxCents).toBe(0)
     expect(p.totalCents).toBe(p.subtotalCents)
   })
@@ -133,7 +138,8 @@ describe('a priced call, worked by hand', () => {
   it('taxes the line kinds the rates name', () => {
     // 1.0 h labor $145.00, travel 13.0 km $29.25, part $10.00 + 25 % = $12.50, core $5.00, env. fee $6.50.
     const input = base({
-      rates: { ...rates, environmentalFeeCents: 650 }, clock: work('2026-03-10T15:00:00Z', '2026-03-10T16:00:00Z'), distance: { straightKm: 10 },
+      rates: { ...rates, environmentalFeeCents: 650 }, clock: work('2026-03-10T15:00:00Z', '2026-03-10T16:00:00Z'),
+      distance: { straightKm: 10 },
       parts: [{ id: 'x', partNumber: 'X', description: 'x', quantity: 1, unitPriceCents: 1000, coreChargeCents: 500 }],
     })
     const taxed = (over: Partial<BillingRates>) => priceCall({ ...input, rates: { ...input.rates, ...over } }).taxCents
@@ -154,7 +160,8 @@ describe('a priced call, worked by hand', () => {
 
   it('refuses impossible input', () => {
     expect(() => priceCall(base({ distance: { straightKm: -1 } }))).toThrow(/travel distance/)
-    expect(() => priceCall(base({ parts: [{ partNumber: 'X', description: 'x', quantity: 0, unitPriceCents: 1, coreChargeCents: 0 }] }))).toThrow(/quantity/)
+    expect(() => priceCall(base({ parts: [{ partNumber: 'X', description: 'x', quantity: 0, unitPriceCents: 1,
+      coreChargeCents: 0 }] }))).toThrow(/quantity/)
     expect(() => priceCall(base({ rates: { ...rates, laborCentsPerHour: 10.5 } }))).toThrow(/cents/)
   })
 })
@@ -202,7 +209,8 @@ describe('after hours, by the local time in the business\'s zone', () => {
       fc.constantFrom(...zones), fc.integer({ min: 0, max: 2 * 366 * 24 * 60 }), fc.integer({ min: 1, max: 30 * 60 }),
       fc.integer({ min: 0, max: 23 }), fc.integer({ min: 1, max: 24 }), fc.subarray([1, 2, 3, 4, 5, 6, 7], { minLength: 1 }),
       (timeZone, startMin, lengthMin, openH, lenH, openDays) => {
-        const r: BillingRates = { ...open7, timeZone, openMinute: openH * 60, closeMinute: Math.min(1440, (openH + lenH) * 60), openDays, holidays: [] }
+        const r: BillingRates = { ...open7, timeZone, openMinute: openH * 60, closeMinute: Math.min(1440, (openH + lenH) * 60),
+          openDays, holidays: [] }
         const start = Date.UTC(2025, 0, 1) + startMin * MIN
         const fmt = new Intl.DateTimeFormat('en-US', { timeZone, weekday: 'short', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' })
         let inside = 0
@@ -231,6 +239,11 @@ describe('the office\'s changes to a draft', () => {
     const p = priceCall({ ...input, adjustments: [{ action: 'change', key: 'labor', changes: { quantity: 1.5 } }] })
     expect(amounts(p)).toEqual([['labor', 21750], ['travel', 2925], ['supplies', 1088]])
     expect(p.lines[0]!.adjusted).toBe(true)
+    // The description names the new hours, so the customer never reads 2.0 h beside a quantity of 1.5.
+    expect(p.lines[0]!.description).toBe('Labor 1.5 h (tenths of an hour, rounded up)')
+    const described = priceCall({ ...input, adjustments: [{ action: 'change', key: 'labor', changes: { quantity: 1.5,
+      description: 'Labor, agreed' } }] })
+    expect(described.lines[0]!.description).toBe('Labor, agreed')
   })
   it('adds, removes and replays in order; a change to a line that is gone is reported, not applied', () => {
     const adj: PriceAdjustment[] = [
@@ -250,7 +263,8 @@ describe('the office\'s changes to a draft', () => {
 
 describe('clock events the phone could not be trusted on', () => {
   it('are left out of the priced time and reported', () => {
-    const clock = [...work('2026-03-10T15:00:00Z', '2026-03-10T16:00:00Z'), ...work('2026-03-10T18:00:00Z', '2026-03-10T23:00:00Z', 'future')]
+    const clock = [...work('2026-03-10T15:00:00Z', '2026-03-10T16:00:00Z'), ...work('2026-03-10T18:00:00Z', '2026-03-10T23:00:00Z',
+      'future')]
     const p = priceCall(base({ clock }))
     // Only the trusted hour is billed: 1.0 h × $145.00
     expect(amounts(p)).toEqual([['labor', 14500]])
@@ -278,8 +292,10 @@ describe('properties of every priced invoice', () => {
     minimumLaborTenths: fc.integer({ min: 0, max: 40 }), roadCallMinimumCents: fc.integer({ min: 0, max: 50_000 }),
     travelBasis: fc.constantFrom('distance' as const, 'time' as const), travelCentsPerUnit: fc.integer({ min: 0, max: 1000 }),
     travelUnit: fc.constantFrom('km' as const, 'mi' as const), travelCentsPerHour: fc.integer({ min: 0, max: 20_000 }),
-    roadFactorPct: fc.integer({ min: 100, max: 300 }), partsMarkupPct: fc.integer({ min: 0, max: 500 }), taxRateBasisPoints: fc.integer({ min: 0, max: 3000 }),
-    laborTaxable: fc.boolean(), travelTaxable: fc.boolean(), partsTaxable: fc.boolean(), coresTaxable: fc.boolean(), feesTaxable: fc.boolean(),
+    roadFactorPct: fc.integer({ min: 100, max: 300 }), partsMarkupPct: fc.integer({ min: 0, max: 500 }),
+    taxRateBasisPoints: fc.integer({ min: 0, max: 3000 }),
+    laborTaxable: fc.boolean(), travelTaxable: fc.boolean(), partsTaxable: fc.boolean(), coresTaxable: fc.boolean(),
+    feesTaxable: fc.boolean(),
     shopSuppliesBasisPoints: fc.integer({ min: 0, max: 2500 }), shopSuppliesCapCents: fc.option(fc.integer({ min: 0, max: 10_000 })),
     environmentalFeeCents: fc.integer({ min: 0, max: 5000 }),
     timeZone: fc.constantFrom('America/Chicago', 'America/New_York', 'Europe/London', 'UTC'),
@@ -288,9 +304,11 @@ describe('properties of every priced invoice', () => {
   })
   const arbInput = fc.record({
     rates: arbRates,
-    start: fc.integer({ min: 0, max: 60 * 24 * 60 }), work: fc.integer({ min: 0, max: 20 * 60 }), travel: fc.integer({ min: 0, max: 5 * 60 }),
+    start: fc.integer({ min: 0, max: 60 * 24 * 60 }), work: fc.integer({ min: 0, max: 20 * 60 }), travel: fc.integer({ min: 0,
+      max: 5 * 60 }),
     km: fc.option(fc.double({ min: 0, max: 800, noNaN: true })), exempt: fc.boolean(),
-    parts: fc.array(fc.record({ q: fc.integer({ min: 1, max: 20 }), p: fc.integer({ min: 0, max: 200_000 }), c: fc.integer({ min: 0, max: 20_000 }) }), { maxLength: 5 }),
+    parts: fc.array(fc.record({ q: fc.integer({ min: 1, max: 20 }), p: fc.integer({ min: 0, max: 200_000 }), c: fc.integer({ min: 0,
+      max: 20_000 }) }), { maxLength: 5 }),
     qty: fc.option(fc.double({ min: 0.1, max: 20, noNaN: true })),
   })
   const toInput = (x: typeof arbInput extends fc.Arbitrary<infer T> ? T : never): PricingInput => {
@@ -302,7 +320,8 @@ describe('properties of every priced invoice', () => {
         { kind: 'travel_start', at: iso(0) }, { kind: 'arrive', at: iso(x.travel) },
         { kind: 'work_start', at: iso(x.travel) }, { kind: 'work_stop', at: iso(x.travel + x.work) },
       ],
-      parts: x.parts.map((p, i) => ({ id: `p${i}`, partNumber: `P${i}`, description: 'part', quantity: p.q, unitPriceCents: p.p, coreChargeCents: p.c })),
+      parts: x.parts.map((p, i) => ({ id: `p${i}`, partNumber: `P${i}`, description: 'part', quantity: p.q, unitPriceCents: p.p,
+        coreChargeCents: p.c })),
       adjustments: x.qty === null ? [] : [{ action: 'change', key: 'labor', changes: { quantity: Math.round(x.qty * 10) / 10 } }],
     }
   }

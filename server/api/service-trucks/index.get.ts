@@ -1,9 +1,8 @@
-import { asc, eq } from 'drizzle-orm'
+import { truckListQuerySchema } from '#shared/schemas/stock'
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event, 'dispatcher', 'office', 'admin')
-  const { serviceTrucks } = tables
-  const items = await useDb().select({ id: serviceTrucks.id, name: serviceTrucks.name, plate: serviceTrucks.plate })
-    .from(serviceTrucks).where(eq(serviceTrucks.active, true)).orderBy(asc(serviceTrucks.name))
+  const user = await requireRole(event, 'dispatcher', 'office', 'admin')
+  const query = await getValidatedQuery(event, validateWith(truckListQuerySchema))
+  const items = await listTrucks({ all: query.all && user.role === 'admin' })
   return { items }
 })

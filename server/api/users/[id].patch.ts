@@ -8,6 +8,7 @@ export default defineEventHandler(async (event) => {
   if (id === admin.id && (patch.active === false || (patch.role && patch.role !== 'admin'))) {
     ruleError(patch.active === false ? 'active' : 'role', 'You cannot lock yourself out; ask another admin')
   }
+  if (patch.homeTruckId) await checkHomeTruck(id, patch.homeTruckId)
   const { password, ...rest } = patch
   const [row] = await useDb().update(tables.users)
     .set({ ...rest, ...(password ? { passwordHash: await hashPassword(password) } : {}) })

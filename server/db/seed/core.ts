@@ -46,19 +46,20 @@ export async function seedCore(db: Db) {
   await db.insert(t.serviceTrucks).values(trucks.map(tr => ({ id: seedId(`truck:${tr.name}`), name: tr.name, plate: tr.plate, yardId: seedId(`yard:${tr.yard}`) }))).onConflictDoNothing()
 
   // Part numbers are our own catalogue's, not any maker's.
+  // [part number, description, on hand, price, core, bin, minimum, cost]
   const stock = [
-    ['TR-EGT-200', 'Exhaust temperature sensor, RTD type', 3, 18450, 0],
-    ['TR-ECT-10K', 'Coolant temperature sensor, NTC type', 4, 6275, 0],
-    ['TR-FUSE-30', 'Blade fuse 30 A (pack of 5)', 10, 650, 0],
-    ['TR-DEF-10', 'DEF (AUS 32), 10 L jug', 6, 2400, 0],
-    ['TR-ALT-24', 'Alternator, 12 V 160 A, remanufactured', 1, 38900, 7500],
-    ['TR-BAT-31', 'Battery, group 31, flooded', 2, 21900, 2500],
-    ['TR-CONN-6', 'Connector repair kit, 6-way sealed', 5, 3150, 0],
+    ['TR-EGT-200', 'Exhaust temperature sensor, RTD type', 3, 18450, 0, 'A1', 2, 11200],
+    ['TR-ECT-10K', 'Coolant temperature sensor, NTC type', 4, 6275, 0, 'A2', 2, 3650],
+    ['TR-FUSE-30', 'Blade fuse 30 A (pack of 5)', 10, 650, 0, 'B1', 5, 280],
+    ['TR-DEF-10', 'DEF (AUS 32), 10 L jug', 6, 2400, 0, 'Floor', 4, 1390],
+    ['TR-ALT-24', 'Alternator, 12 V 160 A, remanufactured', 1, 38900, 7500, 'C1', 1, 24100],
+    ['TR-BAT-31', 'Battery, group 31, flooded', 2, 21900, 2500, 'C2', 1, 14300],
+    ['TR-CONN-6', 'Connector repair kit, 6-way sealed', 5, 3150, 0, 'B2', 3, 1720],
   ] as const
   for (const tr of trucks) {
-    await db.insert(t.truckStock).values(stock.map(([pn, desc, qty, price, core]) => ({
+    await db.insert(t.truckStock).values(stock.map(([pn, desc, qty, price, core, bin, minimum, cost]) => ({
       id: seedId(`stock:${tr.name}:${pn}`), truckId: seedId(`truck:${tr.name}`), partNumber: pn, description: desc,
-      quantity: qty, unitPriceCents: price, coreChargeCents: core,
+      quantity: qty, unitPriceCents: price, coreChargeCents: core, bin, minimum, costCents: cost,
     }))).onConflictDoNothing()
   }
 
