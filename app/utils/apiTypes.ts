@@ -10,6 +10,9 @@ export type SuggestionsView = Answer<'/api/calls/:id/suggestions', 'get'>
 export type UnitView = Answer<'/api/units/:id', 'get'>
 export type InvoiceView = Answer<'/api/invoices/:id', 'get'>
 export type BillingDeskView = Answer<'/api/billing/desk', 'get'>
+/** The fleet's status page (opened from a link, no account). */
+export type FleetStatusView = Answer<'/api/share/:token', 'get'>
+export type StatusLinkState = Answer<'/api/calls/:id/share', 'get'>
 export type TruckListView = Answer<'/api/service-trucks', 'get'>
 export type TruckStockView = Answer<'/api/service-trucks/:id/stock', 'get'>
 export type StockMovesView = Answer<'/api/service-trucks/:id/moves', 'get'>

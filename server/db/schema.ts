@@ -188,6 +188,8 @@ export const rates = pgTable('rates', {
   businessPhone: text('business_phone').notNull().default(''),
   businessEmail: text('business_email').notNull().default(''),
   remitAddress: text('remit_address').notNull().default(''),
+  /** How many days a fleet's status link stays open at most (it also closes when the call is paid). */
+  statusLinkDays: integer('status_link_days').notNull().default(14),
   effectiveFrom: ts('effective_from').notNull().defaultNow(),
   ...synced,
 }, t => [
@@ -196,6 +198,7 @@ export const rates = pgTable('rates', {
     sql`${t.taxRateBasisPoints} >= 0 AND ${t.averageRoadKph} > 0`}`),
   check('rates_travel_basis', sql`${t.travelBasis} IN ('distance', 'time')`),
   check('rates_hours', sql`${t.openMinute} BETWEEN 0 AND 1440 AND ${t.closeMinute} BETWEEN 0 AND 1440`),
+  check('rates_status_link_days', sql`${t.statusLinkDays} BETWEEN 1 AND 90`),
   check('rates_fees_nonneg', sql`${t.travelCentsPerHour} >= 0 AND ${t.shopSuppliesBasisPoints} >= 0 AND ${
     sql`${t.environmentalFeeCents} >= 0 AND ${t.roadFactorPct} >= 100`}`),
 ])
@@ -637,6 +640,27 @@ export const accountEntries = pgTable('account_entries', {
   memo: text('memo').notNull(),
   ...synced,
 }, t => [index('account_entries_customer_idx').on(t.customerId)])
+
+/**
+ * Links opened without an account (server/utils/links.ts): the fleet's status link and others by
+ * `purpose`. Only the SHA-256 of the token is kept, so the table cannot hand out a working link.
+ */
+export const links = pgTable('links', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  purpose: text('purpose').notNull(),
+  /** The record the link opens (a call for `call_status`). */
+  subjectId: uuid('subject_id').notNull(),
+  tokenHash: text('token_hash').notNull(),
+  expiresAt: ts('expires_at').notNull(),
+  revokedAt: ts('revoked_at'),
+  createdBy: uuid('created_by').references(() => users.id),
+  createdAt: ts('created_at').notNull().defaultNow(),
+  lastOpenedAt: ts('last_opened_at'),
+}, t => [
+  uniqueIndex('links_token_hash_unique').on(t.tokenHash),
+  index('links_subject_idx').on(t.purpose, t.subjectId),
+  check('links_token_hash_form', sql`${t.tokenHash} ~ '^[0-9a-f]{64}$'`),
+])
 
 // ── Sync ──────────────────────────────────────────────────────────────────────────────────
 export const syncClients = pgTable('sync_clients', {

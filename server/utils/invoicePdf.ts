@@ -2,11 +2,10 @@
 // desk matches an invoice by (date of service, mechanic, unit, odometer, PO), the story, the lines
 // flowing over as many pages as they need, the totals, and the photos the office marked for the
 // customer. Type from pdfFonts.ts, so Ω, °C, ±, µ and accented names print as written.
-import { and, asc, desc, eq, isNotNull } from 'drizzle-orm'
+import { asc, desc, eq } from 'drizzle-orm'
 import PDFDocument from 'pdfkit'
 
-type Doc = PDFKit.PDFDocument
-type Style = 'body' | 'bold'
+type Style = PdfStyle
 
 const PAGE = { width: 612, height: 792, left: 54, right: 558, top: 128, bottom: 60 }
 const COLS = { desc: 54, qty: 336, unit: 396, amt: 478 }
@@ -14,7 +13,7 @@ const COLS = { desc: 54, qty: 336, unit: 396, amt: 478 }
 /** What the PDF needs beyond the invoice itself: the business, the service facts, the marked photos. */
 async function pdfFacts(inv: InvoiceDetail) {
   const db = useDb()
-  const { rates, calls, users, units, clockEvents, photos } = tables
+  const { rates, calls, users, units, clockEvents } = tables
   const [rate] = inv.ratesId
     ? await db.select().from(rates).where(eq(rates.id, inv.ratesId))
     : await db.select().from(rates).orderBy(desc(rates.effectiveFrom)).limit(1)
@@ -26,16 +25,7 @@ async function pdfFacts(inv: InvoiceDetail) {
     : []
   const clock = await db.select({ at: clockEvents.deviceAt, createdAt: clockEvents.createdAt }).from(clockEvents)
     .where(eq(clockEvents.callId, inv.callId)).orderBy(asc(clockEvents.createdAt))
-  const marked = await db.select().from(photos)
-    .where(and(eq(photos.callId, inv.callId), eq(photos.showCustomer, true), isNotNull(photos.storageKey))).orderBy(asc(photos.createdAt))
-  const images: { caption: string | null, bytes: Buffer }[] = []
-  for (const p of marked) {
-    const raw = await useStorage('uploads').getItemRaw(p.storageKey!)
-    // pdfkit embeds JPEG and PNG; a WebP photo stays on the call page.
-    if (raw && (p.contentType === 'image/jpeg' || p.contentType === 'image/png')) {
-      images.push({ caption: p.caption, bytes: Buffer.isBuffer(raw) ? raw : Buffer.from(raw as ArrayBuffer) })
-    }
-  }
+  const images = await markedPhotoImages(inv.callId)
   const zone = rate?.timeZone ?? 'UTC'
   const day = (d: Date) => new Intl.DateTimeFormat('en-CA', { timeZone: zone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d)
   const times = clock.map(c => c.at ?? c.createdAt).sort((a, b) => a.getTime() - b.getTime())
@@ -53,20 +43,6 @@ async function pdfFacts(inv: InvoiceDetail) {
   }
 }
 
-/** Writes text in runs of the face that has each character; the same options as doc.text. */
-function write(doc: Doc, chains: Record<Style, readonly { name: string, has: (cp: number) => boolean }[]>, text: string, style: Style,
-  at?: { x: number, y: number }, opts: PDFKit.Mixins.TextOptions = {}) {
-  const runs = fontRuns(text, chains[style])
-  if (!runs.length) return chains[style][0]!.name
-  runs.forEach((r, i) => {
-    doc.font(r.face)
-    const o = { ...opts, continued: i < runs.length - 1 || !!opts.continued }
-    if (i === 0 && at) doc.text(r.text, at.x, at.y, o)
-    else doc.text(r.text, o)
-  })
-  return runs.at(-1)!.face
-}
-
 /** The invoice as a PDF. */
 export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
   const [fonts, facts] = await Promise.all([pdfFonts(), pdfFacts(inv)])
@@ -74,11 +50,7 @@ export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
     size: 'LETTER', bufferPages: true, margins: { top: PAGE.top, bottom: PAGE.bottom, left: PAGE.left, right: PAGE.width - PAGE.right },
     info: { Title: `Invoice W-${inv.number}`, Author: facts.business.name },
   })
-  for (const [name, f] of fonts) doc.registerFont(name, f.bytes)
-  const chains = {
-    body: PDF_FACES.body.map(n => fonts.get(n)!.face),
-    bold: PDF_FACES.bold.map(n => fonts.get(n)!.face),
-  }
+  const chains = registerPdfFonts(doc, fonts)
   const chunks: Buffer[] = []
   doc.on('data', (c: Buffer) => chunks.push(c))
   const done = new Promise<Buffer>(resolve => doc.on('end', () => resolve(Buffer.concat(chunks))))
@@ -87,7 +59,7 @@ export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
   const current = { face: 'atkinson-400', size: 10 }
   const put = (text: string, style: Style = 'body', at?: { x: number, y: number }, opts?: PDFKit.Mixins.TextOptions) => {
     current.size = (doc as unknown as { _fontSize: number })._fontSize
-    current.face = write(doc, chains, text, style, at, opts)
+    current.face = writeRuns(doc, chains, text, style, at, opts)
   }
 
   // The header on every page, in the top margin, so text flowing onto a new page starts below it.

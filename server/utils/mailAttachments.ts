@@ -14,6 +14,11 @@ export const MAIL_ATTACHMENT_MAKERS = {
     if (!note) throw new Error(`Credit note ${id} is gone; nothing to attach`)
     return { filename: `credit-note-CN-${note.number}.pdf`, content: await renderCreditNotePdf(note), contentType: 'application/pdf' }
   },
+  'service-report-pdf': async (id: string): Promise<Made> => {
+    const facts = await serviceReportFacts(id)
+    if (!facts) throw new Error(`Call ${id} is gone; nothing to attach`)
+    return { filename: serviceReportFilename(facts), content: await renderServiceReportPdf(facts), contentType: 'application/pdf' }
+  },
 } satisfies Record<string, (id: string) => Promise<Made>>
 
 export function renderMailAttachment(recipe: MailAttachmentRecipe): Promise<Made> {

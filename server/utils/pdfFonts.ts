@@ -46,3 +46,26 @@ export function pdfFonts() {
   })
   return loaded
 }
+
+export type PdfStyle = 'body' | 'bold'
+export type FaceChains = Record<PdfStyle, readonly Face[]>
+
+/** Registers the bundled faces with a document; answers the chain of faces per style. */
+export function registerPdfFonts(doc: PDFKit.PDFDocument, fonts: Map<string, { bytes: Buffer, face: Face }>): FaceChains {
+  for (const [name, f] of fonts) doc.registerFont(name, f.bytes)
+  return { body: PDF_FACES.body.map(n => fonts.get(n)!.face), bold: PDF_FACES.bold.map(n => fonts.get(n)!.face) }
+}
+
+/** Writes text in runs of the face that has each character; the same options as doc.text. Answers the last face used. */
+export function writeRuns(doc: PDFKit.PDFDocument, chains: FaceChains, text: string, style: PdfStyle,
+  at?: { x: number, y: number }, opts: PDFKit.Mixins.TextOptions = {}) {
+  const runs = fontRuns(text, chains[style])
+  if (!runs.length) return chains[style][0]!.name
+  runs.forEach((r, i) => {
+    doc.font(r.face)
+    const o = { ...opts, continued: i < runs.length - 1 || !!opts.continued }
+    if (i === 0 && at) doc.text(r.text, at.x, at.y, o)
+    else doc.text(r.text, o)
+  })
+  return runs.at(-1)!.face
+}

@@ -47,6 +47,7 @@ export const ratesSchema = z.object({
   businessPhone: text('Business phone', 40).default(''),
   businessEmail: text('Business e-mail', 200).default(''),
   remitAddress: text('Remit-to address', 300).default(''),
+  statusLinkDays: whole('Status link lifetime', 1, 90, 'A status link lasts at most 90 days').default(14),
 }).refine(r => r.closeMinute > r.openMinute || (r.openMinute === 0 && r.closeMinute === 0),
   { message: 'Closing time must be after opening time', path: ['closeMinute'] })
 export type RatesInput = z.input<typeof ratesSchema>
