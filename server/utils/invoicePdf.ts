@@ -5,8 +5,7 @@
 import { and, asc, desc, eq, isNotNull } from 'drizzle-orm'
 import PDFDocument from 'pdfkit'
 
-type Doc = PDFKit.PDFDocument
-type Style = 'body' | 'bold'
+type Style = PdfStyle
 
 const PAGE = { width: 612, height: 792, left: 54, right: 558, top: 128, bottom: 60 }
 const COLS = { desc: 54, qty: 336, unit: 396, amt: 478 }
@@ -53,20 +52,6 @@ async function pdfFacts(inv: InvoiceDetail) {
   }
 }
 
-/** Writes text in runs of the face that has each character; the same options as doc.text. */
-function write(doc: Doc, chains: Record<Style, readonly { name: string, has: (cp: number) => boolean }[]>, text: string, style: Style,
-  at?: { x: number, y: number }, opts: PDFKit.Mixins.TextOptions = {}) {
-  const runs = fontRuns(text, chains[style])
-  if (!runs.length) return chains[style][0]!.name
-  runs.forEach((r, i) => {
-    doc.font(r.face)
-    const o = { ...opts, continued: i < runs.length - 1 || !!opts.continued }
-    if (i === 0 && at) doc.text(r.text, at.x, at.y, o)
-    else doc.text(r.text, o)
-  })
-  return runs.at(-1)!.face
-}
-
 /** The invoice as a PDF. */
 export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
   const [fonts, facts] = await Promise.all([pdfFonts(), pdfFacts(inv)])
@@ -87,7 +72,7 @@ export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
   const current = { face: 'atkinson-400', size: 10 }
   const put = (text: string, style: Style = 'body', at?: { x: number, y: number }, opts?: PDFKit.Mixins.TextOptions) => {
     current.size = (doc as unknown as { _fontSize: number })._fontSize
-    current.face = write(doc, chains, text, style, at, opts)
+    current.face = writeInFaces(doc, chains, text, style, at, opts)
   }
 
   // The header on every page, in the top margin, so text flowing onto a new page starts below it.

@@ -14,6 +14,11 @@ export const MAIL_ATTACHMENT_MAKERS = {
     if (!note) throw new Error(`Credit note ${id} is gone; nothing to attach`)
     return { filename: `credit-note-CN-${note.number}.pdf`, content: await renderCreditNotePdf(note), contentType: 'application/pdf' }
   },
+  'statement-pdf': async (customerId: string): Promise<Made> => {
+    const statement = await customerStatement(customerId)
+    if (!statement) throw new Error(`Customer ${customerId} is gone; nothing to attach`)
+    return { filename: statementFilename(statement), content: await renderStatementPdf(statement), contentType: 'application/pdf' }
+  },
 } satisfies Record<string, (id: string) => Promise<Made>>
 
 export function renderMailAttachment(recipe: MailAttachmentRecipe): Promise<Made> {

@@ -26,6 +26,22 @@ export const PDF_FACES = {
 } as const
 export type FaceName = (typeof PDF_FACES)['body' | 'bold'][number]
 
+export type PdfStyle = 'body' | 'bold'
+
+/** Writes text in runs of the face that has each character; the same options as doc.text. */
+export function writeInFaces(doc: PDFKit.PDFDocument, chains: Record<PdfStyle, readonly Face[]>, text: string, style: PdfStyle,
+  at?: { x: number, y: number }, opts: PDFKit.Mixins.TextOptions = {}) {
+  const runs = fontRuns(text, chains[style])
+  if (!runs.length) return chains[style][0]!.name
+  runs.forEach((r, i) => {
+    doc.font(r.face)
+    const o = { ...opts, continued: i < runs.length - 1 || !!opts.continued }
+    if (i === 0 && at) doc.text(r.text, at.x, at.y, o)
+    else doc.text(r.text, o)
+  })
+  return runs.at(-1)!.face
+}
+
 /** The bundled font files, read once per process from Nitro's server assets. */
 let loaded: Promise<Map<string, { bytes: Buffer, face: Face }>> | null = null
 export function pdfFonts() {
