@@ -90,9 +90,9 @@ export async function renderStatementPdf(s: CustomerStatement): Promise<Buffer> 
   // Each open invoice.
   heading('Open invoices')
   const invCols = (v: string[]): Cell[] => [
-    { text: v[0]!, width: 58 }, { text: v[1]!, width: 44 }, { text: v[2]!, width: 72 }, { text: v[3]!, width: 60 },
-    { text: v[4]!, width: 60 }, { text: v[5]!, width: 36, align: 'right' }, { text: v[6]!, width: 58, align: 'right' },
-    { text: v[7]!, width: 58, align: 'right' }, { text: v[8]!, width: 58, align: 'right' },
+    { text: v[0]!, width: 50 }, { text: v[1]!, width: 40 }, { text: v[2]!, width: 64 }, { text: v[3]!, width: 56 },
+    { text: v[4]!, width: 56 }, { text: v[5]!, width: 46, align: 'right' }, { text: v[6]!, width: 62, align: 'right' },
+    { text: v[7]!, width: 66, align: 'right' }, { text: v[8]!, width: 64, align: 'right' },
   ]
   row(invCols(['Invoice', 'Call', 'PO', 'Issued', 'Due', 'Days late', 'Total', 'Paid, credited', 'Balance']), 'bold', 8)
   rule()
@@ -102,7 +102,7 @@ export async function renderStatementPdf(s: CustomerStatement): Promise<Buffer> 
       money(i.totalCents), money(i.paidCents + i.creditedCents), money(i.balanceCents)]))
   }
   rule()
-  row([{ text: 'Balance owed', width: width - 58 }, { text: money(a.totalCents), width: 58, align: 'right' }], 'bold', 10)
+  row([{ text: 'Balance owed', width: width - 64 }, { text: money(a.totalCents), width: 64, align: 'right' }], 'bold', 10)
 
   // Money received (and given back) lately.
   heading(`Payments received since ${s.since}`)
