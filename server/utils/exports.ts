@@ -5,12 +5,13 @@ import type { ReportRange } from '#shared/schemas/reports'
 import type { CsvColumn } from './csv'
 
 const INVOICE_STATUS: Record<string, string> = { draft: 'Draft', sent: 'Sent', paid: 'Paid', void: 'Void' }
+/** What the payments file says of each row: the stored status in words. */
+const PAYMENT_STATUS: Record<string, string> = {
+  succeeded: 'Paid by card', posted: 'Posted to account', recorded: 'Recorded by the office', held: 'Held, not counted',
+  refunded: 'Refunded',
+}
 const METHOD: Record<string, string> = {
   card: 'Card', account: 'Fleet account', check: 'Check', bank_transfer: 'Bank transfer', cash: 'Cash',
-}
-
-async function businessZone() {
-  return (await ratesInForce())?.timeZone ?? 'UTC'
 }
 
 interface InvoiceExportRow {
@@ -62,22 +63,23 @@ interface PaymentExportRow {
 /**
  * Money received between `from` and `to`, inclusive, by the day it came in (the day the office
  * entered for a check or transfer, else the local day it was recorded), and money given back as
- * refunds: rows of their own with a negative amount.
+ * refunds: rows of their own with a negative amount. `customerId` narrows it to one customer.
  */
-export async function paymentExportRows(range: ReportRange): Promise<PaymentExportRow[]> {
+export async function paymentExportRows(range: ReportRange, only: { customerId?: string } = {}): Promise<PaymentExportRow[]> {
   const zone = await businessZone()
   const res = await useDb().execute(sql`
     SELECT * FROM (
       SELECT to_char(coalesce(p.received_on, (p.created_at AT TIME ZONE ${zone})::date), 'YYYY-MM-DD') AS "receivedOn",
         i.number AS "invoiceNumber", c.name AS customer, p.method::text AS method, coalesce(p.reference, p.provider_ref) AS reference,
-        p.status, p.amount_cents AS "amountCents", p.created_at AS at
+        p.status, p.amount_cents AS "amountCents", p.created_at AS at, c.id AS "customerId"
       FROM payments p JOIN invoices i ON i.id = p.invoice_id JOIN customers c ON c.id = i.customer_id
       UNION ALL
       SELECT to_char(r.created_at AT TIME ZONE ${zone}, 'YYYY-MM-DD'), i.number, c.name, p.method::text,
-        coalesce(r.provider_ref, p.reference, p.provider_ref), 'refunded', -r.amount_cents, r.created_at
+        coalesce(r.provider_ref, p.reference, p.provider_ref), 'refunded', -r.amount_cents, r.created_at, c.id
       FROM refunds r JOIN payments p ON p.id = r.payment_id JOIN invoices i ON i.id = r.invoice_id JOIN customers c ON c.id = i.customer_id
     ) m
     WHERE "receivedOn"::date BETWEEN ${range.from}::date AND ${range.to}::date
+      AND (${only.customerId ?? null}::uuid IS NULL OR "customerId" = ${only.customerId ?? null}::uuid)
     ORDER BY "receivedOn", at`)
   return res.rows as unknown as PaymentExportRow[]
 }
@@ -105,6 +107,6 @@ export const PAYMENT_COLUMNS: CsvColumn<PaymentExportRow>[] = [
   { header: 'Customer', kind: 'text', value: r => r.customer },
   { header: 'Method', kind: 'text', value: r => METHOD[r.method] ?? r.method },
   { header: 'Reference', kind: 'text', value: r => r.reference },
-  { header: 'Status', kind: 'text', value: r => r.status },
+  { header: 'Status', kind: 'text', value: r => PAYMENT_STATUS[r.status] ?? r.status },
   { header: 'Amount', kind: 'money', value: r => r.amountCents },
 ]

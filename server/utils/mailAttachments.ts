@@ -19,6 +19,11 @@ export const MAIL_ATTACHMENT_MAKERS = {
     if (!facts) throw new Error(`Call ${id} is gone; nothing to attach`)
     return { filename: serviceReportFilename(facts), content: await renderServiceReportPdf(facts), contentType: 'application/pdf' }
   },
+  'statement-pdf': async (customerId: string): Promise<Made> => {
+    const statement = await customerStatement(customerId)
+    if (!statement) throw new Error(`Customer ${customerId} is gone; nothing to attach`)
+    return { filename: statementFilename(statement), content: await renderStatementPdf(statement), contentType: 'application/pdf' }
+  },
 } satisfies Record<string, (id: string) => Promise<Made>>
 
 export function renderMailAttachment(recipe: MailAttachmentRecipe): Promise<Made> {

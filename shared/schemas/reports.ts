@@ -1,8 +1,12 @@
 import { z } from 'zod'
 import { isoDay } from './dates'
 
-export const REPORT_NAMES = ['calls-per-day', 'response-times', 'fix-rate', 'comebacks', 'revenue', 'parts'] as const
+export const REPORT_NAMES = ['calls-per-day', 'response-times', 'fix-rate', 'mechanic-weeks', 'comebacks', 'revenue', 'parts'] as const
 export type ReportName = (typeof REPORT_NAMES)[number]
+
+export const reportParamsSchema = z.object({
+  name: z.enum(REPORT_NAMES, { message: `Name a report: ${REPORT_NAMES.join(', ')}` }),
+})
 
 /** `?from=&to=` (inclusive ISO dates); the last 30 days when left out. */
 export const reportRangeSchema = z.object({

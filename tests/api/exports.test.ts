@@ -129,7 +129,7 @@ describe('GET /api/exports/payments', () => {
     const r = await office.get('/api/exports/payments?from=2025-02-01&to=2025-02-28')
     const rows = parse(r.body).rows.filter(x => x[1] === String(number))
     // $105.00 in on the 16th, $25.50 of it back on the 20th.
-    expect(rows.map(x => [x[0], x[5], x[6]])).toEqual([['2025-02-16', 'succeeded', '105.00'], ['2025-02-20', 'refunded', '-25.50']])
+    expect(rows.map(x => [x[0], x[5], x[6]])).toEqual([['2025-02-16', 'Paid by card', '105.00'], ['2025-02-20', 'Refunded', '-25.50']])
     expect(r.body).toContain(',-25.50')
     expect(Number(rows[1]![6])).toBe(-25.5)
   })
