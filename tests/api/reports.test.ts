@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto'
 import Papa from 'papaparse'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ApiClient, signedIn } from '../support/api'
+import type { ApiClient } from '../support/api'
+import { signedIn } from '../support/api'
 import { closeTestPool, testPool } from '../support/db'
 import { DEMO } from '../support/env'
 
