@@ -24,7 +24,9 @@ const tokenOf = (url: string) => url.split('/s/')[1]!
 /** The 404 answer without the echoed address, which is the only part allowed to differ. */
 const failure = async (token: string) => {
   const r = await anonymous.get(`/api/share/${encodeURIComponent(token)}`)
-  const { url: _url, ...rest } = (r.body ?? {}) as Record<string, unknown>
+  // The request id names this request for the logs; everything else must be the same for every failure.
+  const { url: _url, requestId, ...rest } = (r.body ?? {}) as Record<string, unknown>
+  expect(requestId).toEqual(expect.any(String))
   return { status: r.status, body: rest }
 }
 
