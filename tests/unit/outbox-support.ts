@@ -36,7 +36,10 @@ export function pullAnswer(over: Partial<PullAnswer['changes']> = {}, extra: Par
 }
 
 export function demoCall(over: Record<string, unknown> = {}) {
-  return { id: CALL_ID, number: 41, status: 'assigned', customerId: CUSTOMER_ID, unitId: UNIT_ID, locationText: 'Route 8 shoulder', complaint: 'Derated', version: 3, storyCause: null, ...over }
+  return {
+    id: CALL_ID, number: 41, status: 'assigned', customerId: CUSTOMER_ID, unitId: UNIT_ID, locationText: 'Route 8 shoulder',
+    complaint: 'Derated', version: 3, storyCause: null, ...over,
+  }
 }
 
 export async function seedCall(over: Record<string, unknown> = {}) {

@@ -4,7 +4,9 @@ import { pullAnswer } from './outbox-support'
 
 describe('push result validator', () => {
   it('accepts a push answer of the protocol', () => {
-    const ok = parseAnswer(pushResultSchema, JSON.stringify({ lastSeq: 3, results: [{ opId: 'a', seq: 3, status: 'applied', version: 2 }] }))
+    const ok = parseAnswer(
+      pushResultSchema, JSON.stringify({ lastSeq: 3, results: [{ opId: 'a', seq: 3, status: 'applied', version: 2 }] }),
+    )
     expect(ok?.results[0]?.status).toBe('applied')
   })
 
