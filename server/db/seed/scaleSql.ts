@@ -74,13 +74,14 @@ const SPNS = 'ARRAY[110, 3251, 4364, 168, 100, 157, 1761, 3031, 5246, 94]'
 /** Statements that load `size` (in order; run in one transaction). */
 export function scaleStatements(size: ScaleSize): string[] {
   const { calls: N, units: U, customers: C, mechanics: M, days } = size
-  const demo = `ARRAY[${DEMO_MECHANICS.map(id => `'${id}'::uuid`).join(', ')}]`
+  // The demo's mechanics that are there (none in a database without the demo seed).
+  const demo = `ARRAY(SELECT id FROM users WHERE id IN (${DEMO_MECHANICS.map(id => `'${id}'::uuid`).join(', ')}) ORDER BY id)`
   const id = (kind: keyof typeof KIND, n: string) => scaleId(kind, n)
   const pick = (list: string, n: string) => `(${list})[1 + (${n}) % array_length(${list}, 1)]`
   return [
     `INSERT INTO users (id, email, name, role, password_hash, on_duty)
      SELECT ${id('mech', 'g')}, 'scale-mech-' || g || '@wayside.test', ${pick(FIRST, 'g')} || ' ' || ${pick(LAST, 'g * 7')},
-       'mechanic', (SELECT password_hash FROM users WHERE id = '${DEMO_MECHANICS[0]}'), g % 4 <> 0
+       'mechanic', coalesce((SELECT password_hash FROM users WHERE id = '${DEMO_MECHANICS[0]}'), '!no sign-in'), g % 4 <> 0
      FROM generate_series(1, ${M}) g`,
     `INSERT INTO customers (id, name, kind, billing_terms, net_days, billing_email, phone)
      SELECT ${id('customer', 'g')}, ${pick(PLACES, 'g')} || ' ' || ${pick(TRADES, 'g / 25')} || CASE WHEN g > 500 THEN ' ' || g ELSE '' END,
@@ -219,7 +220,8 @@ export interface ScaleCounts { calls: number, readings: number, units: number, c
 /**
  * Loads the scale history into the database `client` is connected to, unless it is there already
  * (answers false then). One transaction; triggers and foreign-key checks are skipped when the role
- * may (the rows are made consistent here), then ANALYZE so the planner sees the new sizes.
+ * may (the rows are made consistent here), then ANALYZE so the planner sees the new sizes. Without
+ * the demo seed, the history's mechanics alone take the calls (and cannot sign in).
  */
 export async function loadScale(client: pg.ClientBase, size: ScaleSize = FULL_SCALE, verbose = false): Promise<boolean> {
   const there = await client.query(`SELECT 1 FROM calls WHERE id = ${scaleId('call', '1')}`)
@@ -249,6 +251,8 @@ export async function loadScale(client: pg.ClientBase, size: ScaleSize = FULL_SC
     await client.query('ROLLBACK')
     throw err
   }
+  // The planner's sizes; calls also vacuumed, so counting them can read an index alone.
+  await client.query('VACUUM ANALYZE calls')
   await client.query('ANALYZE')
   return true
 }
