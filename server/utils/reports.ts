@@ -165,21 +165,22 @@ export const mechanicWeeksSql = (r: Ctx, cameBack: string) => sql`
       WHERE ${inRange(sql`d.day`, r)} GROUP BY 1, 2
     ), clocked AS (
       -- A week either side: the event before a start and the stop after it (a longer span is flagged, never billed).
-      -- Each event's call is read by its key, not joined, so a year of events does not read every call.
+      -- Each event's call is read by its key, not joined, so a year of events does not read every call. A
+      -- start's end is the first work stop or departure after it, found in the same pass (a window, not a
+      -- search per start).
       SELECT ce.call_id, (SELECT c.mechanic_id FROM calls c WHERE c.id = ce.call_id) AS mechanic_id, ce.kind,
         coalesce(ce.device_at, ce.created_at) AS at,
-        lag(ce.kind) OVER (PARTITION BY ce.call_id ORDER BY coalesce(ce.device_at, ce.created_at)) AS prev
+        lag(ce.kind) OVER (PARTITION BY ce.call_id ORDER BY coalesce(ce.device_at, ce.created_at)) AS prev,
+        min(coalesce(ce.device_at, ce.created_at)) FILTER (WHERE ce.kind IN ('work_stop', 'depart')) OVER (
+          PARTITION BY ce.call_id ORDER BY coalesce(ce.device_at, ce.created_at)
+          RANGE BETWEEN CURRENT ROW AND UNBOUNDED FOLLOWING EXCLUDE GROUP) AS ends
       FROM clock_events ce
       WHERE ce.flag IS NULL AND ce.kind IN ('work_start', 'work_stop', 'depart')
         AND ${inZone(sql`coalesce(ce.device_at, ce.created_at)`, r, 7, 7)}
-    ), ev AS (
-      SELECT * FROM clocked WHERE mechanic_id IS NOT NULL
     ), labor AS (
-      SELECT s.mechanic_id, ${week(localDay(sql`s.at`, r.zone))} AS week, sum(extract(epoch FROM e.at - s.at)) / 3600 AS hours
-      FROM ev s CROSS JOIN LATERAL (
-        SELECT min(x.at) AS at FROM ev x WHERE x.call_id = s.call_id AND x.kind IN ('work_stop', 'depart') AND x.at > s.at
-      ) e
-      WHERE s.kind = 'work_start' AND (s.prev IS NULL OR s.prev <> 'work_start') AND e.at IS NOT NULL
+      SELECT s.mechanic_id, ${week(localDay(sql`s.at`, r.zone))} AS week, sum(extract(epoch FROM s.ends - s.at)) / 3600 AS hours
+      FROM clocked s
+      WHERE s.mechanic_id IS NOT NULL AND s.kind = 'work_start' AND (s.prev IS NULL OR s.prev <> 'work_start') AND s.ends IS NOT NULL
         AND ${inRange(localDay(sql`s.at`, r.zone), r)}
       GROUP BY 1, 2
     ), weeks AS (
