@@ -4,7 +4,8 @@
 # scripts/bench/*.ts, or only those named (`npm run bench -- sync-push`), and prints what each
 # measured, then one table (scripts/bench/support/table.ts) and bench/results.json. Each benchmark records
 # its figures with recordRow (scripts/bench/support/rows.ts). Benchmarks print; they assert nothing. A benchmark finds the server at
-# WAYSIDE_BENCH_URL (also WAYSIDE_TEST_URL) and its database at NUXT_DATABASE_URL.
+# WAYSIDE_BENCH_URL (also WAYSIDE_TEST_URL) and its database at NUXT_DATABASE_URL; the scale seed's
+# server and database at WAYSIDE_BENCH_SCALE_URL and WAYSIDE_BENCH_SCALE_DB.
 source "$(dirname "$0")/lib.sh"
 trap 'cleanup_children' EXIT
 trap 'exit 130' INT TERM
@@ -35,6 +36,21 @@ rm -rf "$NUXT_UPLOADS_DIR"
 node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
 NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs > "$DATA/bench-server-$SLOT.log" 2>&1 & CHILD_PIDS+=($!)
 wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/bench-server-$SLOT.log"; die "the bench server did not start"; }
+
+# The scale benchmarks (support/scale.ts) read a second server on a database holding the scale seed,
+# wayside_bench_scale: kept between runs, since loading it takes a minute or two (seed:scale skips
+# it when it is there), and apart from wayside_bench, whose benchmarks write rows of their own.
+SCALE_DB=wayside_bench_scale
+export WAYSIDE_BENCH_SCALE_DB="postgres://wayside@127.0.0.1:$PGPORT/$SCALE_DB"
+export WAYSIDE_BENCH_SCALE_URL="http://127.0.0.1:$((WAYSIDE_TEST_PORT + 1))"
+psql_admin -tAc "SELECT 1 FROM pg_database WHERE datname = '$SCALE_DB'" | grep -q 1 || psql_admin -c "CREATE DATABASE \"$SCALE_DB\""
+say "scale seed in $SCALE_DB"
+NUXT_DATABASE_URL="$WAYSIDE_BENCH_SCALE_DB" npx tsx server/db/migrate.ts
+NUXT_DATABASE_URL="$WAYSIDE_BENCH_SCALE_DB" npx tsx server/db/seed/index.ts
+NUXT_DATABASE_URL="$WAYSIDE_BENCH_SCALE_DB" npx tsx server/db/seed/scale.ts
+NUXT_DATABASE_URL="$WAYSIDE_BENCH_SCALE_DB" NITRO_HOST=127.0.0.1 NITRO_PORT="$((WAYSIDE_TEST_PORT + 1))" \
+  node .output/server/index.mjs > "$DATA/bench-scale-server-$SLOT.log" 2>&1 & CHILD_PIDS+=($!)
+wait_for_http "$WAYSIDE_BENCH_SCALE_URL/login" || { tail -n 30 "$DATA/bench-scale-server-$SLOT.log"; die "the scale bench server did not start"; }
 
 rm -f bench/rows.jsonl
 names=("$@")

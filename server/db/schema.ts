@@ -303,6 +303,12 @@ export const calls = pgTable('calls', {
   index('calls_customer_idx').on(t.customerId),
   index('calls_unit_idx').on(t.unitId),
   index('calls_change_idx').on(t.changeXid),
+  // The list's sort keys, each with the number that breaks ties (and the id, so a deep page reads the index alone).
+  index('calls_received_idx').on(t.receivedAt, t.number, t.id),
+  index('calls_status_received_idx').on(t.status, t.receivedAt, t.number),
+  index('calls_status_changed_idx').on(t.statusChangedAt, t.number),
+  index('calls_unit_received_idx').on(t.unitId, t.receivedAt, t.number),
+  index('calls_completed_idx').on(t.completedAt),
   check('calls_lat_range', sql`${t.lat} IS NULL OR ${t.lat} BETWEEN -90 AND 90`),
   check('calls_lon_range', sql`${t.lon} IS NULL OR ${t.lon} BETWEEN -180 AND 180`),
   check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),
@@ -321,7 +327,11 @@ export const callEvents = pgTable('call_events', {
   note: text('note'),
   at: ts('at').notNull().defaultNow(),
   ...synced,
-}, t => [index('call_events_call_idx').on(t.callId, t.at)])
+}, t => [
+  index('call_events_call_idx').on(t.callId, t.at),
+  // When calls reached a status, for the reports.
+  index('call_events_reached_idx').on(t.toStatus, t.at),
+])
 
 /** Columns of every append-only record the mechanic adds to a call. */
 const callChild = {
@@ -439,6 +449,7 @@ export const clockEvents = pgTable('clock_events', {
 }, t => [
   index('clock_events_call_idx').on(t.callId),
   index('clock_events_change_idx').on(t.changeXid),
+  index('clock_events_at_idx').on(sql`coalesce(${t.deviceAt}, ${t.createdAt})`),
   check('clock_events_flag', sql`${t.flag} IS NULL OR ${t.flag} IN (${sql.raw(CLOCK_FLAGS.map(f => `'${f}'`).join(', '))})`),
 ])
 
@@ -496,6 +507,7 @@ export const invoices = pgTable('invoices', {
   uniqueIndex('invoices_pay_token_unique').on(t.payToken),
   index('invoices_call_idx').on(t.callId),
   index('invoices_status_idx').on(t.status),
+  index('invoices_sent_idx').on(t.sentAt),
   check('invoices_totals', sql`${t.totalCents} = ${t.subtotalCents} + ${t.taxCents}`),
 ])
 

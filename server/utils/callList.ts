@@ -1,54 +1,111 @@
-import { and, asc, desc, eq, ilike, inArray, notInArray, or, sql, type SQL } from 'drizzle-orm'
+// The calls list (GET /api/calls): filters, text search, page by page or by a keyset cursor.
+import { and, asc, desc, eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import type { z } from 'zod'
 import type { callListQuerySchema } from '#shared/schemas/calls'
+import { CALL_STATUSES, OPEN_STATUSES } from '#shared/utils/callStatus'
+import { callSearchCondition } from './callSearch'
+import { tables, type Db } from './db'
 
-/** Calls the user may see, filtered and paged; a mechanic only ever sees their own. */
-export async function listCalls(user: User, q: z.output<typeof callListQuerySchema>) {
-  const { calls, customers, units, users } = tables
+type Query = z.output<typeof callListQuerySchema>
+
+/** The list's sort keys; ties go by call number in the same direction, so (key, number) orders every call once. */
+const SORTS = {
+  number: { col: () => tables.calls.number, cast: 'int' },
+  receivedAt: { col: () => tables.calls.receivedAt, cast: 'timestamptz' },
+  statusChangedAt: { col: () => tables.calls.statusChangedAt, cast: 'timestamptz' },
+  status: { col: () => tables.calls.status, cast: 'call_status' },
+} as const
+
+const badCursor = () => createError({
+  status: 400, statusText: 'Bad cursor', message: 'after: not a cursor this list gave',
+  data: { fields: { after: 'Not a cursor this list gave' } },
+})
+
+/** A keyset cursor: the sort value and call number of the last call on a page. */
+function encodeCursor(value: unknown, number: number) {
+  const v = value instanceof Date ? value.toISOString() : value
+  return Buffer.from(JSON.stringify([v, number])).toString('base64url')
+}
+
+function decodeCursor(cursor: string): [string | number, number] {
+  try {
+    const parsed = JSON.parse(Buffer.from(cursor, 'base64url').toString('utf8')) as unknown
+    if (Array.isArray(parsed) && parsed.length === 2 && ['string', 'number'].includes(typeof parsed[0]) && Number.isInteger(parsed[1])) {
+      return parsed as [string | number, number]
+    }
+  }
+  catch { /* answered below */ }
+  throw badCursor()
+}
+
+/** The calls after the cursor's call in the list's order: one range of the sort key's index, however deep. */
+function afterCursor(q: Query, cursor: string): SQL {
+  const { calls } = tables
+  const [value, number] = decodeCursor(cursor)
+  const sort = SORTS[q.sort ?? 'receivedAt']
+  const cmp = sql.raw(q.dir === 'asc' ? '>' : '<')
+  if (q.sort === 'number') return sql`${calls.number} ${cmp} ${number}`
+  if (sort.cast === 'timestamptz' && Number.isNaN(Date.parse(String(value)))) throw badCursor()
+  if (sort.cast === 'call_status' && !(CALL_STATUSES as readonly unknown[]).includes(value)) throw badCursor()
+  return sql`(${sort.col()}, ${calls.number}) ${cmp} (${String(value)}::${sql.raw(sort.cast)}, ${number})`
+}
+
+/**
+ * The list's two queries, not yet run: the page's ids (with their sort key and number) and the
+ * count. Every condition is on calls alone, so both read calls' indexes, never a join.
+ */
+export async function callListQueries(db: Db, user: Pick<User, 'id' | 'role'>, q: Query) {
+  const { calls } = tables
   const where: SQL[] = []
   if (user.role === 'mechanic') where.push(eq(calls.mechanicId, user.id))
   else if (q.mechanicId) where.push(eq(calls.mechanicId, q.mechanicId))
   if (q.status?.length) where.push(inArray(calls.status, q.status))
-  if (q.open) where.push(notInArray(calls.status, [...CLOSED_STATUSES]))
+  // Open as the list of open statuses (not "none of the closed"), so the status index can read it.
+  if (q.open) where.push(inArray(calls.status, [...OPEN_STATUSES]))
   if (q.customerId) where.push(eq(calls.customerId, q.customerId))
   if (q.unitId) where.push(eq(calls.unitId, q.unitId))
-  if (q.q) {
-    const like = `%${q.q.replace(/[%_\\]/g, m => `\\${m}`)}%`
-    where.push(or(
-      ilike(customers.name, like), ilike(units.unitNumber, like), ilike(units.vin, like),
-      ilike(calls.locationText, like), ilike(calls.complaint, like), ilike(calls.poNumber, like),
-      sql`${calls.number}::text = ${q.q}`,
-    )!)
-  }
+  if (q.q) where.push(await callSearchCondition(db, q.q))
   const cond = where.length ? and(...where) : undefined
-  const sortCol = {
-    number: calls.number, receivedAt: calls.receivedAt, statusChangedAt: calls.statusChangedAt, status: calls.status,
-  }[q.sort ?? 'receivedAt']
-  const order = q.dir === 'asc' ? asc(sortCol) : desc(sortCol)
+  const sortCol = SORTS[q.sort ?? 'receivedAt'].col()
+  const dir = q.dir === 'asc' ? asc : desc
+  // A deep page by offset walks only the sort key's index; a cursor jumps straight to its place.
+  const ids = db.select({ id: calls.id, key: sortCol, number: calls.number }).from(calls)
+    .where(and(cond, q.after ? afterCursor(q, q.after) : undefined))
+    .orderBy(dir(sortCol), dir(calls.number))
+    .limit(q.pageSize + 1).offset(q.after ? 0 : (q.page - 1) * q.pageSize)
+  const count = db.select({ n: sql<number>`count(*)::int` }).from(calls).where(cond)
+  return { ids, count }
+}
 
+/** Calls the user may see, filtered and paged; a mechanic only ever sees their own. */
+export async function listCalls(user: User, q: Query) {
+  const { calls, customers, units, users } = tables
   const db = useDb()
-  const base = db.select({
-    call: calls,
-    customer: { id: customers.id, name: customers.name, billingTerms: customers.billingTerms },
-    unit: { id: units.id, unitNumber: units.unitNumber, vin: units.vin, yearMakeModel: units.yearMakeModel },
-    mechanic: { id: users.id, name: users.name },
-  }).from(calls)
-    .innerJoin(customers, eq(customers.id, calls.customerId))
-    .leftJoin(units, eq(units.id, calls.unitId))
-    .leftJoin(users, eq(users.id, calls.mechanicId))
-    .where(cond)
-  const [rows, [count]] = await Promise.all([
-    base.orderBy(order, desc(calls.number)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
-    db.select({ n: sql<number>`count(*)::int` }).from(calls)
-      .innerJoin(customers, eq(customers.id, calls.customerId))
-      .leftJoin(units, eq(units.id, calls.unitId))
-      .where(cond),
-  ])
+  const queries = await callListQueries(db, user, q)
+  // The page's ids first, then those calls with their customer, unit and mechanic.
+  const [ids, [count]] = await Promise.all([queries.ids, queries.count])
+  const page = ids.slice(0, q.pageSize)
+  const rows = page.length
+    ? await db.select({
+        call: calls,
+        customer: { id: customers.id, name: customers.name, billingTerms: customers.billingTerms },
+        unit: { id: units.id, unitNumber: units.unitNumber, vin: units.vin, yearMakeModel: units.yearMakeModel },
+        mechanic: { id: users.id, name: users.name },
+      }).from(calls)
+        .innerJoin(customers, eq(customers.id, calls.customerId))
+        .leftJoin(units, eq(units.id, calls.unitId))
+        .leftJoin(users, eq(users.id, calls.mechanicId))
+        .where(inArray(calls.id, page.map(r => r.id)))
+    : []
+  const byId = new Map(rows.map(r => [r.call.id, r]))
+  const last = page.at(-1)
   return {
-    items: rows.map(r => ({
+    items: page.map(p => byId.get(p.id)).filter(r => r !== undefined).map(r => ({
       ...r.call, changeXid: undefined, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
     })),
     total: count?.n ?? 0,
+    /** The cursor (`after`) for the page that follows, null on the last page. */
+    next: ids.length > q.pageSize && last ? encodeCursor(last.key, last.number) : null,
   }
 }

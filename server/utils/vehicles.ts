@@ -1,9 +1,9 @@
 // Units (the customer's vehicles): list, read with their call history, add, edit.
-import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm'
+import { and, asc, desc, eq, gte, ilike, inArray, lte, notInArray, or, sql, type SQL } from 'drizzle-orm'
 import type { z } from 'zod'
 import type { User } from '#auth-utils'
 import type { unitCreateSchema, unitDraftSchema, unitListQuerySchema, unitPatchSchema } from '#shared/schemas/units'
-import type { Db, Tx } from './db'
+import { tables, type Db, type Tx } from './db'
 
 export async function listUnits(q: z.output<typeof unitListQuerySchema>) {
   const { units, customers } = tables
@@ -39,31 +39,80 @@ export async function listUnits(q: z.output<typeof unitListQuerySchema>) {
   }
 }
 
-/** A unit with its customer and every call on it (a mechanic: only their own), comebacks flagged. */
-export async function getUnitWithHistory(id: string, user: User) {
-  const db = useDb()
-  const unit = await db.query.units.findFirst({ where: eq(tables.units.id, id), with: { customer: true } })
-  if (!unit) return null
-  const callWhere = user.role === 'mechanic'
-    ? and(eq(tables.calls.unitId, id), eq(tables.calls.mechanicId, user.id))
-    : eq(tables.calls.unitId, id)
-  const calls = await db.query.calls.findMany({
-    where: callWhere,
-    orderBy: [desc(tables.calls.receivedAt)],
+/** Calls on a unit's page of history; older ones come by the `moreCalls` cursor. */
+export const UNIT_HISTORY_PAGE = 20
+
+const DAY_MS = 86_400_000
+
+/** The unit history's cursor: when the last call shown was received, and its number. */
+function historyCursor(c: { receivedAt: Date, number: number }) {
+  return Buffer.from(JSON.stringify([c.receivedAt.toISOString(), c.number])).toString('base64url')
+}
+
+function readHistoryCursor(cursor: string): [string, number] {
+  try {
+    const v = JSON.parse(Buffer.from(cursor, 'base64url').toString('utf8')) as unknown
+    if (Array.isArray(v) && typeof v[0] === 'string' && !Number.isNaN(Date.parse(v[0])) && Number.isInteger(v[1])) return [v[0], v[1]]
+  }
+  catch { /* answered below */ }
+  throw createError({
+    status: 400, statusText: 'Bad cursor', message: 'before: not a cursor this unit page gave',
+    data: { fields: { before: 'Not a cursor this unit page gave' } },
+  })
+}
+
+/** One page of a unit's calls, newest first, after the cursor's call (a mechanic's own only, when mechanicId is given). */
+export function unitHistoryQuery(db: Db, unitId: string, mechanicId: string | undefined, cursor?: [string, number]) {
+  const { calls } = tables
+  return db.query.calls.findMany({
+    where: and(eq(calls.unitId, unitId), mechanicId ? eq(calls.mechanicId, mechanicId) : undefined,
+      cursor ? sql`(${calls.receivedAt}, ${calls.number}) < (${cursor[0]}::timestamptz, ${cursor[1]})` : undefined),
+    orderBy: [desc(calls.receivedAt), desc(calls.number)],
+    limit: UNIT_HISTORY_PAGE + 1,
     with: {
       faultCodes: { orderBy: [asc(tables.faultCodes.createdAt)] },
       partLines: { orderBy: [asc(tables.partLines.createdAt)] },
       mechanic: { columns: { id: true, name: true } },
     },
   })
+}
+
+/**
+ * A unit with its customer and a page of its calls, newest first (a mechanic: only their own),
+ * comebacks flagged; `before` (the last answer's `moreCalls`) asks for the next older page. The
+ * comeback rule reads the calls around the page too, so a flag does not depend on where a page ends.
+ */
+export async function getUnitWithHistory(id: string, user: User, before?: string) {
+  const db = useDb()
+  const { calls } = tables
+  const cursor = before ? readHistoryCursor(before) : undefined
+  const unit = await db.query.units.findFirst({ where: eq(tables.units.id, id), with: { customer: true } })
+  if (!unit) return null
+  const mine = user.role === 'mechanic' ? eq(calls.mechanicId, user.id) : undefined
+  const [rows, [count]] = await Promise.all([
+    unitHistoryQuery(db, id, user.role === 'mechanic' ? user.id : undefined, cursor),
+    db.select({ n: sql<number>`count(*)::int` }).from(calls).where(and(eq(calls.unitId, id), mine)),
+  ])
   // A mechanic may read a unit only through a call of theirs.
-  if (user.role === 'mechanic' && calls.length === 0) return null
-  const comebacks = findComebacks(calls.map(c => ({ id: c.id, at: c.receivedAt, faultCodes: c.faultCodes })))
-  const numberOf = new Map(calls.map(c => [c.id, c.number]))
+  if (user.role === 'mechanic' && !count?.n) return null
+  const page = rows.slice(0, UNIT_HISTORY_PAGE)
+  const window = (COMEBACK_WINDOW_DAYS + 1) * DAY_MS
+  const around = page.length
+    ? await db.query.calls.findMany({
+        columns: { id: true, number: true, receivedAt: true },
+        where: and(eq(calls.unitId, id), mine, notInArray(calls.id, page.map(c => c.id)),
+          gte(calls.receivedAt, new Date(page.at(-1)!.receivedAt.getTime() - window)),
+          lte(calls.receivedAt, new Date(page[0]!.receivedAt.getTime() + window))),
+        with: { faultCodes: { columns: { code: true, spn: true, fmi: true } } },
+      })
+    : []
+  const all = [...page, ...around]
+  const comebacks = findComebacks(all.map(c => ({ id: c.id, at: c.receivedAt, faultCodes: c.faultCodes })))
+  const numberOf = new Map(all.map(c => [c.id, c.number]))
   return {
     ...withoutXid(unit),
     customer: withoutXid(unit.customer),
-    calls: calls.map(c => ({
+    calls: page.map(c => ({
       id: c.id, number: c.number, status: c.status, outcome: c.outcome, receivedAt: c.receivedAt, completedAt: c.completedAt,
       locationText: c.locationText, complaint: c.complaint, mechanic: c.mechanic,
       story: { complaint: c.storyComplaint, cause: c.storyCause, correction: c.storyCorrection },
@@ -74,6 +123,10 @@ export async function getUnitWithHistory(id: string, user: User) {
       comebacks: comebacks.filter(x => x.callId === c.id).map(x => ({ ...x, earlierNumber: numberOf.get(x.earlierCallId) ?? null })),
       repeatedBy: comebacks.filter(x => x.earlierCallId === c.id).map(x => ({ ...x, laterNumber: numberOf.get(x.callId) ?? null })),
     })),
+    /** Every call on the unit this person may see, on this page or older ones. */
+    callCount: count?.n ?? 0,
+    /** Pass as `before` for the next older page; null when this page holds the oldest call. */
+    moreCalls: rows.length > UNIT_HISTORY_PAGE ? historyCursor(page.at(-1)!) : null,
   }
 }
 

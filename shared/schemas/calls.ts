@@ -30,6 +30,8 @@ export const callListQuerySchema = z.object({
   dir: z.enum(['asc', 'desc']).optional(),
   page: z.coerce.number({ message: 'Page must be a number' }).int().min(1).max(10_000).default(1),
   pageSize: z.coerce.number({ message: 'Page size must be a number' }).int().min(1).max(200).default(50),
+  /** The `next` of the page before: goes on from there by the sort key's index instead of counting rows (page is then ignored). */
+  after: z.string().max(200, 'after: not a cursor this list gave').optional(),
 })
 export type CallListQuery = z.input<typeof callListQuerySchema>
 

@@ -72,6 +72,11 @@ export const unitListQuerySchema = z.object({
   sort: z.enum(['unitNumber', 'customer', 'yearMakeModel', 'odometer', 'lastCall']).optional(),
 })
 
+/** Query of GET /api/units/[id]: `before`, the answer's `moreCalls`, asks for older calls. */
+export const unitHistoryQuerySchema = z.object({
+  before: z.string().max(200, 'before: not a cursor this unit page gave').optional(),
+})
+
 export type UnitDraftInput = z.input<typeof unitDraftSchema>
 export type UnitCreateInput = z.input<typeof unitCreateSchema>
 export type UnitPatchInput = z.input<typeof unitPatchSchema>

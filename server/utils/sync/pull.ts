@@ -22,7 +22,7 @@ import type { User } from '#auth-utils'
 import { cardDefinitionSchema, type TestCardView } from '#shared/schemas/testCards'
 import { parsePullCursor, pullCursor, SYNC_PULL_DEFAULT_LIMIT, type PullAnswer, type PullPosition } from '#shared/schemas/sync'
 import { OPEN_STATUSES } from '#shared/utils/callStatus'
-import type { Tx } from '../db'
+import { tables, type Db, type Tx } from '../db'
 import { CALL_RECORD_TABLES } from './tables'
 
 /** Earlier calls of each unit in the working set that come with it (the unit's recent history). */
@@ -84,10 +84,7 @@ export async function syncPull(user: User, q: { cursor?: string, clientId?: stri
     let stop: { k: number, after: string } | undefined
     for (let k = at.k ?? 0; k < scope.sources.length; k++) {
       const s = scope.sources[k]!
-      const after = k === at.k ? at.after : undefined
-      const rows = await tx.select(s.columns as Record<string, PgColumn>).from(s.table as typeof tables.notes)
-        .where(and(s.where, after ? gt(s.table.id, after) : undefined))
-        .orderBy(asc(s.table.id)).limit(room + 1) as Record<string, unknown>[]
+      const rows = await pageQuery(tx, s, k === at.k ? at.after : undefined, room) as Record<string, unknown>[]
       const taken = rows.slice(0, room)
       changes[s.key]!.push(...taken.map(row => (s.out ?? strip)(row)))
       // More rows here than room: the next page goes on after the last one given.
@@ -114,6 +111,19 @@ export async function syncPull(user: User, q: { cursor?: string, clientId?: stri
       conflicts: open.map(r => strip(r.conflict)) as PullAnswer['conflicts'],
     }
   }, { isolationLevel: 'repeatable read', accessMode: 'read only' })
+}
+
+/** One collection's rows after `after` (by id), at most room + 1 so the caller sees whether more follow. */
+const pageQuery = (tx: Tx | Db, s: Source, after: string | undefined, room: number) =>
+  tx.select(s.columns as Record<string, PgColumn>).from(s.table as typeof tables.notes)
+    .where(and(s.where, after ? gt(s.table.id, after) : undefined))
+    .orderBy(asc(s.table.id)).limit(room + 1)
+
+/** The first page's query of each collection of a mechanic's first pull (for EXPLAIN in the tests). */
+export async function firstPullQueries(db: Db, user: User, days: number, limit: number) {
+  const none: Win = () => sql`false`
+  const scope = await mechanicScope(db as unknown as Tx, user, none, false, days)
+  return scope.sources.map(s => [s.key, pageQuery(db, s, undefined, limit).toSQL()] as const)
 }
 
 /** The card library as GET /api/test-cards answers it; cards whose stored definition fails the card schema are left out. */
@@ -154,9 +164,11 @@ function officeScope(win: Win) {
   return { sources, revoked: async () => [] as string[] }
 }
 
+/** How many days back a first pull brings closed calls (runtime config syncRecentDays). */
+const recentDays = () => Math.max(1, Number(useRuntimeConfig().syncRecentDays) || 30)
+
 /** Calls a mechanic's phone starts from: open ones, recent ones, and the last few earlier calls of each unit among them. */
-function workingSet(user: User) {
-  const days = Math.max(1, Number(useRuntimeConfig().syncRecentDays) || 30)
+function workingSet(user: User, days: number) {
   const open = sql.join(OPEN_STATUSES.map(s => sql`${s}`), sql`, `)
   return sql`(
     WITH mine AS (SELECT id, unit_id, status, received_at, assigned_at FROM calls WHERE mechanic_id = ${user.id}),
@@ -184,7 +196,7 @@ function callsWithChangedRecords(win: Win) {
  * record whose call the phone lacks (calls are walked first). A call outside the working set that
  * changed, and a call assigned inside the window, come whole: the phone may never have held them.
  */
-async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean) {
+async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean, days = recentDays()) {
   const { calls, units, customers, callEvents } = tables
   const mine = sql`(SELECT id FROM calls WHERE mechanic_id = ${user.id})`
   let whole: string[] = []
@@ -196,13 +208,13 @@ async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean)
       ))
     const outside = await tx.select({ id: calls.id }).from(calls).where(and(
       eq(calls.mechanicId, user.id),
-      sql`${calls.id} NOT IN ${workingSet(user)}`,
+      sql`${calls.id} NOT IN ${workingSet(user, days)}`,
       sql`(${win(calls.changeXid)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`,
     ))
     whole = [...new Set([...assigned, ...outside].map(r => r.id))]
   }
   const wholeOr = (col: PgColumn) => (whole.length ? inArray(col, whole) : sql`false`)
-  const scopeCalls = incremental ? mine : workingSet(user)
+  const scopeCalls = incremental ? mine : workingSet(user, days)
   const callWhere = incremental
     ? sql`(${win(calls.changeXid)} OR ${wholeOr(calls.id)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`
     : undefined

@@ -3,6 +3,7 @@
 // entity needs no entry here; the type check below fails when that table is missing.
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import { RECORD_COLLECTIONS, RECORD_ENTITY_NAMES, type RecordCollection, type RecordEntityName } from '#shared/sync/entities'
+import { tables } from '../db'
 
 export type RecordTable = PgTable & { id: PgColumn, callId: PgColumn, version: PgColumn, changeXid: PgColumn }
 
