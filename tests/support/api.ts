@@ -47,8 +47,8 @@ export class ApiClient {
   }
 }
 
-export async function signedIn(email: string) {
-  const c = new ApiClient()
+export async function signedIn(email: string, base = BASE_URL) {
+  const c = new ApiClient(base)
   const user = await c.login(email)
   return Object.assign(c, { user })
 }
