@@ -7,7 +7,7 @@ import { readdirSync, rmSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startS3Fake, s3FakeEnv } from '~~/scripts/fakes/s3-fake'
-import { ApiClient, signedIn } from '../support/api'
+import { ApiClient, signedInAt } from '../support/api'
 import { closeTestPool, testPool } from '../support/db'
 import { DEMO } from '../support/env'
 import { waitForMail } from '../support/mail'
@@ -45,7 +45,7 @@ function storedFiles(dir = S3_DIR): string[] {
 
 describe('two app servers, one database, one object store', () => {
   it('takes a session made on one server on the other (no sticky sessions), and a push to one is pulled from the other', async () => {
-    const onA = await signedIn(DEMO.mech1, a.url)
+    const onA = await signedInAt(a.url, DEMO.mech1)
     const onB = new ApiClient(b.url)
     onB.cookie = onA.cookie
     expect((await onB.get('/api/_auth/session')).body).toMatchObject({ user: { email: DEMO.mech1 } })
@@ -61,7 +61,7 @@ describe('two app servers, one database, one object store', () => {
   })
 
   it('reads a photo uploaded through one server from the other; its bytes are in the object store, not in a folder', async () => {
-    const mech = await signedIn(DEMO.mech1, a.url)
+    const mech = await signedInAt(a.url, DEMO.mech1)
     const callId = await makeCall({ mechanicId: IDS.mech1 })
     const bytes = jpegBytes(4000)
     const phone = new Device(mech)
@@ -71,7 +71,7 @@ describe('two app servers, one database, one object store', () => {
       { body: bytes, headers: { 'content-type': 'image/jpeg', 'x-content-sha256': sha256(bytes) } })
     expect(put.status).toBe(200)
 
-    const office = await signedIn(DEMO.office, b.url)
+    const office = await signedInAt(b.url, DEMO.office)
     const res = await fetch(`${b.url}/api/photos/${op.entityId}`, { headers: { cookie: office.cookie } })
     expect(res.status).toBe(200)
     expect(Buffer.from(await res.arrayBuffer()).equals(bytes)).toBe(true)
@@ -79,7 +79,7 @@ describe('two app servers, one database, one object store', () => {
   })
 
   it('holds the sign-in limit across both servers, tries alternated', async () => {
-    const admin = await signedIn(DEMO.admin, a.url)
+    const admin = await signedInAt(a.url, DEMO.admin)
     const email = `two-servers-${randomUUID().slice(0, 8)}@wayside.test`
     const password = 'copper lantern meadow'
     expect((await admin.post('/api/users', { email, name: 'Two Servers Person', role: 'office', password })).status).toBe(201)
@@ -98,7 +98,7 @@ describe('two app servers, one database, one object store', () => {
   })
 
   it('delivers a queued mail exactly once while both servers work the queue', async () => {
-    const dispatcher = await signedIn(DEMO.dispatcher, a.url)
+    const dispatcher = await signedInAt(a.url, DEMO.dispatcher)
     const callId = await makeCall({ mechanicId: IDS.mech1 })
     const to = `two-servers-${randomUUID().slice(0, 8)}@ironwood-freight.test`
     expect((await dispatcher.post(`/api/calls/${callId}/share`, { sendTo: to })).status).toBe(200)

@@ -3,18 +3,18 @@
 // tests/api/several-servers.test.ts: the same checks whichever store is configured.
 import { randomUUID } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { signedIn } from './api'
+import { signedInAt } from './api'
 import { testPool } from './db'
 import { DEMO } from './env'
 import { Device, IDS, jpegBytes, makeCall, sha256 } from './sync'
 
 /** `base` is read when the tests start, so a server the caller starts in its own beforeAll is up by then. */
 export function photoByteTests(where: string, base: () => string) {
-  let mech1: Awaited<ReturnType<typeof signedIn>>
-  let mech2: Awaited<ReturnType<typeof signedIn>>
-  let office: Awaited<ReturnType<typeof signedIn>>
+  let mech1: Awaited<ReturnType<typeof signedInAt>>
+  let mech2: Awaited<ReturnType<typeof signedInAt>>
+  let office: Awaited<ReturnType<typeof signedInAt>>
   beforeAll(async () => {
-    ;[mech1, mech2, office] = await Promise.all([signedIn(DEMO.mech1, base()), signedIn(DEMO.mech2, base()), signedIn(DEMO.office, base())])
+    ;[mech1, mech2, office] = await Promise.all([DEMO.mech1, DEMO.mech2, DEMO.office].map(email => signedInAt(base(), email)))
   })
 
   const put = (c: typeof mech1, id: string, bytes: Uint8Array, hash = sha256(bytes), type = 'image/jpeg') =>
