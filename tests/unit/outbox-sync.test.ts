@@ -6,7 +6,7 @@ import { PUSH_BATCH } from '../../app/utils/syncClient'
 import { commitChanges, readBundle, readJournal, readOutbox } from '../../app/utils/fieldDb'
 import { discardRejected } from '../../app/utils/syncApply'
 import { FakeSyncServer, json } from './fakeSyncServer'
-import { CALL_ID, demoCall, freshDevice, reloadApp, seedCall } from './outbox-support'
+import { CALL_ID, demoCall, freshDevice, pullAnswer, reloadApp, seedCall } from './outbox-support'
 
 let server: FakeSyncServer
 beforeEach(async () => { await freshDevice(); await seedCall(); server = new FakeSyncServer() })
@@ -224,7 +224,7 @@ describe('paged pull', () => {
   })
 
   it('stops with a reason when the server says more without moving on', async () => {
-    const stuck = { cursor: '9', lastSeq: 0, changes: {}, conflicts: [], more: true }
+    const stuck = pullAnswer({}, { cursor: '9', more: true })
     server.script = url => (url.startsWith('/api/sync/pull') ? json(200, stuck) : undefined)
     const sync = useSyncStore()
     const r = await sync.runOnce({ fetch: server.fetch })
