@@ -256,7 +256,7 @@ export async function applyPull(answer: PullAnswer): Promise<string[]> {
     }
 
     await storeCards(lib, ch.testCards ?? [], (await promisifyRequest<unknown>(tx.objectStore('meta').get('cursor'))) === undefined)
-    const rateRows = Array.isArray(ch.rates) ? ch.rates : ch.rates ? [ch.rates] : []
+    const rateRows = ch.rates
     if (rateRows.length) {
       const rates = (await promisifyRequest<Record<string, DeviceRow> | undefined>(lib.get('rates'))) ?? {}
       for (const r of rateRows) rates[r.id] = r

@@ -6,24 +6,10 @@ import { z } from 'zod'
 // The push answer's schema is the protocol's own (shared with the server).
 export { pushResultSchema, type PushResult } from '#shared/schemas/sync'
 
-const rowSchema = z.object({ id: z.string().min(1) }).passthrough()
-const rows = z.array(rowSchema).default([])
+// The pull answer's too: the server's answer `satisfies` it, the device checks what it got against it.
+export { pullAnswerSchema, type PullAnswer } from '#shared/schemas/sync'
 
-export const pullAnswerSchema = z.object({
-  cursor: z.union([z.string(), z.number()]),
-  lastSeq: z.number().int().nonnegative().default(0),
-  changes: z.object({
-    calls: rows, units: rows, customers: rows, faultCodes: rows, readings: rows, notes: rows,
-    photos: rows, clockEvents: rows, partLines: rows, testRuns: rows, signOffs: rows,
-    callEvents: rows, conflicts: rows,
-    rates: z.union([z.array(rowSchema), rowSchema]).optional().nullable(),
-    testCards: z.array(rowSchema).optional().nullable(),
-  }).passthrough(),
-  conflicts: rows,
-  revokedCallIds: z.array(z.string()).default([]),
-  more: z.boolean().optional(),
-})
-export type PullAnswer = z.infer<typeof pullAnswerSchema>
+const rowSchema = z.object({ id: z.string().min(1) }).passthrough()
 
 /** GET /api/service-trucks/[id]/stock */
 export const stockAnswerSchema = z.object({ items: z.array(rowSchema) })

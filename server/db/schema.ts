@@ -7,7 +7,7 @@ import {
   bigint, boolean, check, customType, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable,
   serial, text, timestamp, uniqueIndex, uuid,
 } from 'drizzle-orm/pg-core'
-import { CALL_OUTCOMES, CALL_STATUSES } from '../../shared/utils/callStatus'
+import { CALL_OUTCOMES, CALL_STATUSES, DONE_STATUSES, sqlStatusList } from '../../shared/utils/callStatus'
 import { ROLES } from '../../shared/utils/roles'
 import { DERATE_STATES } from '../../shared/schemas/calls'
 import { CLOCK_FLAGS } from '../../shared/sync/clockBounds'
@@ -306,7 +306,7 @@ export const calls = pgTable('calls', {
   check('calls_lat_range', sql`${t.lat} IS NULL OR ${t.lat} BETWEEN -90 AND 90`),
   check('calls_lon_range', sql`${t.lon} IS NULL OR ${t.lon} BETWEEN -180 AND 180`),
   check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),
-  check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN ('completed', 'invoiced', 'paid')`),
+  check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN (${sql.raw(sqlStatusList(DONE_STATUSES))})`),
 ])
 
 /** Every status move, for the timeline; append-only. */

@@ -1,4 +1,4 @@
-// The call module's one way to move a call's status (its pure rules are in
+// The call module's one way to open a call and to move its status (its pure rules are in
 // shared/utils/callStatus.ts). A move sets the status, stamps when it happened in that status's time
 // column, and writes the timeline entry with the same time; the entry's created_at is when the
 // server learned it. Dispatch, invoicing, payments, sync and conflict settling all move calls here;
@@ -39,4 +39,14 @@ export async function moveCallStatus(tx: Tx, call: Pick<CallRow, 'id' | 'status'
     mechanicId: move.mechanicId ?? null, byUserId: move.by, note: move.note ?? null, at,
   })
   return row
+}
+
+/** Opens a call as `received`, with its first timeline entry; the only other place a call's status is written. */
+export async function openCall(tx: Tx, values: Omit<typeof tables.calls.$inferInsert, 'status'>, by: string): Promise<CallRow> {
+  const at = new Date()
+  const [row] = await tx.insert(tables.calls).values({
+    ...values, status: 'received', receivedAt: at, statusChangedAt: at, createdBy: by,
+  }).returning()
+  await tx.insert(tables.callEvents).values({ callId: row!.id, kind: 'status', toStatus: 'received', byUserId: by, at })
+  return row!
 }

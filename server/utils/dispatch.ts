@@ -6,7 +6,7 @@ import type { z } from 'zod'
 import type { User } from '#auth-utils'
 import type { callAssignSchema, callCancelSchema, callCreateSchema, callPatchSchema } from '#shared/schemas/calls'
 import { CALL_EDIT_FIELDS } from '#shared/schemas/calls'
-import { moveCallStatus } from './callMove'
+import { moveCallStatus, openCall } from './callMove'
 import type { Tx } from './db'
 
 type CallRow = typeof tables.calls.$inferSelect
@@ -58,13 +58,9 @@ export async function createCall(input: z.output<typeof callCreateSchema>, user:
     if (mechanicId) await activeMechanic(tx, mechanicId)
     if (serviceTruckId) await usableTruck(tx, serviceTruckId)
 
-    const now = new Date()
-    const [call] = await tx.insert(tables.calls).values({
-      ...fields, customerId: customerId!, unitId, status: 'received', receivedAt: now, statusChangedAt: now, createdBy: user.id,
-    }).returning()
-    await tx.insert(tables.callEvents).values({ callId: call!.id, kind: 'status', toStatus: 'received', byUserId: user.id, at: now })
-    if (!mechanicId) return { call: call!, mechanic: null, mail: null }
-    return assignInTx(tx, call!, { mechanicId, serviceTruckId }, user)
+    const call = await openCall(tx, { ...fields, customerId: customerId!, unitId }, user.id)
+    if (!mechanicId) return { call, mechanic: null, mail: null }
+    return assignInTx(tx, call, { mechanicId, serviceTruckId }, user)
   })
 }
 

@@ -5,6 +5,7 @@
 // shared/utils/comeback.ts, the same the unit history uses; SQL only fetches the calls it reads.
 import { sql, type SQL } from 'drizzle-orm'
 import type { ReportName, ReportRange } from '#shared/schemas/reports'
+import { DONE_STATUSES, sqlStatusList } from '#shared/utils/callStatus'
 import { COMEBACK_WINDOW_DAYS, findComebacks, type Comeback, type ComebackFaultCode } from '#shared/utils/comeback'
 import { isMeasureColumn, REPORTS, reportCellText, type ReportColumnKind } from '#shared/utils/reportLabels'
 import type { CsvColumn } from './csv'
@@ -21,7 +22,7 @@ const QUERIES: Record<Exclude<ReportName, 'comebacks' | 'mechanic-weeks'>, (r: C
   'calls-per-day': r => sql`
     SELECT to_char(d, 'YYYY-MM-DD') AS day,
       count(c.id)::int AS received,
-      count(c.id) FILTER (WHERE c.status IN ('completed', 'invoiced', 'paid'))::int AS completed,
+      count(c.id) FILTER (WHERE c.status IN (${sql.raw(sqlStatusList(DONE_STATUSES))}))::int AS completed,
       count(c.id) FILTER (WHERE c.status = 'cancelled')::int AS cancelled
     FROM generate_series(${r.from}::date, ${r.to}::date, interval '1 day') d
     LEFT JOIN calls c ON ${localDay(sql`c.received_at`, r.zone)} = d::date

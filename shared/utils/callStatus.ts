@@ -27,6 +27,9 @@ export const LOCKED_STATUSES = ['invoiced', 'paid', 'cancelled'] as const satisf
 export const BILLABLE_STATUSES = ['completed'] as const satisfies readonly CallStatus[]
 
 const isIn = (set: readonly CallStatus[]) => (s: CallStatus | string) => (set as readonly string[]).includes(s)
+/** A named set as an SQL list literal, `'completed', 'invoiced', 'paid'`, for checks and reports written in SQL. */
+export const sqlStatusList = (set: readonly CallStatus[]) => set.map(s => `'${s}'`).join(', ')
+
 export const isOpenStatus = isIn(OPEN_STATUSES)
 export const isClosedStatus = isIn(CLOSED_STATUSES)
 export const isDoneStatus = isIn(DONE_STATUSES)

@@ -1,30 +1,10 @@
 import { createHash, randomUUID } from 'node:crypto'
-import { crc32, deflateSync } from 'node:zlib'
 import { getDocument, OPS } from 'pdfjs-dist/legacy/build/pdf.mjs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { signedIn } from '../support/api'
 import { closeTestPool, testPool } from '../support/db'
 import { BASE_URL, DEMO } from '../support/env'
-
-/** A small solid-colour PNG (PNG specification, ISO/IEC 15948: signature, IHDR, IDAT, IEND chunks). */
-function png(width: number, height: number, rgb: [number, number, number]) {
-  const chunk = (type: string, data: Buffer) => {
-    const body = Buffer.concat([Buffer.from(type, 'ascii'), data])
-    const len = Buffer.alloc(4)
-    len.writeUInt32BE(data.length)
-    const crc = Buffer.alloc(4)
-    crc.writeUInt32BE(crc32(body))
-    return Buffer.concat([len, body, crc])
-  }
-  const ihdr = Buffer.alloc(13)
-  ihdr.writeUInt32BE(width, 0)
-  ihdr.writeUInt32BE(height, 4)
-  ihdr.set([8, 2, 0, 0, 0], 8)
-  const row = Buffer.concat([Buffer.from([0]), Buffer.alloc(width * 3).map((_, i) => rgb[i % 3]!)])
-  const raw = Buffer.concat(Array.from({ length: height }, () => row))
-  return Buffer.concat([Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)),
-    chunk('IEND', Buffer.alloc(0))])
-}
+import { png } from '../support/png'
 
 /** Each page's text, as pdf.js reads it back, and how many images each page paints. */
 async function readPdf(bytes: Buffer) {

@@ -3,12 +3,12 @@ import { createHash, randomUUID } from 'node:crypto'
 import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { deflateSync, crc32 } from 'node:zlib'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, signedIn } from '../support/api'
 import { closeTestPool, count, testPool } from '../support/db'
 import { BASE_URL, DEMO } from '../support/env'
 import { waitForMail } from '../support/mail'
+import { png } from '../support/png'
 
 /**
  * The text of a PDF as poppler's pdftotext reads it (the extractor the billing browser test uses), in
@@ -22,26 +22,6 @@ function pdfText(bytes: Buffer) {
 }
 /** Whether `text` carries `want`, read the same way. */
 const has = (text: string, want: string) => text.includes(want.normalize('NFKC').replace(/\s+/g, ' '))
-
-/** A small solid-colour PNG (PNG specification, ISO/IEC 15948: signature, IHDR, IDAT, IEND chunks). */
-function png(width: number, height: number, rgb: [number, number, number]) {
-  const chunk = (type: string, data: Buffer) => {
-    const body = Buffer.concat([Buffer.from(type, 'ascii'), data])
-    const len = Buffer.alloc(4)
-    len.writeUInt32BE(data.length)
-    const crc = Buffer.alloc(4)
-    crc.writeUInt32BE(crc32(body))
-    return Buffer.concat([len, body, crc])
-  }
-  const ihdr = Buffer.alloc(13)
-  ihdr.writeUInt32BE(width, 0)
-  ihdr.writeUInt32BE(height, 4)
-  ihdr.set([8, 2, 0, 0, 0], 8)
-  const row = Buffer.concat([Buffer.from([0]), Buffer.alloc(width * 3).map((_, i) => rgb[i % 3]!)])
-  const raw = Buffer.concat(Array.from({ length: height }, () => row))
-  const sig = Buffer.from([137, 80, 78, 71, 13, 10, 26, 10])
-  return Buffer.concat([sig, chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))])
-}
 
 let office: Awaited<ReturnType<typeof signedIn>>
 let dispatcher: Awaited<ReturnType<typeof signedIn>>

@@ -3,6 +3,7 @@
 // engine can be driven without a network. `script` lets a test answer a request its own way.
 import { createHash } from 'node:crypto'
 import type { Op } from '../../app/utils/fieldDb'
+import { emptyChanges } from './outbox-support'
 
 type Stored = { opId: string, seq: number, status: string, reason?: string, version?: number }
 export type Script = (url: string, init: RequestInit) => Response | undefined | Promise<Response | undefined>
@@ -63,7 +64,10 @@ export class FakeSyncServer {
     const changes = page ?? this.pullChanges
     if (!page) this.pullChanges = {}
     const more = this.pullPages.length > 0
-    const answer = { cursor: String(this.cursor), lastSeq: this.lastSeq, changes, conflicts: this.conflicts, revokedCallIds: [], more }
+    const answer = {
+      cursor: String(this.cursor), lastSeq: this.lastSeq, changes: { ...emptyChanges(), ...changes }, conflicts: this.conflicts,
+      revokedCallIds: [], more,
+    }
     return json(200, answer)
   }
 

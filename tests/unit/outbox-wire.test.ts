@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import { expectedSeqOf, parseAnswer, pullAnswerSchema, pushResultSchema } from '../../app/utils/syncWire'
+import { pullAnswer } from './outbox-support'
 
 describe('push result validator', () => {
   it('accepts a push answer of the protocol', () => {
-    const ok = parseAnswer(pushResultSchema, JSON.stringify({ lastSeq: 3, results: [{ opId: 'a', seq: 3, status: 'applied', version: 2 }] }))
+    const ok = parseAnswer(
+      pushResultSchema, JSON.stringify({ lastSeq: 3, results: [{ opId: 'a', seq: 3, status: 'applied', version: 2 }] }),
+    )
     expect(ok?.results[0]?.status).toBe('applied')
   })
 
@@ -21,9 +24,13 @@ describe('push result validator', () => {
 
   it('refuses a portal page in place of a pull answer too', () => {
     expect(parseAnswer(pullAnswerSchema, '<html>Welcome to Truck Stop Wi-Fi</html>')).toBeUndefined()
-    const ok = parseAnswer(pullAnswerSchema, JSON.stringify({ cursor: '9', lastSeq: 0, changes: { calls: [{ id: 'x' }] }, conflicts: [], revokedCallIds: [] }))
+    const answer = pullAnswer({ calls: [{ id: 'x' }] })
+    const ok = parseAnswer(pullAnswerSchema, JSON.stringify(answer))
     expect(ok?.changes.calls).toHaveLength(1)
-    expect(ok?.changes.readings).toEqual([])
+    expect(ok?.more).toBe(false)
+    // An answer without the protocol's `more` flag is not Wayside's pull answer.
+    const { more: _more, ...withoutMore } = answer
+    expect(parseAnswer(pullAnswerSchema, JSON.stringify(withoutMore))).toBeUndefined()
   })
 
   it('reads the expected seq of a 409 wherever the server put it', () => {
