@@ -56,9 +56,14 @@ export default defineNuxtConfig({
     photoMaxBytes: 10 * 1024 * 1024,
     // A mechanic's first pull: open calls and those of the last this many days (plus each unit's last few).
     syncRecentDays: 30,
-    // Photo bytes: a folder for the fs driver here; server/plugins/storage.ts mounts it.
+    // Photo bytes (server/plugins/storage.ts): this folder, unless a bucket is named; then an
+    // S3-compatible object store at uploadsS3Endpoint, which every app server shares.
     uploadsDir: '.data/uploads',
     uploadsS3Bucket: '',
+    uploadsS3Endpoint: '',
+    uploadsS3Region: 'us-east-1',
+    uploadsS3AccessKeyId: '',
+    uploadsS3SecretAccessKey: '',
     // Sign-in limiter (server/utils/loginLimiter.ts): failures per account at one address, then
     // a pause of loginLockMinutes; a much higher bound per address over the same window.
     loginMaxFailures: 5,

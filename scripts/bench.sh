@@ -35,6 +35,8 @@ build_if_needed
 rm -rf "$NUXT_UPLOADS_DIR"
 node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
 NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs > "$DATA/bench-server-$SLOT.log" 2>&1 & CHILD_PIDS+=($!)
+# The server's process, for the benchmarks that watch its memory (/proc/PID/status).
+export WAYSIDE_BENCH_SERVER_PID=$!
 wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/bench-server-$SLOT.log"; die "the bench server did not start"; }
 
 # The scale benchmarks (support/scale.ts) read a second server on a database holding the scale seed,

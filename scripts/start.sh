@@ -23,6 +23,12 @@ export NUXT_SMTP_PORT="${NUXT_SMTP_PORT:-2525}" WAYSIDE_SMTP_PORT="${NUXT_SMTP_P
 export NUXT_STRIPE_API_PORT="${NUXT_STRIPE_API_PORT:-12111}" WAYSIDE_PAY_PORT="${NUXT_STRIPE_API_PORT:-12111}"
 export WAYSIDE_WEBHOOK_URL="http://127.0.0.1:$APP_PORT/api/payments/webhook" WAYSIDE_MAIL_DIR="$DATA/mail"
 export NUXT_SITE_URL="${NUXT_SITE_URL:-http://127.0.0.1:$APP_PORT}"
+# WAYSIDE_S3=1 keeps photos in a local S3-compatible fake (the path several servers take) instead of .data/uploads.
+if [ "${WAYSIDE_S3:-}" = 1 ]; then
+  export WAYSIDE_S3_PORT="${WAYSIDE_S3_PORT:-4568}" WAYSIDE_S3_DIR="$DATA/s3"
+  export NUXT_UPLOADS_S3_ENDPOINT="http://127.0.0.1:$WAYSIDE_S3_PORT" NUXT_UPLOADS_S3_BUCKET="${NUXT_UPLOADS_S3_BUCKET:-wayside-photos}"
+  export NUXT_UPLOADS_S3_ACCESS_KEY_ID=S3RVER NUXT_UPLOADS_S3_SECRET_ACCESS_KEY=S3RVER
+fi
 
 (cd "$ROOT" && exec node --import tsx scripts/fakes/run.ts) & CHILD_PIDS+=($!)
 (cd "$ROOT" && HOST=127.0.0.1 PORT="$APP_PORT" NITRO_HOST=127.0.0.1 NITRO_PORT="$APP_PORT" exec node .output/server/index.mjs) & CHILD_PIDS+=($!)
@@ -40,6 +46,7 @@ cat <<MSG
     mech2@wayside.test      mechanic (phone screens)
 
   Mail sent by the app is caught locally: http://127.0.0.1:$WAYSIDE_MAIL_HTTP_PORT/messages
+  Photos are kept in: ${NUXT_UPLOADS_S3_ENDPOINT:+the local object store $NUXT_UPLOADS_S3_ENDPOINT, bucket }${NUXT_UPLOADS_S3_BUCKET:-.data/uploads}
   Press Ctrl-C to stop.
 
 MSG

@@ -9,6 +9,8 @@ export type BoardCall = {
   number: number
   status: CallStatus
   receivedAt: string
+  assignedAt: string | null
+  enRouteAt: string | null
   statusChangedAt: string
   locationText: string
   complaint: string

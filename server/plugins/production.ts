@@ -14,6 +14,9 @@ export default defineNitroPlugin(() => {
     stripeApiHost: c.stripeApiHost,
     stripeApiProtocol: c.stripeApiProtocol,
     siteUrl: c.siteUrl,
+    uploadsS3Bucket: c.uploadsS3Bucket,
+    uploadsS3Endpoint: c.uploadsS3Endpoint,
+    uploadsS3AccessKeyId: c.uploadsS3AccessKeyId,
   })
   if (!problems.length) return
   logLine('error', { event: 'refused-production-start', problems })

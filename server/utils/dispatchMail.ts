@@ -3,7 +3,7 @@
 // commit together: a crash between the two can no longer leave an assignment without its e-mail.
 import { eq } from 'drizzle-orm'
 import type { User } from '#auth-utils'
-import { DERATE_LABELS, LAMP_LABELS } from '#shared/schemas/calls'
+import { LAMP_LABELS } from '#shared/schemas/calls'
 
 export type NoticeResult = { queued: boolean, reason?: string }
 
@@ -35,12 +35,12 @@ export async function queueAssignmentMail(tx: Tx, callId: string, user: User | n
     `Location: ${rec.locationText}${rec.lat !== null && rec.lon !== null ? ` (${rec.lat.toFixed(5)}, ${rec.lon.toFixed(5)})` : ''}`,
     `Complaint: ${rec.complaint}`,
     lamps ? `Lamps on: ${lamps}` : null,
-    rec.derate !== 'none' ? `Engine: ${DERATE_LABELS[rec.derate]}${rec.derateNote ? ` (${rec.derateNote})` : ''}` : null,
+    rec.derate !== 'none' ? `Engine: ${derateText(rec.derate, rec.derateNote)}` : null,
     load ? `Load: ${load}` : null,
     rec.safetyNotes ? `Scene: ${rec.safetyNotes}` : null,
     rec.callerName || rec.callerPhone ? `Caller: ${[rec.callerName, rec.callerPhone].filter(Boolean).join(', ')}` : null,
     rec.poNumber ? `PO: ${rec.poNumber}` : null,
-    rec.authLimitCents !== null ? `Authorized up to: ${(rec.authLimitCents / 100).toFixed(2)}` : null,
+    rec.authLimitCents !== null ? `Authorized up to: ${formatCents(rec.authLimitCents)}` : null,
     rec.serviceTruck ? `Service truck: ${rec.serviceTruck.name}` : null,
     '',
     'Before you work: park clear of traffic, hazards on, warning devices out, and follow your local rules and company practice.',

@@ -10,6 +10,8 @@ export const LOCAL_SESSION_PASSWORDS = [
 ]
 const LOCAL_STRIPE_KEYS = ['sk_test_wayside_local', 'whsec_wayside_local']
 const LOCAL_DATABASE_URL = 'postgres://wayside@127.0.0.1:54329/wayside'
+// The object-store fake's keys (scripts/fakes/s3-fake.ts, s3rver's defaults).
+const S3_FAKE_KEY = 'S3RVER'
 
 const isLoopback = (host: string) => /^(127\.\d+\.\d+\.\d+|localhost|::1|\[::1\]|0\.0\.0\.0)$/i.test(host.trim())
 // The SMTP catcher listens on 2525 (npm start) and 2600+10·slot (tests, benchmarks).
@@ -26,6 +28,10 @@ export type StartSettings = {
   stripeApiHost: string
   stripeApiProtocol: string
   siteUrl: string
+  /** Photo storage: checked only when a bucket is named (without one, photos stay in a folder). */
+  uploadsS3Bucket?: string
+  uploadsS3Endpoint?: string
+  uploadsS3AccessKeyId?: string
 }
 
 /** Every problem with these settings for a production start, each naming the variable to set. */
@@ -56,6 +62,10 @@ export function productionProblems(s: StartSettings): string[] {
     const where = `${s.stripeApiProtocol}://${s.stripeApiHost}`
     out.push(`NUXT_STRIPE_API_HOST / NUXT_STRIPE_API_PROTOCOL: ${where} is the local payment fake; set the provider's API host over https`)
   }
+  if (s.uploadsS3Bucket && (s3FakeProblem(s.uploadsS3Endpoint ?? '') || s.uploadsS3AccessKeyId === S3_FAKE_KEY)) {
+    out.push(`NUXT_UPLOADS_S3_ENDPOINT / NUXT_UPLOADS_S3_ACCESS_KEY_ID: ${s.uploadsS3Endpoint || '(unset)'} with the fake's keys `
+      + 'is the local object-store fake; set your object storage\'s address and keys')
+  }
   if (!siteUrlProblem(s.siteUrl)) return out
   out.push(`NUXT_SITE_URL: ${s.siteUrl || '(unset)'} ${siteUrlProblem(s.siteUrl)}; set the https address payers and fleets open`)
   return out
@@ -73,6 +83,16 @@ function siteUrlProblem(url: string): string | null {
   if (isLoopback(u.hostname)) return 'points at this machine, which no payer or fleet can reach'
   if (u.protocol !== 'https:') return 'is not https'
   return null
+}
+
+// A bucket on this machine (the fake), or no address at all.
+function s3FakeProblem(endpoint: string): boolean {
+  try {
+    return isLoopback(new URL(endpoint).hostname)
+  }
+  catch {
+    return true
+  }
 }
 
 /** Whether this start is a production one: NODE_ENV=production, not marked local by the scripts. */

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { centsSchema } from './money'
 import { optText, recordId, versionField } from './fields'
 import { cleanText, requiredText, searchQuery } from './text'
 import { customerCreateSchema } from './customers'
@@ -78,8 +79,7 @@ export const dispatchFields = {
   callerName: optText(120, 'Caller name'),
   callerPhone: optText(40, 'Caller phone'),
   poNumber: optText(60, 'PO number'),
-  authLimitCents: z.number({ message: 'Authorization limit must be an amount' }).int('Authorization limit must be whole cents')
-    .min(0, 'Authorization limit cannot be negative').max(100_000_000, 'Authorization limit is too large').nullable().optional(),
+  authLimitCents: centsSchema('Authorization limit').nullable().optional(),
 }
 
 // A position is a pair; half of one would place the truck on the equator or the prime meridian.

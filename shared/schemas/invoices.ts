@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { centsSchema } from './money'
 import { cleanText } from './text'
 
 export const INVOICE_STATUSES = ['draft', 'sent', 'paid', 'void'] as const
@@ -12,8 +13,7 @@ const reason = cleanText('Reason', { multiline: true, missing: 'Say why' }).min(
   .max(300, 'Keep the reason under 300 characters')
 const quantity = z.number({ message: 'Quantity must be a number' }).positive('Quantity must be above zero')
   .max(10_000, 'Quantity is too large')
-const unitCents = z.number({ message: 'Unit price must be an amount' }).int('Unit price must be whole cents')
-  .min(0, 'Unit price cannot be negative').max(10_000_000, 'Unit price is too large')
+const unitCents = centsSchema('Unit price', { max: 10_000_000 })
 const description = cleanText('Description', { missing: 'Describe the line' }).min(2, 'Describe the line')
   .max(200, 'Keep the description under 200 characters')
 const lineKey = cleanText('Line', { missing: 'Name the line' }).min(1, 'Name the line').max(80)

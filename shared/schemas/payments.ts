@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { centsSchema } from './money'
 import { cleanText } from './text'
 
 /** Ways the office takes money on an invoice. Cards never: the payer uses the payment page. */
@@ -19,8 +20,7 @@ export const idempotencyKeySchema = z.string({ message: 'Send an idempotency key
   .trim().min(8, 'The idempotency key is too short (8 characters at least)').max(200, 'The idempotency key is too long')
   .regex(/^[\w:.-]+$/, 'The idempotency key may hold letters, digits and - _ : . only')
 
-const cents = (what: string) => z.number({ message: `${what} must be a number of cents` }).int(`${what} must be whole cents`)
-  .positive(`${what} must be more than zero`).max(100_000_000, `${what} is too large`)
+const cents = (what: string) => centsSchema(what, { positive: true, kind: 'a number of cents' })
 
 /**
  * Money the office takes on an invoice. `account` posts the whole balance to the fleet's account;

@@ -1,10 +1,10 @@
 import { z } from 'zod'
+import { centsSchema } from './money'
 import { isTimeZone } from '../utils/businessHours'
 import { isoDay } from './dates'
 import { cleanText } from './text'
 
-const cents = (label: string) => z.number({ message: `${label} must be an amount` }).int(`${label} must be whole cents`)
-  .min(0, `${label} cannot be negative`).max(100_000_000, `${label} is too large`)
+const cents = (label: string) => centsSchema(label)
 const whole = (label: string, min: number, max: number, above = `${label} cannot be above ${max}`) => z
   .number({ message: `${label} must be a number` }).int(`${label} must be a whole number`)
   .min(min, `${label} cannot be below ${min}`).max(max, above)

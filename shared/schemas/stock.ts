@@ -1,11 +1,11 @@
 import { z } from 'zod'
+import { centsSchema } from './money'
 import { optText, recordId, versionField } from './fields'
 
 // Service trucks and what they carry: one schema per payload, used by the admin's forms and the
 // routes alike. On hand changes only through a count or a transfer, each with its reason.
 
-const cents = (label: string) => z.number({ message: `${label} must be an amount` }).int(`${label} must be whole cents`)
-  .min(0, `${label} cannot be negative`).max(100_000_000, `${label} is too large`)
+const cents = (label: string) => centsSchema(label)
 const amount = (label: string) => z.number({ message: `${label} must be a number` })
   .min(0, `${label} cannot be negative`).max(100_000, `${label} is too large`)
   .refine(v => Number.isInteger(v * 100), `${label}: at most two decimals`)

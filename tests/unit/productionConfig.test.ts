@@ -38,4 +38,14 @@ describe('a production start', () => {
     expect(vars({ siteUrl: 'http://service.example' })).toEqual(['NUXT_SITE_URL'])
     expect(vars({ siteUrl: 'not a url' })).toEqual(['NUXT_SITE_URL'])
   })
+
+  it('refuses the local object-store fake for photos, and accepts a bucket of its own or none', () => {
+    const s3 = 'NUXT_UPLOADS_S3_ENDPOINT / NUXT_UPLOADS_S3_ACCESS_KEY_ID'
+    const own = { uploadsS3Bucket: 'photos', uploadsS3Endpoint: 'https://objects.example', uploadsS3AccessKeyId: 'AKIAEXAMPLE' }
+    expect(vars(own)).toEqual([])
+    expect(vars({ uploadsS3Endpoint: 'http://127.0.0.1:4568' })).toEqual([])
+    expect(vars({ ...own, uploadsS3Endpoint: 'http://127.0.0.1:4568' })).toEqual([s3])
+    expect(vars({ ...own, uploadsS3Endpoint: '' })).toEqual([s3])
+    expect(vars({ ...own, uploadsS3AccessKeyId: 'S3RVER' })).toEqual([s3])
+  })
 })
