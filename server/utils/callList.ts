@@ -33,6 +33,7 @@ export async function listCalls(user: User, q: z.output<typeof callListQuerySche
     customer: { id: customers.id, name: customers.name, billingTerms: customers.billingTerms },
     unit: { id: units.id, unitNumber: units.unitNumber, vin: units.vin, yearMakeModel: units.yearMakeModel },
     mechanic: { id: users.id, name: users.name },
+    awaitingApproval: awaitingApprovalSql(calls.id),
   }).from(calls)
     .innerJoin(customers, eq(customers.id, calls.customerId))
     .leftJoin(units, eq(units.id, calls.unitId))
@@ -47,7 +48,7 @@ export async function listCalls(user: User, q: z.output<typeof callListQuerySche
   ])
   return {
     items: rows.map(r => ({
-      ...r.call, changeXid: undefined, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
+      ...r.call, changeXid: undefined, awaitingApproval: r.awaitingApproval, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
     })),
     total: count?.n ?? 0,
   }
