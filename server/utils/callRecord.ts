@@ -58,11 +58,17 @@ export async function getCallRecord(id: string) {
   for (const c of call.conflicts) { if (c.raisedBy) personIds.add(c.raisedBy); if (c.resolvedBy) personIds.add(c.resolvedBy) }
   for (const a of call.approvals) if (a.recordedBy) personIds.add(a.recordedBy)
   const people = personIds.size
-    ? await db.select({ id: users.id, name: users.name, email: users.email, phone: users.phone, role: users.role }).from(users).where(inArray(users.id, [...personIds]))
+    ? await db.select({
+        id: users.id, name: users.name, email: users.email, phone: users.phone, role: users.role,
+      }).from(users).where(inArray(users.id, [...personIds]))
     : []
   const person = (pid: string | null) => (pid ? people.find(p => p.id === pid) ?? null : null)
   const cardIds = [...new Set(call.testRuns.map(r => r.cardId))]
-  const cards = cardIds.length ? await db.select({ id: testCards.id, title: testCards.title, slug: testCards.slug }).from(testCards).where(inArray(testCards.id, cardIds)) : []
+  const cards = cardIds.length
+    ? await db.select({
+        id: testCards.id, title: testCards.title, slug: testCards.slug,
+      }).from(testCards).where(inArray(testCards.id, cardIds))
+    : []
 
   const clockAt = (e: { deviceAt: Date | null, createdAt: Date }) => e.deviceAt ?? e.createdAt
   const {
@@ -93,7 +99,8 @@ export async function getCallRecord(id: string) {
     conflicts: conflicts.map(c => ({
       ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy),
       // jsonb values, typed as JSON so the answer type keeps them.
-      baseValue: c.baseValue as ConflictValue, deviceValue: c.deviceValue as ConflictValue, serverValue: c.serverValue as ConflictValue, resolvedValue: c.resolvedValue as ConflictValue,
+      baseValue: c.baseValue as ConflictValue, deviceValue: c.deviceValue as ConflictValue,
+      serverValue: c.serverValue as ConflictValue, resolvedValue: c.resolvedValue as ConflictValue,
     })),
     events: events.map(e => ({ ...withoutXid(e), by: person(e.byUserId), mechanic: person(e.mechanicId) })),
   }
