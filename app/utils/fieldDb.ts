@@ -10,7 +10,8 @@ import {
   type SyncEntityName,
 } from '#shared/sync/entities'
 import type {
-  ApprovalRequestWire, ApprovalWire, CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire, NoteWire, PartLineWire, PhotoWire,
+  ApprovalRequestWire, ApprovalWire, CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire,
+  NoteWire, PartLineWire, PhotoWire,
   ReadingWire, SignOffWire, TestRunWire, UnitWire,
 } from '#shared/types/syncRows'
 

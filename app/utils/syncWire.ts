@@ -26,7 +26,7 @@ export const pullAnswerSchema = z.object({
 export type PullAnswer = z.infer<typeof pullAnswerSchema>
 
 /** GET /api/service-trucks/[id]/stock */
-export const stockAnswerSchema = z.object({ items: z.array(rowSchema) })
+export const stockAnswerSchema = z.object({ items: z.array(rowSchema), truck: rowSchema.optional() })
 
 /** The photo upload answer: the server names the hash it stored, which must be ours. */
 export const photoPutAnswerSchema = z.object({ sha256: z.string().regex(/^[0-9a-f]{64}$/i) }).passthrough()

@@ -3,9 +3,11 @@
 // take an answer, write who, how much, which PO, how and when, and on an approval raise the call's
 // limit and set its PO, all in one transaction. The answer closes the request it answers and every
 // approval link of that request, so a link is used once.
-import { and, desc, eq, isNull, sql } from 'drizzle-orm'
+import { and, asc, desc, eq, isNull, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import { APPROVAL_CHANNEL_LABELS, type ApprovalChannel, type ApprovalDecision } from '#shared/schemas/approvals'
+import type { PricedLine } from '#shared/utils/billing'
+import type { CoverStep } from '#shared/utils/estimate'
 
 type CallRow = typeof tables.calls.$inferSelect
 export type ApprovalRow = typeof tables.approvals.$inferSelect
@@ -103,4 +105,44 @@ export async function recordApproval(callId: string, input: ApprovalInput, autho
     if (request) await revokeLinks('estimate_approval', request.id, tx)
     return { approval: withoutXid(row!), call: { id: after!.id, authLimitCents: after!.authLimitCents, poNumber: after!.poNumber } }
   })
+}
+
+/**
+ * The invoice's lines beside the approvals that covered them: the limit the call was taken with,
+ * then each approval in turn; lines past the last approved amount are covered by none.
+ */
+type InvoiceLinesOf = {
+  callId: string
+  ratesId: string | null
+  totalCents: number
+  lines: { key: string | null, description: string, amountCents: number, taxable: boolean }[]
+}
+export async function invoiceApprovals(invoice: InvoiceLinesOf) {
+  const db = useDb()
+  const [call] = await db.select().from(tables.calls).where(eq(tables.calls.id, invoice.callId))
+  const answers = await db.select().from(tables.approvals).where(eq(tables.approvals.callId, invoice.callId))
+    .orderBy(asc(tables.approvals.decidedAt))
+  const [rates] = invoice.ratesId ? await db.select().from(tables.rates).where(eq(tables.rates.id, invoice.ratesId)) : []
+  const first = answers[0]
+  const initial = first ? first.previousLimitCents : call?.authLimitCents ?? null
+  const steps: CoverStep[] = []
+  if (initial != null) steps.push({ id: null, amountCents: initial, label: 'Limit given with the call' })
+  for (const a of answers) {
+    if (a.decision !== 'approved') continue
+    const po = a.poNumber ? `, PO ${a.poNumber}` : ''
+    const how = APPROVAL_CHANNEL_LABELS[a.channel as ApprovalChannel]
+    steps.push({ id: a.id, amountCents: a.amountCents, label: `Approved by ${a.approvedBy} ${how}${po}` })
+  }
+  if (!steps.length && !answers.length) return null
+  const lines = invoice.lines.map((l, i) => ({ ...l, key: l.key ?? `line:${i}` })) as PricedLine[]
+  const priced = { lines, totalCents: invoice.totalCents }
+  const cover = approvalCoverage(priced, rates?.taxRateBasisPoints ?? 0, steps)
+  return {
+    answers: answers.map(a => ({ id: a.id, decision: a.decision, approvedBy: a.approvedBy, amountCents: a.amountCents, poNumber: a.poNumber,
+      channel: a.channel, decidedAt: a.decidedAt })),
+    lines: cover.lines.map(l => ({ key: l.key, description: l.description, amountCents: l.amountCents, runningCents: l.runningCents,
+      coveredBy: l.coveredBy })),
+    approvedCents: cover.approvedCents,
+    pastCents: cover.pastCents,
+  }
 }

@@ -48,7 +48,8 @@ export async function listCalls(user: User, q: z.output<typeof callListQuerySche
   ])
   return {
     items: rows.map(r => ({
-      ...r.call, changeXid: undefined, awaitingApproval: r.awaitingApproval, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
+      ...r.call, changeXid: undefined, awaitingApproval: r.awaitingApproval, customer: r.customer,
+      unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
     })),
     total: count?.n ?? 0,
   }

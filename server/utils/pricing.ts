@@ -22,19 +22,11 @@ export async function estimateRecordFor(
   const { clockEvents, partLines } = tables
   const clock = await tx.select().from(clockEvents).where(eq(clockEvents.callId, call.id)).orderBy(asc(clockEvents.createdAt))
   const parts = await tx.select().from(partLines).where(eq(partLines.callId, call.id)).orderBy(asc(partLines.createdAt))
-  return {
-    rates: billingRatesOf(rates),
-    // `flag` is the server's verdict on the phone's clock for that event (null or absent: trusted).
-    clock: clock.map(c => ({ id: c.id, kind: c.kind, at: (c.deviceAt ?? c.createdAt).toISOString(), flag: c.flag ?? null })),
-    until: (until ?? call.completedAt ?? new Date()).toISOString(),
-    yard: await yardOf(tx, call),
-    site: { lat: call.lat, lon: call.lon },
-    parts: parts.map(p => ({
-      id: p.id, partNumber: p.partNumber, description: p.description, quantity: p.quantity,
-      unitPriceCents: p.unitPriceCents, coreChargeCents: p.coreChargeCents,
-    })),
-    taxExempt,
-  }
+  // `flag` is the server's verdict on the phone's clock for that event (null or absent: trusted).
+  return estimateRecordOfRows({
+    rates: billingRatesOf(rates), clock, parts, yard: await yardOf(tx, call), site: { lat: call.lat, lon: call.lon }, taxExempt,
+    until: until ?? call.completedAt ?? new Date(),
+  })
 }
 
 /** Everything a call is priced from, through the same builder as the phone's estimate. */

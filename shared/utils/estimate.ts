@@ -102,3 +102,42 @@ export function approvalCoverage(
   const approvedCents = limits.length ? limits.at(-1)!.amountCents : null
   return { lines, pastCents: approvedCents == null ? 0 : Math.max(0, priced.totalCents - approvedCents), approvedCents }
 }
+
+type When = string | Date
+/** A clock event or part line as either side keeps it: the server's rows (dates) or the phone's (ISO text). */
+export type EstimateRows = {
+  site: { lat?: number | null, lon?: number | null }
+  clock: { id?: string, kind: BillingClockEvent['kind'], deviceAt?: When | null, createdAt?: When | null, flag?: string | null }[]
+  parts: {
+    id?: string
+    partNumber: string
+    description: string
+    quantity: number
+    unitPriceCents?: number | null
+    coreChargeCents?: number | null
+  }[]
+  rates: BillingRates
+  yard: { lat: number, lon: number } | null
+  taxExempt: boolean
+  until: When
+}
+
+/** The record from rows: a clock event at the phone's time (else when the server took it), a part without a price at 0. */
+export function estimateRecordOfRows(r: EstimateRows): EstimateRecord {
+  const iso = (w: When) => new Date(w).toISOString()
+  return {
+    rates: r.rates,
+    clock: r.clock.flatMap((c) => {
+      const at = c.deviceAt ?? c.createdAt
+      return at ? [{ ...(c.id ? { id: c.id } : {}), kind: c.kind, at: iso(at), flag: c.flag ?? null }] : []
+    }),
+    parts: r.parts.map(p => ({
+      ...(p.id ? { id: p.id } : {}), partNumber: p.partNumber, description: p.description, quantity: p.quantity,
+      unitPriceCents: p.unitPriceCents ?? 0, coreChargeCents: p.coreChargeCents ?? 0,
+    })),
+    yard: r.yard,
+    site: { lat: r.site.lat ?? null, lon: r.site.lon ?? null },
+    taxExempt: r.taxExempt,
+    until: iso(r.until),
+  }
+}
