@@ -47,7 +47,7 @@ async function addPart(page: Page, number: string, dollars: string) {
   await expect(parts.getByText(number)).toBeVisible()
 }
 
-test('offline past 80 % and 100 %, ask, the fleet approves on its page, new limit on the phone, amount at sign-off', async ({ browser }) => {
+test('past 80 % and 100 % offline, ask, the fleet approves, new limit on the phone, amount at sign-off', async ({ browser }) => {
   test.slow()
   const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
   const page = await ctx.newPage()
