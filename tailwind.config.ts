@@ -23,6 +23,7 @@ export default {
         'caution': v('caution'),
         'fault': v('fault'),
         'info': v('info'),
+        'wait': v('wait'),
       },
       fontFamily: {
         sans: ['"Atkinson Hyperlegible"', 'system-ui', 'sans-serif'],

@@ -22,6 +22,8 @@ export type BoardCall = {
   customer: { id: string, name: string }
   unit: { id: string, unitNumber: string, yearMakeModel: string | null } | null
   mechanic: { id: string, name: string } | null
+  /** The mechanic asked the fleet for more and no answer is recorded yet. */
+  awaitingApproval?: boolean
 }
 
 /**

@@ -32,6 +32,9 @@ export interface CallView {
   testRuns: CollectionRows['testRuns'][]
   signOffs: CollectionRows['signOffs'][]
   callEvents: CollectionRows['callEvents'][]
+  /** The mechanic's requests for more and the fleet's answers. */
+  approvalRequests: CollectionRows['approvalRequests'][]
+  approvals: CollectionRows['approvals'][]
   /** Open conflicts on this call. */
   conflicts: CollectionRows['conflicts'][]
   /** Ids (call, records, conflicts) that an op still waiting on the device touches. */
@@ -71,7 +74,7 @@ export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: rea
     call: b.call, unit: b.unit, customer: b.customer, history,
     faultCodes: list('faultCodes'), readings: list('readings'), notes: list('notes'), photos: list('photos'),
     clockEvents: list('clockEvents'), partLines: list('partLines'), testRuns: list('testRuns'),
-    signOffs: list('signOffs'), callEvents: list('callEvents'),
+    signOffs: list('signOffs'), callEvents: list('callEvents'), approvalRequests: list('approvalRequests'), approvals: list('approvals'),
     conflicts: list('conflicts').filter(c => (c.status ?? 'open') === 'open'),
     pendingIds: [...new Set(mine.map(e => e.entityId))],
     rejected,

@@ -13,6 +13,8 @@ export type BillingDeskView = Answer<'/api/billing/desk', 'get'>
 /** The fleet's status page (opened from a link, no account). */
 export type FleetStatusView = Answer<'/api/share/:token', 'get'>
 export type StatusLinkState = Answer<'/api/calls/:id/share', 'get'>
+/** The fleet's approval page (opened from a link, no account). */
+export type ApprovalLinkView = Answer<'/api/approve/:token', 'get'>
 export type TruckListView = Answer<'/api/service-trucks', 'get'>
 export type TruckStockView = Answer<'/api/service-trucks/:id/stock', 'get'>
 export type StockMovesView = Answer<'/api/service-trucks/:id/moves', 'get'>

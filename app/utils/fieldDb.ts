@@ -6,10 +6,12 @@ import { promisifyRequest } from 'idb-keyval'
 import { deviceTx } from './deviceDb'
 import { checkOp, OpRefusedError } from './opCheck'
 import {
-  RECORD_COLLECTION_NAMES, RECORD_COLLECTIONS, type RecordCollection, type RecordEntityName, type SyncEntityName,
+  RECORD_COLLECTION_NAMES, RECORD_COLLECTIONS, SERVER_COLLECTION_NAMES, type RecordCollection, type RecordEntityName, type ServerCollection,
+  type SyncEntityName,
 } from '#shared/sync/entities'
 import type {
-  CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire, NoteWire, PartLineWire, PhotoWire,
+  ApprovalRequestWire, ApprovalWire, CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire,
+  NoteWire, PartLineWire, PhotoWire,
   ReadingWire, SignOffWire, TestRunWire, UnitWire,
 } from '#shared/types/syncRows'
 
@@ -62,9 +64,9 @@ export interface JournalEntry {
 
 /** Where a record entity lives in a call's bundle (and in a pull's `changes`): the registry's collection. */
 export const RECORD_COLLECTION = RECORD_COLLECTIONS
-/** A call's collections on the device: the registry's records, then the office's timeline and the conflicts. */
-export type Collection = RecordCollection | 'callEvents' | 'conflicts'
-export const BUNDLE_COLLECTIONS: Collection[] = [...RECORD_COLLECTION_NAMES, 'callEvents', 'conflicts']
+/** A call's collections on the device: the registry's records, then what the server writes (timeline, conflicts, approvals). */
+export type Collection = RecordCollection | ServerCollection
+export const BUNDLE_COLLECTIONS: Collection[] = [...RECORD_COLLECTION_NAMES, ...SERVER_COLLECTION_NAMES]
 
 /** The row type of each collection under a call, with the marks the phone keeps on some. */
 export interface CollectionRows {
@@ -80,6 +82,8 @@ export interface CollectionRows {
   partLines: DeviceRecord<PartLineWire>
   testRuns: DeviceRecord<TestRunWire>
   signOffs: DeviceRecord<SignOffWire>
+  approvalRequests: DeviceRecord<ApprovalRequestWire>
+  approvals: DeviceRecord<ApprovalWire>
   callEvents: DeviceRecord<CallEventWire>
   /** `pendingChoice`: settled on the phone, the settlement not yet sent. */
   conflicts: DeviceRecord<ConflictWire & { pendingChoice: 'device' | 'server' | 'value' }>

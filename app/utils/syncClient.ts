@@ -126,13 +126,16 @@ async function refreshStock(doFetch: SyncFetch) {
   const trucks = new Set((await readBundles()).filter(b => !isLockedStatus(String(b.call.status)))
     .map(b => b.call.serviceTruckId).filter((t): t is string => typeof t === 'string'))
   const found: DeviceRow[] = []
+  const yards: Record<string, DeviceRow> = {}
   for (const id of trucks) {
     const res = await doFetch(`/api/service-trucks/${id}/stock`, { headers: JSON_HEADERS, credentials: 'same-origin' }).catch(() => null)
     const body = res?.ok ? parseAnswer(stockAnswerSchema, await res.text()) : undefined
     if (!body) return
     found.push(...body.items)
+    if (body.truck) yards[body.truck.id] = body.truck
   }
   await setLibrary('truckStock', Object.fromEntries(found.map(r => [r.id, r])))
+  await setLibrary('serviceTrucks', yards)
   await setMeta('stockFetchedAt', Date.now())
 }
 

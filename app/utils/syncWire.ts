@@ -12,7 +12,7 @@ export { pullAnswerSchema, type PullAnswer } from '#shared/schemas/sync'
 const rowSchema = z.object({ id: z.string().min(1) }).passthrough()
 
 /** GET /api/service-trucks/[id]/stock */
-export const stockAnswerSchema = z.object({ items: z.array(rowSchema) })
+export const stockAnswerSchema = z.object({ items: z.array(rowSchema), truck: rowSchema.optional() })
 
 /** The photo upload answer: the server names the hash it stored, which must be ours. */
 export const photoPutAnswerSchema = z.object({ sha256: z.string().regex(/^[0-9a-f]{64}$/i) }).passthrough()

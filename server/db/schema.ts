@@ -13,6 +13,7 @@ import { DERATE_STATES } from '../../shared/schemas/calls'
 import { CLOCK_FLAGS } from '../../shared/sync/clockBounds'
 import { CLOCK_KINDS, FAULT_STATES, READING_QUANTITIES } from '../../shared/schemas/syncRecords'
 import { SYNC_OP_STATUSES } from '../../shared/schemas/sync'
+import { APPROVAL_CHANNELS, APPROVAL_DECISIONS, DECLINE_CHOICES, type PlannedPart } from '../../shared/schemas/approvals'
 
 const xid8 = customType<{ data: string }>({ dataType: () => 'xid8' })
 
@@ -284,6 +285,8 @@ export const calls = pgTable('calls', {
   sceneChecklist: jsonb('scene_checklist').$type<Record<string, boolean>>(),
   verification: jsonb('verification').$type<Record<string, unknown>>(),
   followUp: text('follow_up'),
+  /** What the mechanic chose after the fleet declined more work (make safe and release, tow, stop). */
+  afterDecline: text('after_decline'),
   cancelReason: text('cancel_reason'),
   receivedAt: ts('received_at').notNull().defaultNow(),
   assignedAt: ts('assigned_at'),
@@ -312,7 +315,9 @@ export const calls = pgTable('calls', {
   check('calls_lat_range', sql`${t.lat} IS NULL OR ${t.lat} BETWEEN -90 AND 90`),
   check('calls_lon_range', sql`${t.lon} IS NULL OR ${t.lon} BETWEEN -180 AND 180`),
   check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),
-  check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN (${sql.raw(sqlStatusList(DONE_STATUSES))})`),
+  check('calls_after_decline',
+    sql`${t.afterDecline} IS NULL OR ${t.afterDecline} IN (${sql.raw(DECLINE_CHOICES.map(c => `'${c}'`).join(', '))})`),
+    check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN (${sql.raw(sqlStatusList(DONE_STATUSES))})`),
 ])
 
 /** Every status move, for the timeline; append-only. */
@@ -478,6 +483,53 @@ export const signOffs = pgTable('sign_offs', {
   signature: text('signature').notNull(),
   ...synced,
 }, t => [uniqueIndex('sign_offs_call_unique').on(t.callId), index('sign_offs_change_idx').on(t.changeXid)])
+
+/** The mechanic asks the fleet for more: made on the phone, synced like any record; append-only. */
+export const approvalRequests = pgTable('approval_requests', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  diagnosis: text('diagnosis').notNull(),
+  needed: text('needed'),
+  plannedLaborMinutes: integer('planned_labor_minutes').notNull().default(0),
+  plannedParts: jsonb('planned_parts').$type<PlannedPart[]>().notNull().default([]),
+  estimateCents: integer('estimate_cents').notNull(),
+  limitCents: integer('limit_cents'),
+  photoIds: jsonb('photo_ids').$type<string[]>().notNull().default([]),
+  ...synced,
+}, t => [
+  index('approval_requests_call_idx').on(t.callId),
+  index('approval_requests_change_idx').on(t.changeXid),
+  check('approval_requests_money', sql`${t.estimateCents} >= 0 AND (${t.limitCents} IS NULL OR ${t.limitCents} >= 0)`),
+])
+
+const quoted = (xs: readonly string[]) => sql.raw(xs.map(x => `'${x}'`).join(', '))
+/** The fleet's answer: who, how much, which PO, how and when; written by the server only (the office or the fleet's link). */
+export const approvals = pgTable('approvals', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  callId: uuid('call_id').notNull().references(() => calls.id),
+  /** The request it answers (the newest open one when it was recorded), if any. */
+  requestId: uuid('request_id').references(() => approvalRequests.id),
+  decision: text('decision').notNull(),
+  approvedBy: text('approved_by').notNull(),
+  amountCents: integer('amount_cents').notNull(),
+  poNumber: text('po_number'),
+  channel: text('channel').notNull(),
+  decidedAt: ts('decided_at').notNull().defaultNow(),
+  /** The office user who recorded it; null when the fleet answered on its own page. */
+  recordedBy: uuid('recorded_by').references(() => users.id),
+  linkId: uuid('link_id'),
+  previousLimitCents: integer('previous_limit_cents'),
+  previousPoNumber: text('previous_po_number'),
+  ...synced,
+}, t => [
+  index('approvals_call_idx').on(t.callId, t.decidedAt),
+  index('approvals_change_idx').on(t.changeXid),
+  uniqueIndex('approvals_request_unique').on(t.requestId),
+  uniqueIndex('approvals_link_unique').on(t.linkId),
+  check('approvals_decision', sql`${t.decision} IN (${quoted(APPROVAL_DECISIONS)})`),
+  check('approvals_channel', sql`${t.channel} IN (${quoted(APPROVAL_CHANNELS)})`),
+  check('approvals_amount', sql`${t.amountCents} >= 0`),
+])
 
 // ── Billing ───────────────────────────────────────────────────────────────────────────────
 export const invoices = pgTable('invoices', {
@@ -764,6 +816,8 @@ export const callsRelations = relations(calls, ({ one, many }) => ({
   clockEvents: many(clockEvents),
   partLines: many(partLines),
   signOffs: many(signOffs),
+  approvalRequests: many(approvalRequests),
+  approvals: many(approvals),
   events: many(callEvents),
   conflicts: many(conflicts),
 }))
@@ -791,6 +845,8 @@ export const photosRelations = childOfCall(photos)
 export const clockEventsRelations = childOfCall(clockEvents)
 export const partLinesRelations = childOfCall(partLines)
 export const signOffsRelations = childOfCall(signOffs)
+export const approvalRequestsRelations = childOfCall(approvalRequests)
+export const approvalsRelations = childOfCall(approvals)
 export const callEventsRelations = childOfCall(callEvents)
 export const conflictsRelations = childOfCall(conflicts)
 export const testCardsRelations = relations(testCards, ({ many }) => ({ versions: many(testCardVersions) }))

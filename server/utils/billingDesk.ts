@@ -6,8 +6,9 @@ type CallRow = typeof tables.calls.$inferSelect
 
 /** Sign-off, open conflicts and untrusted clock times for each call, in three queries. */
 async function recordFacts(callIds: string[]) {
-  const out = new Map<string, { signedOff: boolean, openConflicts: number, untrustedClock: number }>()
-  for (const id of callIds) out.set(id, { signedOff: false, openConflicts: 0, untrustedClock: 0 })
+  const out = new Map<string, RecordFacts>()
+  const none = { signedOff: false, openConflicts: 0, untrustedClock: 0, lastApproval: null, awaitingApproval: false }
+  for (const id of callIds) out.set(id, { ...none })
   if (!callIds.length) return out
   const db = useDb()
   const { signOffs, conflicts, clockEvents } = tables
@@ -21,10 +22,26 @@ async function recordFacts(callIds: string[]) {
   for (const c of open) out.get(c.callId)!.openConflicts = c.n
   // `flag` is set by the server when the phone's clock could not be trusted for that event.
   for (const e of clock) if ((e as { flag?: string | null }).flag) out.get(e.callId)!.untrustedClock++
+  // The fleet's answers: the last approval set the limit; a request with no answer still waits.
+  const { approvals, approvalRequests } = tables
+  const [answers, requests] = await Promise.all([
+    db.select().from(approvals).where(inArray(approvals.callId, callIds)).orderBy(asc(approvals.decidedAt)),
+    db.select({ id: approvalRequests.id, callId: approvalRequests.callId }).from(approvalRequests)
+      .where(inArray(approvalRequests.callId, callIds)),
+  ])
+  const answered = new Set(answers.map(a => a.requestId))
+  for (const a of answers) if (a.decision === 'approved') out.get(a.callId)!.lastApproval = a
+  for (const r of requests) if (!answered.has(r.id)) out.get(r.callId)!.awaitingApproval = true
   return out
 }
 
-type RecordFacts = { signedOff: boolean, openConflicts: number, untrustedClock: number }
+type RecordFacts = {
+  signedOff: boolean
+  openConflicts: number
+  untrustedClock: number
+  lastApproval: { approvedBy: string, amountCents: number, poNumber: string | null } | null
+  awaitingApproval: boolean
+}
 
 function flagsOf(call: CallRow, facts: RecordFacts, totalCents: number, onAccount: boolean) {
   return deskFlags({

@@ -92,6 +92,7 @@ export async function listCalls(user: User, q: Query) {
         customer: { id: customers.id, name: customers.name, billingTerms: customers.billingTerms },
         unit: { id: units.id, unitNumber: units.unitNumber, vin: units.vin, yearMakeModel: units.yearMakeModel },
         mechanic: { id: users.id, name: users.name },
+        awaitingApproval: awaitingApprovalSql(calls.id),
       }).from(calls)
         .innerJoin(customers, eq(customers.id, calls.customerId))
         .leftJoin(units, eq(units.id, calls.unitId))
@@ -102,7 +103,8 @@ export async function listCalls(user: User, q: Query) {
   const last = page.at(-1)
   return {
     items: page.map(p => byId.get(p.id)).filter(r => r !== undefined).map(r => ({
-      ...r.call, changeXid: undefined, customer: r.customer, unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
+      ...r.call, changeXid: undefined, awaitingApproval: r.awaitingApproval, customer: r.customer,
+      unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
     })),
     total: count?.n ?? 0,
     /** The cursor (`after`) for the page that follows, null on the last page. */

@@ -43,6 +43,8 @@ export async function getCallRecord(id: string) {
       clockEvents: { orderBy: t => [asc(t.createdAt)] },
       partLines: { orderBy: t => [asc(t.createdAt)] },
       signOffs: true,
+      approvalRequests: { orderBy: t => [asc(t.createdAt)] },
+      approvals: { orderBy: t => [asc(t.decidedAt), asc(t.createdAt)] },
       events: { orderBy: t => [asc(t.at), asc(t.createdAt)] },
       conflicts: { orderBy: t => [asc(t.createdAt)] },
     },
@@ -54,6 +56,7 @@ export async function getCallRecord(id: string) {
   for (const id of [call.mechanicId, call.createdBy]) if (id) personIds.add(id)
   for (const e of call.events) { if (e.byUserId) personIds.add(e.byUserId); if (e.mechanicId) personIds.add(e.mechanicId) }
   for (const c of call.conflicts) { if (c.raisedBy) personIds.add(c.raisedBy); if (c.resolvedBy) personIds.add(c.resolvedBy) }
+  for (const a of call.approvals) if (a.recordedBy) personIds.add(a.recordedBy)
   const people = personIds.size
     ? await db.select({
         id: users.id, name: users.name, email: users.email, phone: users.phone, role: users.role,
@@ -69,8 +72,10 @@ export async function getCallRecord(id: string) {
 
   const clockAt = (e: { deviceAt: Date | null, createdAt: Date }) => e.deviceAt ?? e.createdAt
   const {
-    events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit, ...rest
+    events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit,
+    approvalRequests, approvals, ...rest
   } = call
+  const answered = new Set(approvals.map(a => a.requestId).filter(Boolean))
   return {
     ...withoutXid(rest),
     customer: withoutXid(customer),
@@ -87,6 +92,10 @@ export async function getCallRecord(id: string) {
     partLines: partLines.map(withoutXid),
     story: { complaint: call.storyComplaint, cause: call.storyCause, correction: call.storyCorrection },
     signOff: signOffs[0] ? withoutXid(signOffs[0]) : null,
+    // The mechanic's requests for more and the fleet's answers (newest last); waiting while a request has no answer.
+    approvalRequests: approvalRequests.map(r => ({ ...withoutXid(r), open: !answered.has(r.id) })),
+    approvals: approvals.map(a => ({ ...withoutXid(a), recordedByPerson: person(a.recordedBy) })),
+    awaitingApproval: approvalRequests.some(r => !answered.has(r.id)),
     conflicts: conflicts.map(c => ({
       ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy),
       // jsonb values, typed as JSON so the answer type keeps them.

@@ -94,6 +94,7 @@ export async function invoiceView(id: string) {
     .from(p).where(eq(p.callId, invoice.callId)).orderBy(asc(p.createdAt))
   return {
     ...invoice, ...(await draftHistory(row!)), flags: await invoiceFlags(invoice.callId, invoice.totalCents),
+    approvals: await invoiceApprovals({ ...invoice, ratesId: row!.ratesId }),
     photos: photos.map(x => ({
       ...x, url: `/api/photos/${x.id}`, pending: !x.uploadedAt, printable: x.contentType === 'image/jpeg' || x.contentType === 'image/png',
     })),

@@ -2,37 +2,36 @@
 // from, and writing a priced draft's lines and totals back.
 import { asc, eq } from 'drizzle-orm'
 import type { PriceAdjustment, PricedInvoice, PricingInput } from '#shared/utils/billing'
+import type { EstimateRecord } from '#shared/utils/estimate'
 
 type RatesRow = Parameters<typeof billingRatesOf>[0]
 type CallRow = typeof tables.calls.$inferSelect
 
-/** Out and back from the service truck's yard to the call, as the crow flies, in km; null when either end is unknown. */
-async function straightKm(tx: Db | Tx, call: CallRow) {
-  if (call.lat == null || call.lon == null || !call.serviceTruckId) return null
+/** The service truck's yard, where travel is measured from; null when the call has no truck or the yard no position. */
+async function yardOf(tx: Db | Tx, call: CallRow) {
+  if (!call.serviceTruckId) return null
   const [yard] = await tx.select({ lat: tables.yards.lat, lon: tables.yards.lon }).from(tables.serviceTrucks)
     .innerJoin(tables.yards, eq(tables.yards.id, tables.serviceTrucks.yardId)).where(eq(tables.serviceTrucks.id, call.serviceTruckId))
-  return yard ? 2 * haversineKm(yard, { lat: call.lat, lon: call.lon }) : null
+  return yard && yard.lat != null && yard.lon != null ? { lat: yard.lat, lon: yard.lon } : null
 }
 
-/** Everything a call is priced from: its clock (flagged events included, the pricing leaves them out), parts and distance. */
-export async function pricingInputFor(tx: Db | Tx, call: CallRow, rates: RatesRow, taxExempt: boolean): Promise<PricingInput> {
+/** The record a call is priced from (shared/utils/estimate.ts): clock (flagged events too; pricing leaves them out), parts, yard. */
+export async function estimateRecordFor(
+  tx: Db | Tx, call: CallRow, rates: RatesRow, taxExempt: boolean, until?: Date,
+): Promise<EstimateRecord> {
   const { clockEvents, partLines } = tables
   const clock = await tx.select().from(clockEvents).where(eq(clockEvents.callId, call.id)).orderBy(asc(clockEvents.createdAt))
   const parts = await tx.select().from(partLines).where(eq(partLines.callId, call.id)).orderBy(asc(partLines.createdAt))
-  return {
-    rates: billingRatesOf(rates),
-    // `flag` is the server's verdict on the phone's clock for that event (null or absent: trusted).
-    clock: clock.map(c => ({
-      id: c.id, kind: c.kind, at: (c.deviceAt ?? c.createdAt).toISOString(), flag: (c as { flag?: string | null }).flag ?? null,
-    })),
-    clockUntil: (call.completedAt ?? new Date()).toISOString(),
-    distance: { straightKm: await straightKm(tx, call), roadKm: null },
-    parts: parts.map(p => ({
-      id: p.id, partNumber: p.partNumber, description: p.description, quantity: p.quantity,
-      unitPriceCents: p.unitPriceCents, coreChargeCents: p.coreChargeCents,
-    })),
-    taxExempt,
-  }
+  // `flag` is the server's verdict on the phone's clock for that event (null or absent: trusted).
+  return estimateRecordOfRows({
+    rates: billingRatesOf(rates), clock, parts, yard: await yardOf(tx, call), site: { lat: call.lat, lon: call.lon }, taxExempt,
+    until: until ?? call.completedAt ?? new Date(),
+  })
+}
+
+/** Everything a call is priced from, through the same builder as the phone's estimate. */
+export async function pricingInputFor(tx: Db | Tx, call: CallRow, rates: RatesRow, taxExempt: boolean): Promise<PricingInput> {
+  return pricingInputOf(await estimateRecordFor(tx, call, rates, taxExempt))
 }
 
 /** Prices input with the office's changes; a rule the pricing refuses is the office's 422, not a 500. */

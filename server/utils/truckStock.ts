@@ -25,5 +25,10 @@ export async function truckStockFor(user: User, truckId: string) {
     // What the shop paid is the office's business, not the phone's.
     costCents: user.role === 'mechanic' ? sql<number | null>`NULL` : truckStock.costCents,
   }).from(truckStock).where(eq(truckStock.truckId, truckId)).orderBy(asc(truckStock.partNumber))
-  return { truck: { id: truck.id, name: truck.name }, items }
+  const [yard] = truck.yardId
+    ? await db.select({ lat: tables.yards.lat, lon: tables.yards.lon }).from(tables.yards)
+        .where(eq(tables.yards.id, truck.yardId))
+    : []
+  // The yard's position prices travel by distance in the phone's estimate, as the invoice does.
+  return { truck: { id: truck.id, name: truck.name, yardLat: yard?.lat ?? null, yardLon: yard?.lon ?? null }, items }
 }

@@ -4,6 +4,7 @@
 // whole op against the wire schema again before it is queued.
 import { z } from 'zod'
 import { cleanText } from './text'
+import { approvalRequestCreateSchema, plannedPartSchema } from './approvals'
 import { parseDtc } from '../utils/dtc'
 import { specBounds } from '../utils/spec'
 import {
@@ -159,3 +160,19 @@ export type VerificationInput = z.input<typeof verificationInputSchema>
 export const followUpInputSchema = z.object({
   followUp: callFieldSchemas.followUp.unwrap().min(1, 'Say what still needs doing'),
 })
+
+/** Asking the fleet for more: the labor still needed typed in hours, carried in minutes. */
+export const approvalRequestInputSchema = z.object({
+  diagnosis: approvalRequestCreateSchema.shape.diagnosis,
+  needed: approvalRequestCreateSchema.shape.needed,
+  laborHours: keypad(z.number({ message: 'Labor still needed must be hours' }).min(0, 'Cannot be negative').max(168, 'At most 168 hours')
+    .optional(), 'Labor still needed'),
+}).transform(({ laborHours, ...r }) => ({ ...r, plannedLaborMinutes: Math.round((laborHours ?? 0) * 60) }))
+
+/** A part still needed, as the request form takes it (price in dollars). */
+export const approvalPartInputSchema = z.object({
+  partNumber: plannedPartSchema.shape.partNumber,
+  description: plannedPartSchema.shape.description,
+  quantity: keypad(plannedPartSchema.shape.quantity, 'Quantity'),
+  unitPrice: dollars(pl.unitPriceCents, 'Unit price', pl.unitPriceCents.unwrap().maxValue ?? 0),
+}).transform(({ unitPrice, ...p }) => ({ ...p, unitPriceCents: Number(unitPrice ?? 0), coreChargeCents: 0 }))

@@ -7,6 +7,7 @@ import { parseDtc } from '../utils/dtc'
 import { CALL_OUTCOMES, CALL_STATUSES, type CallSyncField } from '../utils/callStatus'
 import { callCancelSchema, dispatchFields } from './calls'
 import { cleanText } from './text'
+import { DECLINE_CHOICES } from './approvals'
 
 /** A drawn signature as a data URL; a few tens of KB in practice. */
 export const SIGNATURE_MAX_CHARS = 300_000
@@ -164,6 +165,7 @@ export const callFieldSchemas = {
   sceneChecklist: z.record(z.string().max(60), z.boolean()).nullable(),
   verification: z.record(z.string().max(60), z.unknown()).nullable(),
   followUp: text(2000).nullable(),
+  afterDecline: z.enum(DECLINE_CHOICES, { message: `Expected one of ${DECLINE_CHOICES.join(', ')}` }).nullable(),
   ...dispatchFields,
   customerId: uuid('customer id'),
   unitId: uuid('unit id').nullable(),

@@ -13,6 +13,8 @@ import {
   testRunUpdateSchema,
 } from '../schemas/syncRecords'
 import { describeIssues } from '../utils/fieldErrors'
+import { approvalRequestCreateSchema } from '../schemas/approvals'
+import { formatCents } from '../utils/billing'
 
 type Changes = Record<string, unknown>
 export type OpAction = 'create' | 'update'
@@ -73,7 +75,8 @@ export const CLOCK_WORDS: Record<ClockKind, string> = {
 
 export const CALL_FIELD_WORDS: Readonly<Record<string, string>> = {
   status: 'status', outcome: 'outcome', storyComplaint: 'complaint', storyCause: 'cause', storyCorrection: 'correction',
-  sceneChecklist: 'scene checklist', verification: 'verification', followUp: 'follow-up', customerId: 'customer', unitId: 'unit',
+  sceneChecklist: 'scene checklist', verification: 'verification', followUp: 'follow-up', afterDecline: 'what was done after the decline',
+  customerId: 'customer', unitId: 'unit',
   locationText: 'location', lat: 'latitude', lon: 'longitude', complaint: 'driver\'s complaint', lamps: 'lamps', derate: 'derate state',
   derateNote: 'derate note', loaded: 'loaded', hazmat: 'hazmat', safetyNotes: 'safety notes', callerName: 'caller',
   callerPhone: 'caller phone', poNumber: 'PO number', authLimitCents: 'authorization limit', mechanicId: 'mechanic',
@@ -180,6 +183,18 @@ export const SYNC_ENTITIES = {
     words: { one: 'sign-off', many: 'sign-offs' },
     summary: (_a, c) => `Driver sign-off: ${cut(c.driverName, 30)}`,
   },
+  approvalRequest: {
+    kind: 'record',
+    collection: 'approvalRequests',
+    create: approvalRequestCreateSchema,
+    updatable: [],
+    appendOnly: true,
+    words: { one: 'approval request', many: 'approval requests' },
+    summary: (_a, c) => {
+      const total = typeof c.estimateCents === 'number' ? formatCents(c.estimateCents) : 'more'
+      return `Asked the fleet for ${total}: ${cut(c.diagnosis)}`
+    },
+  },
   conflictResolution: {
     kind: 'command',
     command: conflictResolutionSchema,
@@ -219,6 +234,14 @@ export const RECORD_COLLECTIONS = Object.fromEntries(RECORD_ENTITY_NAMES.map(n =
 }
 /** Every collection of records under a call, in the registry's order. */
 export const RECORD_COLLECTION_NAMES = RECORD_ENTITY_NAMES.map(n => SYNC_ENTITIES[n].collection) as RecordCollection[]
+
+/**
+ * Collections the server writes under a call and the pull hands out beside the device's own records:
+ * the timeline, the conflicts and the fleet's answers to approval requests. The phone keeps them in the
+ * call's bundle; it never writes them.
+ */
+export const SERVER_COLLECTION_NAMES = ['callEvents', 'conflicts', 'approvals'] as const
+export type ServerCollection = (typeof SERVER_COLLECTION_NAMES)[number]
 
 /** The op in one line of plain words (the sync panel, the journal). */
 export function summarizeOp(op: { entity: string, action: OpAction, changes: Changes }): string {

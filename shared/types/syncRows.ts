@@ -20,6 +20,8 @@ export type ClockEventWire = Row<typeof db.clockEvents>
 export type PartLineWire = Row<typeof db.partLines>
 export type SignOffWire = Row<typeof db.signOffs>
 export type ConflictWire = Row<typeof db.conflicts>
+export type ApprovalRequestWire = Row<typeof db.approvalRequests>
+export type ApprovalWire = Row<typeof db.approvals>
 export type RatesWire = Row<typeof db.rates>
 
 /**

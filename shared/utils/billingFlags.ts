@@ -2,7 +2,8 @@
 // by the billing desk, the invoice page and the tests.
 import { formatCents } from './billing'
 
-export type DeskFlagCode = 'untrusted_clock' | 'open_conflicts' | 'over_limit' | 'no_sign_off' | 'no_story' | 'no_po'
+export type DeskFlagCode = 'untrusted_clock' | 'open_conflicts' | 'over_limit' | 'past_approval' | 'awaiting_approval' | 'no_sign_off'
+  | 'no_story' | 'no_po'
 export type DeskFlag = { code: DeskFlagCode, text: string }
 
 export type DeskFacts = {
@@ -17,6 +18,10 @@ export type DeskFacts = {
   poNumber: string | null
   /** Fleets on account match invoices to purchase orders; a card customer needs none. */
   onAccount: boolean
+  /** The fleet's last approval, when there is one (it set the limit). */
+  lastApproval?: { approvedBy: string, amountCents: number, poNumber: string | null } | null
+  /** The mechanic asked the fleet for more and no answer is recorded. */
+  awaitingApproval?: boolean
 }
 
 const blank = (s: string | null) => !s || !s.trim()
@@ -30,9 +35,17 @@ export function deskFlags(f: DeskFacts): DeskFlag[] {
   if (f.openConflicts > 0) {
     out.push({ code: 'open_conflicts', text: `${f.openConflicts} open conflict${f.openConflicts === 1 ? '' : 's'} to settle` })
   }
-  if (f.authLimitCents !== null && f.totalCents > f.authLimitCents) {
+  if (f.authLimitCents !== null && f.totalCents > f.authLimitCents && f.lastApproval) {
+    const a = f.lastApproval
+    const past = formatCents(f.totalCents - f.authLimitCents)
+    const po = a.poNumber ? ` (PO ${a.poNumber})` : ''
+    const text = `Work past the fleet's approval: ${past} over the ${formatCents(f.authLimitCents)} ${a.approvedBy} approved${po}`
+    out.push({ code: 'past_approval', text: `${text}; ask the fleet or take it off before sending` })
+  }
+  else if (f.authLimitCents !== null && f.totalCents > f.authLimitCents) {
     out.push({ code: 'over_limit', text: `Total ${formatCents(f.totalCents)} is over the authorized ${formatCents(f.authLimitCents)}` })
   }
+  if (f.awaitingApproval) out.push({ code: 'awaiting_approval', text: 'The mechanic asked the fleet for more; no answer is recorded' })
   if (!f.signedOff) out.push({ code: 'no_sign_off', text: 'No driver sign-off' })
   if (blank(f.storyCause) || blank(f.storyCorrection)) {
     out.push({ code: 'no_story', text: 'Story incomplete (cause or correction missing)' })

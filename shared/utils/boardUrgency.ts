@@ -13,6 +13,8 @@ export type BoardUrgencyCall = {
   receivedAt: string | Date
   assignedAt?: string | Date | null
   enRouteAt?: string | Date | null
+  /** The mechanic asked the fleet for more and nobody has answered yet. */
+  awaitingApproval?: boolean
 }
 
 /** A countdown or a shutdown strands the truck soonest: those calls go first. */
@@ -48,6 +50,9 @@ export function isPausedCall(c: BoardUrgencyCall): boolean {
 
 /** Board order: countdown and shutdown first, then along the status order, then the oldest first. */
 export function compareBoardCalls(a: BoardUrgencyCall, b: BoardUrgencyCall): number {
+  // A call waiting for the fleet's approval comes first: the mechanic is stopped until someone answers.
+  const waiting = Number(!!b.awaitingApproval) - Number(!!a.awaitingApproval)
+  if (waiting) return waiting
   const urgent = Number(isEngineUrgent(b)) - Number(isEngineUrgent(a))
   if (urgent) return urgent
   const status = STATUS_ORDER.indexOf(a.status) - STATUS_ORDER.indexOf(b.status)

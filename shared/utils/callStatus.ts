@@ -112,7 +112,7 @@ export function outcomeProblem(status: CallStatus, outcome: unknown): string | u
 // ── Call fields and who owns them ─────────────────────────────────────────────────────────
 /** Field work is the mechanic's (the phone writes it); dispatch fields are the office's. */
 export const CALL_FIELD_WORK_FIELDS = [
-  'status', 'outcome', 'storyComplaint', 'storyCause', 'storyCorrection', 'sceneChecklist', 'verification', 'followUp',
+  'status', 'outcome', 'storyComplaint', 'storyCause', 'storyCorrection', 'sceneChecklist', 'verification', 'followUp', 'afterDecline',
 ] as const
 export const CALL_DISPATCH_FIELDS = [
   'customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat',

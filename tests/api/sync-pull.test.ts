@@ -41,7 +41,7 @@ describe('pull: scope', () => {
     expect(changes.units.map((u: any) => u.id)).toContain(IDS.unit)
     const customer = changes.customers.find((c: any) => c.id === IDS.customer)
     expect(customer).toMatchObject({ name: 'Prairie Cold Haul' })
-    for (const hidden of ['billingEmail', 'billingTerms', 'netDays', 'notes', 'taxExempt']) expect(customer).not.toHaveProperty(hidden)
+    for (const hidden of ['billingEmail', 'billingTerms', 'netDays', 'notes']) expect(customer).not.toHaveProperty(hidden)
     expect(changes.rates.length).toBeGreaterThan(0)
     expect(changes.testCards.find((c: any) => c.id === cardId)).toMatchObject({
       currentVersion: 1, version: 1, definition: { steps: expect.any(Array) },

@@ -94,7 +94,10 @@ export async function cleanupSyncData() {
     const calls = made.calls, cards = made.cards
     await client.query(
       'DELETE FROM readings WHERE call_id = ANY($1) OR test_run_id IN (SELECT id FROM test_runs WHERE card_id = ANY($2))', [calls, cards])
-    for (const t of ['fault_codes', 'notes', 'photos', 'clock_events', 'part_lines', 'sign_offs', 'conflicts', 'call_events']) {
+    await client.query(`DELETE FROM links WHERE subject_id IN (SELECT id FROM approval_requests WHERE call_id = ANY($1))`, [calls])
+    const tables = ['approvals', 'approval_requests', 'fault_codes', 'notes', 'photos', 'clock_events', 'part_lines', 'sign_offs',
+      'conflicts', 'call_events']
+    for (const t of tables) {
       await client.query(`DELETE FROM ${t} WHERE call_id = ANY($1)`, [calls])
     }
     await client.query('DELETE FROM test_runs WHERE call_id = ANY($1) OR card_id = ANY($2)', [calls, cards])

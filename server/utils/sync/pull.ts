@@ -232,10 +232,10 @@ async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean,
         : sql`${units.id} IN (SELECT unit_id FROM ${callRows} c)`,
     },
     {
-      // A mechanic needs who and how to reach them, not billing terms or account notes.
+      // A mechanic needs who and how to reach them, not billing terms or account notes; tax exemption prices the estimate.
       key: 'customers', table: customers,
       columns: {
-        id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone,
+        id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone, taxExempt: customers.taxExempt,
         version: customers.version, updatedAt: customers.updatedAt,
       },
       out: row => row,

@@ -80,5 +80,12 @@ export function buildCreateRow(ctx: ApplyContext, entity: RecordEntityName, op: 
       const d = data as RecordCreate<'signOff'>
       return { id, callId, createdBy, deviceAt, driverName: d.driverName, signature: d.signature }
     }
+    case 'approvalRequest': {
+      const d = data as RecordCreate<'approvalRequest'>
+      return {
+        id, callId, createdBy, deviceAt, diagnosis: d.diagnosis, needed: d.needed ?? null, plannedLaborMinutes: d.plannedLaborMinutes,
+        plannedParts: d.plannedParts, estimateCents: d.estimateCents, limitCents: d.limitCents, photoIds: d.photoIds,
+      }
+    }
   }
 }
