@@ -2,7 +2,8 @@
 # npm run bench: the speed figures. Sets up like npm test (a database of its own, wayside_bench,
 # its own ports, the built app), starts the fakes and the server, then runs every
 # scripts/bench/*.ts, or only those named (`npm run bench -- sync-push`), and prints what each
-# measured. Benchmarks print; they assert nothing. A benchmark finds the server at
+# measured, then one table (scripts/bench/support/table.ts) and bench/results.json. Each benchmark records
+# its figures with recordRow (scripts/bench/support/rows.ts). Benchmarks print; they assert nothing. A benchmark finds the server at
 # WAYSIDE_BENCH_URL (also WAYSIDE_TEST_URL) and its database at NUXT_DATABASE_URL.
 source "$(dirname "$0")/lib.sh"
 trap 'cleanup_children' EXIT
@@ -35,6 +36,7 @@ node --import tsx scripts/fakes/run.ts & CHILD_PIDS+=($!)
 NITRO_HOST=127.0.0.1 NITRO_PORT="$WAYSIDE_TEST_PORT" node .output/server/index.mjs > "$DATA/bench-server-$SLOT.log" 2>&1 & CHILD_PIDS+=($!)
 wait_for_http "$WAYSIDE_TEST_URL/login" || { tail -n 30 "$DATA/bench-server-$SLOT.log"; die "the bench server did not start"; }
 
+rm -f bench/rows.jsonl
 names=("$@")
 if [ ${#names[@]} -eq 0 ]; then
   for f in scripts/bench/*.ts; do names+=("$(basename "$f" .ts)"); done
@@ -44,3 +46,4 @@ for name in "${names[@]}"; do
   say "bench: $name"
   npx tsx "scripts/bench/$name.ts" || say "bench $name failed"
 done
+npx tsx scripts/bench/support/table.ts

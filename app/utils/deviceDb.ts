@@ -41,7 +41,9 @@ function transactionDone(tx: IDBTransaction): Promise<void> {
 }
 
 /** Runs `fn` in one transaction over `stores`; resolves when the transaction has committed. */
-export async function deviceTx<T>(stores: DeviceStoreName[], mode: IDBTransactionMode, fn: (tx: IDBTransaction) => T | PromiseLike<T>): Promise<T> {
+export async function deviceTx<T>(
+  stores: DeviceStoreName[], mode: IDBTransactionMode, fn: (tx: IDBTransaction) => T | PromiseLike<T>,
+): Promise<T> {
   for (let attempt = 0; ; attempt++) {
     try {
       const db = await openDb()

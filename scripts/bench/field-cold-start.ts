@@ -6,6 +6,7 @@ import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from '@playwright/test'
+import { recordRow } from './support/rows'
 
 const BASE = process.env.WAYSIDE_BENCH_URL ?? process.env.WAYSIDE_TEST_URL ?? 'http://127.0.0.1:3190'
 const RUNS = Number(process.env.WAYSIDE_BENCH_RUNS ?? 5)
@@ -73,6 +74,10 @@ try {
     + `median ${median(cold)} ms (runs: ${cold.join(', ')} ms)`)
   console.log(`static page (/favicon.svg) from the same server, CPU ${CPU_SLOWDOWN}× slower: `
     + `median ${median(staticFile)} ms (runs: ${staticFile.join(', ')} ms)`)
+  recordRow({
+    name: 'offline-cold-start', value: median(cold), unit: 'ms', floor: median(staticFile), target: 'ratio ≤ 1.5',
+    note: `offline /m to its first call vs /favicon.svg, CPU ${CPU_SLOWDOWN}× slower, median of ${cold.length}`,
+  })
 }
 finally {
   rmSync(profile, { recursive: true, force: true })

@@ -4,6 +4,7 @@
 import { randomUUID } from 'node:crypto'
 import pg from 'pg'
 import { seedId } from '../../server/db/seed/ids'
+import { recordRow } from './support/rows'
 
 const BASE = process.env.WAYSIDE_BENCH_URL ?? process.env.WAYSIDE_TEST_URL ?? 'http://127.0.0.1:3190'
 const DB = process.env.NUXT_DATABASE_URL ?? 'postgres://wayside@127.0.0.1:54329/wayside_bench'
@@ -86,7 +87,10 @@ try {
   const r = await firstSync(cookie)
   const mb = r.bytes / 1024 / 1024
   console.log(`first sync: ${r.bytes} bytes (${mb.toFixed(2)} MB) in ${r.pages} pages, ${r.calls} calls, ${r.ms.toFixed(0)} ms`)
-  console.log(`target < 2 MB: ${r.bytes < TARGET_BYTES ? 'met' : 'NOT met'}`)
+  recordRow({
+    name: 'pull-first-sync', value: r.bytes / 1024, unit: 'KB', floor: null, target: `< ${TARGET_BYTES / 1024}`,
+    note: `first sync of a mechanic with ${PAST_CALLS} past calls: ${r.pages} pages, ${r.calls} calls, ${r.ms.toFixed(0)} ms`,
+  })
 }
 finally {
   await pool.end()

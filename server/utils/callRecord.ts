@@ -55,14 +55,22 @@ export async function getCallRecord(id: string) {
   for (const e of call.events) { if (e.byUserId) personIds.add(e.byUserId); if (e.mechanicId) personIds.add(e.mechanicId) }
   for (const c of call.conflicts) { if (c.raisedBy) personIds.add(c.raisedBy); if (c.resolvedBy) personIds.add(c.resolvedBy) }
   const people = personIds.size
-    ? await db.select({ id: users.id, name: users.name, email: users.email, phone: users.phone, role: users.role }).from(users).where(inArray(users.id, [...personIds]))
+    ? await db.select({
+        id: users.id, name: users.name, email: users.email, phone: users.phone, role: users.role,
+      }).from(users).where(inArray(users.id, [...personIds]))
     : []
   const person = (pid: string | null) => (pid ? people.find(p => p.id === pid) ?? null : null)
   const cardIds = [...new Set(call.testRuns.map(r => r.cardId))]
-  const cards = cardIds.length ? await db.select({ id: testCards.id, title: testCards.title, slug: testCards.slug }).from(testCards).where(inArray(testCards.id, cardIds)) : []
+  const cards = cardIds.length
+    ? await db.select({
+        id: testCards.id, title: testCards.title, slug: testCards.slug,
+      }).from(testCards).where(inArray(testCards.id, cardIds))
+    : []
 
   const clockAt = (e: { deviceAt: Date | null, createdAt: Date }) => e.deviceAt ?? e.createdAt
-  const { events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit, ...rest } = call
+  const {
+    events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit, ...rest
+  } = call
   return {
     ...withoutXid(rest),
     customer: withoutXid(customer),
@@ -82,7 +90,8 @@ export async function getCallRecord(id: string) {
     conflicts: conflicts.map(c => ({
       ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy),
       // jsonb values, typed as JSON so the answer type keeps them.
-      baseValue: c.baseValue as ConflictValue, deviceValue: c.deviceValue as ConflictValue, serverValue: c.serverValue as ConflictValue, resolvedValue: c.resolvedValue as ConflictValue,
+      baseValue: c.baseValue as ConflictValue, deviceValue: c.deviceValue as ConflictValue,
+      serverValue: c.serverValue as ConflictValue, resolvedValue: c.resolvedValue as ConflictValue,
     })),
     events: events.map(e => ({ ...withoutXid(e), by: person(e.byUserId), mechanic: person(e.mechanicId) })),
   }

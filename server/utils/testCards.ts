@@ -96,7 +96,9 @@ export async function getTestCard(id: string, version?: number): Promise<TestCar
   const versions = await db.select({ version: testCardVersions.cardVersion, createdAt: testCardVersions.createdAt, authorName: users.name })
     .from(testCardVersions).leftJoin(users, eq(users.id, testCardVersions.authorId))
     .where(eq(testCardVersions.cardId, id)).orderBy(desc(testCardVersions.cardVersion))
-  return { ...view(card, v), versions: versions.map(x => ({ version: x.version, createdAt: x.createdAt.toISOString(), authorName: x.authorName })) }
+  return {
+    ...view(card, v), versions: versions.map(x => ({ version: x.version, createdAt: x.createdAt.toISOString(), authorName: x.authorName })),
+  }
 }
 
 export async function createTestCard(input: z.output<typeof testCardCreateSchema>, user: User): Promise<TestCardView> {
@@ -107,8 +109,12 @@ export async function createTestCard(input: z.output<typeof testCardCreateSchema
     const taken = await tx.query.testCards.findFirst({ where: eq(testCards.slug, input.slug) })
     if (taken) ruleError('slug', 'Another card already has this short name')
     const d = input.definition
-    const [card] = await tx.insert(testCards).values({ slug: input.slug, title: d.title, componentType: d.componentType, currentVersion: 1 }).returning()
-    const [v] = await tx.insert(testCardVersions).values({ cardId: card!.id, cardVersion: 1, definition: d as unknown as Record<string, unknown>, authorId: user.id }).returning()
+    const [card] = await tx.insert(testCards).values({
+      slug: input.slug, title: d.title, componentType: d.componentType, currentVersion: 1,
+    }).returning()
+    const [v] = await tx.insert(testCardVersions).values({
+      cardId: card!.id, cardVersion: 1, definition: d as unknown as Record<string, unknown>, authorId: user.id,
+    }).returning()
     return view(card!, v!)
   }).catch((err) => {
     if (isUniqueViolation(err)) ruleError('slug', 'Another card already has this short name')
@@ -120,7 +126,9 @@ export async function createTestCard(input: z.output<typeof testCardCreateSchema
  * A new definition inserts version N+1 and moves the card to it, in one transaction; the row
  * lock makes two admins saving at once get N+1 and N+2 (or a 409 when they sent baseVersion).
  */
-export async function updateTestCard(id: string, patch: z.output<typeof testCardPatchSchema>, user: User): Promise<TestCardView | undefined> {
+export async function updateTestCard(
+  id: string, patch: z.output<typeof testCardPatchSchema>, user: User,
+): Promise<TestCardView | undefined> {
   const { testCards, testCardVersions } = tables
   return useDb().transaction(async (tx) => {
     const [card] = await tx.select().from(testCards).where(eq(testCards.id, id)).for('update')
@@ -128,7 +136,8 @@ export async function updateTestCard(id: string, patch: z.output<typeof testCard
     if (patch.baseVersion !== undefined && patch.baseVersion !== card.currentVersion) {
       throw createError({
         status: 409, statusText: 'Changed meanwhile',
-        message: `This card is at version ${card.currentVersion} now; you edited version ${patch.baseVersion}. Reload it and make your change again.`,
+        message: `This card is at version ${card.currentVersion} now; you edited version ${patch.baseVersion}. `
+          + 'Reload it and make your change again.',
         data: { currentVersion: card.currentVersion },
       })
     }
@@ -136,11 +145,15 @@ export async function updateTestCard(id: string, patch: z.output<typeof testCard
     if (patch.active !== undefined) set.active = patch.active
     if (patch.definition) {
       const next = card.currentVersion + 1
-      await tx.insert(testCardVersions).values({ cardId: id, cardVersion: next, definition: patch.definition as unknown as Record<string, unknown>, authorId: user.id })
+      await tx.insert(testCardVersions).values({
+        cardId: id, cardVersion: next, definition: patch.definition as unknown as Record<string, unknown>, authorId: user.id,
+      })
       Object.assign(set, { currentVersion: next, title: patch.definition.title, componentType: patch.definition.componentType })
     }
     const [updated] = await tx.update(testCards).set({ ...set, updatedAt: sql`now()` }).where(eq(testCards.id, id)).returning()
-    const [v] = await tx.select().from(testCardVersions).where(and(eq(testCardVersions.cardId, id), eq(testCardVersions.cardVersion, updated!.currentVersion)))
+    const [v] = await tx.select().from(testCardVersions).where(and(
+      eq(testCardVersions.cardId, id), eq(testCardVersions.cardVersion, updated!.currentVersion),
+    ))
     return view(updated!, v!)
   })
 }

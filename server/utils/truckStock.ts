@@ -19,7 +19,8 @@ export async function truckStockFor(user: User, truckId: string) {
   if (!truck) return undefined
   const items = await db.select({
     id: truckStock.id, truckId: truckStock.truckId, partNumber: truckStock.partNumber, description: truckStock.description,
-    quantity: truckStock.quantity, unitPriceCents: truckStock.unitPriceCents, coreChargeCents: truckStock.coreChargeCents, version: truckStock.version,
+    quantity: truckStock.quantity, unitPriceCents: truckStock.unitPriceCents, coreChargeCents: truckStock.coreChargeCents,
+    version: truckStock.version,
     bin: truckStock.bin, minimum: truckStock.minimum,
     // What the shop paid is the office's business, not the phone's.
     costCents: user.role === 'mechanic' ? sql<number | null>`NULL` : truckStock.costCents,

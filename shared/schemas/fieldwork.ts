@@ -147,7 +147,9 @@ export const verificationInputSchema = z.object({
   liveValuesChecked: z.boolean(),
   liveValuesNote: blank(cleanText('Live values note', { multiline: true })
     .max(500, 'At most 500 characters').optional()),
-  testDriveKm: keypad(z.number().min(0, 'Distance cannot be negative').max(2000, 'Distance is too large').optional(), 'Test drive distance'),
+  testDriveKm: keypad(
+    z.number().min(0, 'Distance cannot be negative').max(2000, 'Distance is too large').optional(), 'Test drive distance',
+  ),
   testDriveMinutes: keypad(z.number().min(0, 'Time cannot be negative').max(1440, 'Time is too long').optional(), 'Test drive time'),
   lampsOff: z.boolean(),
   derateGone: z.boolean(),

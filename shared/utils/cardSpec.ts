@@ -198,7 +198,9 @@ export function describeCardSpec(spec: CardSpec, opts: DescribeOptions) {
   if (!(opts.quantity in BASE_UNIT_OF)) throw new RangeError(`Unknown quantity "${String(opts.quantity)}"`)
   const unit = displayUnitFor(opts.quantity, opts.unit)
   const resolved = resolveCardSpec(spec, opts.partTempC)
-  if (resolved.model && opts.quantity !== 'resistance') throw new RangeError('A sensor-model spec gives ohms: the reading must be a resistance')
+  if (resolved.model && opts.quantity !== 'resistance') {
+    throw new RangeError('A sensor-model spec gives ohms: the reading must be a resistance')
+  }
   const tUnit = opts.temperatureUnit ?? 'degC'
   const limitsText = describeSpec(specInUnit(specBounds(resolved.judge), unit), unit)
   const specText = describeSpec(specInUnit(resolved.judge, unit), unit)
@@ -251,7 +253,9 @@ export function makerDataText(spec: CardSpec | undefined): string {
 }
 
 /** Verdict on a yes/no or pick-one step: pass when the answer is one the card marks as passing. */
-export function judgeAnswer(step: Pick<CardStep, 'measure' | 'passAnswer' | 'options' | 'passOptions'>, answer: string): { verdict: 'pass' | 'fail', text: string } {
+export function judgeAnswer(
+  step: Pick<CardStep, 'measure' | 'passAnswer' | 'options' | 'passOptions'>, answer: string,
+): { verdict: 'pass' | 'fail', text: string } {
   if (step.measure === 'yes_no') {
     if (answer !== 'yes' && answer !== 'no') throw new RangeError(`Answer yes or no, got "${answer}"`)
     const ok = answer === step.passAnswer
@@ -260,7 +264,10 @@ export function judgeAnswer(step: Pick<CardStep, 'measure' | 'passAnswer' | 'opt
   if (step.measure === 'choice') {
     if (!(step.options ?? []).includes(answer)) throw new RangeError(`"${answer}" is not one of this step's options`)
     const ok = (step.passOptions ?? []).includes(answer)
-    return { verdict: ok ? 'pass' : 'fail', text: `picked "${answer}"; passes on ${(step.passOptions ?? []).map(o => `"${o}"`).join(' or ')}; ${ok ? 'pass' : 'fail'}` }
+    return {
+      verdict: ok ? 'pass' : 'fail',
+      text: `picked "${answer}"; passes on ${(step.passOptions ?? []).map(o => `"${o}"`).join(' or ')}; ${ok ? 'pass' : 'fail'}`,
+    }
   }
   throw new RangeError('A measured step is judged by its reading, not an answer')
 }

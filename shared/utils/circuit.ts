@@ -167,11 +167,13 @@ export function classifySensorCircuit(readings: SensorCircuitReadings): { verdic
       findings.push(`Signal reads ${fmtV(sig)}: not interpreted until the reference is fixed`)
     }
     else if (sig >= ref - L.signalRailVolts) {
-      findings.push(`Signal reads ${fmtV(sig)}, at the ${fmtV(ref)} reference: on a two-wire sensor this means the sensor or its wiring is open`)
+      findings.push(`Signal reads ${fmtV(sig)}, at the ${fmtV(ref)} reference: `
+        + 'on a two-wire sensor this means the sensor or its wiring is open')
       if (!hasSensor) faults.push('sensor_open')
     }
     else if (sig <= L.signalRailVolts) {
-      findings.push(`Signal reads ${fmtV(sig)}, under ${fmtV(L.signalRailVolts)}: on a two-wire sensor this means the sensor or signal wire is shorted to ground`)
+      findings.push(`Signal reads ${fmtV(sig)}, under ${fmtV(L.signalRailVolts)}: `
+        + 'on a two-wire sensor this means the sensor or signal wire is shorted to ground')
       if (!hasSensor) faults.push('sensor_shorted')
     }
     else findings.push(`Signal reads ${fmtV(sig)}, between the rails: circuit is live`)

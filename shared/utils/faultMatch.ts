@@ -83,7 +83,9 @@ export function parseCodePattern(pattern: string): CodePattern {
   if (m) {
     const prefix = m[1]!
     const star = m[2] === '*'
-    if (!star && prefix.length !== 5) throw new RangeError(`"${pattern}": a J2012 code has 5 characters; end a shorter one with * (like P20*)`)
+    if (!star && prefix.length !== 5) {
+      throw new RangeError(`"${pattern}": a J2012 code has 5 characters; end a shorter one with * (like P20*)`)
+    }
     return { form: 'j2012', prefix, exact: prefix.length === 5 }
   }
   throw new RangeError(`"${pattern}" is not a code pattern: ${EXAMPLES}`)

@@ -16,7 +16,8 @@ async function finishedCall(customerName: string, opts: CallOpts) {
   const { rows: [mech] } = await db.query(`SELECT id FROM users WHERE email = $1`, [DEMO.mech1])
   const id = randomUUID()
   // 45.498, -93.012 is the north yard; this point is about 10 km due south of it.
-  await db.query(`INSERT INTO calls (id, status, outcome, customer_id, location_text, lat, lon, complaint, mechanic_id, service_truck_id, completed_at)
+  await db.query(`INSERT INTO calls (id, status, outcome, customer_id, location_text, lat, lon, complaint, `
+    + `mechanic_id, service_truck_id, completed_at)
     VALUES ($1, 'completed', 'repaired', $2, 'Test location', 45.408, -93.012, 'Test complaint', $3, $4,
       now())`, [id, c.id, mech.id, truck.id])
   // Tuesday 2026-03-10 10:00 in Chicago (CDT, UTC−5): inside the seeded hours, 07:00–18:00 Monday to Friday.
@@ -24,7 +25,11 @@ async function finishedCall(customerName: string, opts: CallOpts) {
   await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', $2), ($1, 'work_stop', $3)`,
     [id, new Date(t0), new Date(t0 + opts.laborMin * 60_000)])
   for (const p of opts.parts ?? []) {
-    await db.query(`INSERT INTO part_lines (call_id, part_number, description, quantity, unit_price_cents, core_charge_cents) VALUES ($1, $2, 'Test part', $3, $4, $5)`, [id, p.pn, p.qty, p.price, p.core])
+    await db.query(
+      `INSERT INTO part_lines (call_id, part_number, description, quantity, unit_price_cents, core_charge_cents) `
+      + `VALUES ($1, $2, 'Test part', $3, $4, $5)`,
+      [id, p.pn, p.qty, p.price, p.core],
+    )
   }
   return id
 }

@@ -41,7 +41,9 @@ describe('a server killed mid-push', () => {
     const ops = [
       device.update('call', callId, { status: 'en_route' }, { status: 'assigned' }),
       ...Array.from({ length: 30 }, (_, i) => device.op('note', { callId, text: `Queued note ${i + 1}` })),
-      ...Array.from({ length: 10 }, (_, i) => device.op('reading', { callId, label: `Pin ${i}`, quantity: 'voltage', value: 12 + i / 10, unit: 'V' })),
+      ...Array.from({ length: 10 }, (_, i) => device.op('reading', {
+        callId, label: `Pin ${i}`, quantity: 'voltage', value: 12 + i / 10, unit: 'V',
+      })),
     ]
 
     // 1. Killed inside the transaction, before COMMIT: nothing of the push exists.
@@ -159,6 +161,8 @@ describe('many devices at once', () => {
     expect(await count('readings', 'call_id = $1', [callId])).toBe(20)
     // One status move however many devices reported it.
     expect(await count('call_events', 'call_id = $1 AND kind = \'status\' AND to_status = \'on_site\'', [callId])).toBe(1)
-    expect((await testPool().query('SELECT count(*)::int AS n FROM sync_clients WHERE id = ANY($1) AND last_seq = 8', [devices.map(d => d.clientId)])).rows[0].n).toBe(20)
+    expect((await testPool().query(
+      'SELECT count(*)::int AS n FROM sync_clients WHERE id = ANY($1) AND last_seq = 8', [devices.map(d => d.clientId)],
+    )).rows[0].n).toBe(20)
   })
 })

@@ -38,7 +38,9 @@ describe('push: malformed requests are refused whole', () => {
       start(c) { for (let i = 0; i < body.length; i += 65536) c.enqueue(new TextEncoder().encode(body.slice(i, i + 65536))); c.close() },
     })
     const res = await fetch(`${mech1.base}/api/sync/push`, {
-      method: 'POST', body: stream, duplex: 'half', headers: { 'content-type': 'application/json', 'x-wayside': '1', 'cookie': mech1.cookie },
+      method: 'POST', body: stream, duplex: 'half', headers: {
+        'content-type': 'application/json', 'x-wayside': '1', 'cookie': mech1.cookie,
+      },
     } as RequestInit)
     expect(res.status).toBe(413)
     await nothingApplied(d, ops.map(o => o.entityId))
@@ -92,9 +94,14 @@ describe('push: malformed requests are refused whole', () => {
     const d = new Device(mech1)
     const op = d.op('note', { callId, text: 'forged' })
     const json = JSON.stringify({ clientId: d.clientId, ops: [op] })
-    const noHeader = await mech1.request('POST', '/api/sync/push', { body: json, headers: { 'content-type': 'application/json' }, noWaysideHeader: true })
+    const noHeader = await mech1.request(
+      'POST', '/api/sync/push', { body: json, headers: { 'content-type': 'application/json' }, noWaysideHeader: true },
+    )
     expect(noHeader.status).toBe(403)
-    const form = await raw(new URLSearchParams({ clientId: d.clientId, ops: JSON.stringify([op]) }).toString(), { 'content-type': 'application/x-www-form-urlencoded' })
+    const form = await raw(
+      new URLSearchParams({ clientId: d.clientId, ops: JSON.stringify([op]) }).toString(),
+      { 'content-type': 'application/x-www-form-urlencoded' },
+    )
     expect(form.status).toBe(415)
     const text = await raw(json, { 'content-type': 'text/plain' })
     expect(text.status).toBe(415)

@@ -23,7 +23,9 @@ const put = (c: typeof mech1, id: string, bytes: Uint8Array, hash = sha256(bytes
 async function photoOp(bytes: Buffer, callId?: string) {
   const call = callId ?? await makeCall()
   const d = new Device(mech1)
-  const op = d.op('photo', { callId: call, sha256: sha256(bytes), contentType: 'image/jpeg', sizeBytes: bytes.length, caption: 'Chafed harness' })
+  const op = d.op('photo', {
+    callId: call, sha256: sha256(bytes), contentType: 'image/jpeg', sizeBytes: bytes.length, caption: 'Chafed harness',
+  })
   expect((await d.push([op])).body.results[0].status).toBe('applied')
   return op.entityId
 }

@@ -33,7 +33,9 @@ describe('pull: scope', () => {
     const callIds = idsOf(changes.calls)
     expect(callIds.has(mine)).toBe(true)
     expect(callIds.has(theirs)).toBe(false)
-    for (const key of ['faultCodes', 'readings', 'notes', 'photos', 'clockEvents', 'partLines', 'testRuns', 'signOffs', 'callEvents', 'conflicts']) {
+    for (const key of [
+      'faultCodes', 'readings', 'notes', 'photos', 'clockEvents', 'partLines', 'testRuns', 'signOffs', 'callEvents', 'conflicts',
+    ]) {
       for (const row of changes[key]) expect(callIds.has(row.callId), `${key} ${row.id}`).toBe(true)
     }
     expect(changes.units.map((u: any) => u.id)).toContain(IDS.unit)
@@ -41,7 +43,9 @@ describe('pull: scope', () => {
     expect(customer).toMatchObject({ name: 'Prairie Cold Haul' })
     for (const hidden of ['billingEmail', 'billingTerms', 'netDays', 'notes', 'taxExempt']) expect(customer).not.toHaveProperty(hidden)
     expect(changes.rates.length).toBeGreaterThan(0)
-    expect(changes.testCards.find((c: any) => c.id === cardId)).toMatchObject({ currentVersion: 1, version: 1, definition: { steps: expect.any(Array) } })
+    expect(changes.testCards.find((c: any) => c.id === cardId)).toMatchObject({
+      currentVersion: 1, version: 1, definition: { steps: expect.any(Array) },
+    })
     expect(r.body.lastSeq).toBe(1)
     expect(r.body.cursor).toMatch(/^\d+$/)
     expect(r.body.calls).toBeUndefined()

@@ -15,10 +15,14 @@ let mech2: Awaited<ReturnType<typeof signedIn>>
 let office: Awaited<ReturnType<typeof signedIn>>
 let dispatcher: Awaited<ReturnType<typeof signedIn>>
 beforeAll(async () => {
-  ;[mech1, mech2, office, dispatcher] = await Promise.all([signedIn(DEMO.mech1), signedIn(DEMO.mech2), signedIn(DEMO.office), signedIn(DEMO.dispatcher)])
+  ;[mech1, mech2, office, dispatcher] = await Promise.all([
+    signedIn(DEMO.mech1), signedIn(DEMO.mech2), signedIn(DEMO.office), signedIn(DEMO.dispatcher),
+  ])
 })
 
-const reading = (callId: string, value: unknown = 138.5) => ({ callId, label: 'Coolant sensor resistance', quantity: 'resistance', value, unit: 'ohm' })
+const reading = (callId: string, value: unknown = 138.5) => ({
+  callId, label: 'Coolant sensor resistance', quantity: 'resistance', value, unit: 'ohm',
+})
 const idList = (ops: TestOp[]) => ops.map(o => o.entityId)
 const countIds = (table: string, ops: TestOp[]) => count(table, 'id = ANY($1)', [idList(ops)])
 
@@ -31,7 +35,9 @@ function mixedBatch(d: Device, callId: string) {
     d.op('note', { callId, text: 'Parked on the shoulder, cones out, hazards on.' }),
     d.op('faultCode', { callId, code: 'P0118' }),
     d.op('faultCode', { callId, spn: 110, fmi: 3 }),
-    d.op('partLine', { callId, partNumber: 'TR-ECT-10K', description: 'Coolant temperature sensor, NTC type', quantity: 1, serviceTruckId: IDS.truck11 }),
+    d.op('partLine', {
+      callId, partNumber: 'TR-ECT-10K', description: 'Coolant temperature sensor, NTC type', quantity: 1, serviceTruckId: IDS.truck11,
+    }),
   ]
 }
 
@@ -44,17 +50,25 @@ describe('push: exactly once', () => {
     expect(first.status).toBe(200)
     expect(first.body.lastSeq).toBe(ops.length)
     expect(first.body.results.map((r: any) => r.status)).toEqual(ops.map(() => 'applied'))
-    const counts = { readings: await countIds('readings', ops), notes: await countIds('notes', ops), events: await count('call_events', 'call_id = $1', [callId]), ops: await count('sync_ops', 'client_id = $1', [d.clientId]) }
+    const counts = {
+      readings: await countIds('readings', ops), notes: await countIds('notes', ops),
+      events: await count('call_events', 'call_id = $1', [callId]), ops: await count('sync_ops', 'client_id = $1', [d.clientId]),
+    }
     expect(counts).toEqual({ readings: 5, notes: 1, events: 2, ops: ops.length })
     // Part price comes from the truck's stock when the device sent none (seed: TR-ECT-10K at 6275).
-    expect((await testPool().query('SELECT unit_price_cents FROM part_lines WHERE call_id = $1', [callId])).rows[0].unit_price_cents).toBe(6275)
+    expect((await testPool().query(
+      'SELECT unit_price_cents FROM part_lines WHERE call_id = $1', [callId],
+    )).rows[0].unit_price_cents).toBe(6275)
 
     const again = await d.push(ops)
     expect(again.status).toBe(200)
     expect(again.body.lastSeq).toBe(ops.length)
     expect(again.body.results.map((r: any) => r.status)).toEqual(ops.map(() => 'duplicate'))
     expect(again.body.results[0]).toMatchObject({ original: 'applied', version: 1 })
-    expect({ readings: await countIds('readings', ops), notes: await countIds('notes', ops), events: await count('call_events', 'call_id = $1', [callId]), ops: await count('sync_ops', 'client_id = $1', [d.clientId]) }).toEqual(counts)
+    expect({
+      readings: await countIds('readings', ops), notes: await countIds('notes', ops),
+      events: await count('call_events', 'call_id = $1', [callId]), ops: await count('sync_ops', 'client_id = $1', [d.clientId]),
+    }).toEqual(counts)
   })
 
   it('serializes the same batch sent twice at once: one applies, the other answers duplicates', async () => {
@@ -122,7 +136,9 @@ describe('push: one bad op', () => {
     expect(bad).toHaveLength(1)
     expect(bad[0]).toMatchObject({ seq: 237, status: 'rejected', reason: expect.stringMatching(/^value: /) })
     expect(await countIds('readings', ops)).toBe(499)
-    expect((await testPool().query('SELECT status, reason FROM sync_ops WHERE op_id = $1', [ops[236]!.opId])).rows[0]).toMatchObject({ status: 'rejected', reason: bad[0].reason })
+    expect((await testPool().query('SELECT status, reason FROM sync_ops WHERE op_id = $1', [ops[236]!.opId])).rows[0]).toMatchObject({
+      status: 'rejected', reason: bad[0].reason,
+    })
     // The stored rejection answers the resend, so the device keeps showing why.
     const again = await d.push([ops[236]!])
     expect(again.body.results[0]).toMatchObject({ status: 'duplicate', original: 'rejected', reason: bad[0].reason })
@@ -188,7 +204,10 @@ describe('push: creates only', () => {
     const cardId = await makeTestCard()
     const d = new Device(mech1)
     const run = d.op('testRun', { callId, cardId, cardVersion: 1, steps: [] })
-    const ops = [run, d.op('reading', { ...reading(callId), testRunId: run.entityId }), d.op('reading', { ...reading(callId, 1e6), testRunId: run.entityId, spec: { nominal: 138.5, tolerancePct: 5 } })]
+    const ops = [
+      run, d.op('reading', { ...reading(callId), testRunId: run.entityId }),
+      d.op('reading', { ...reading(callId, 1e6), testRunId: run.entityId, spec: { nominal: 138.5, tolerancePct: 5 } }),
+    ]
     const r = await d.push(ops)
     expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'applied'])
     const rows = (await testPool().query('SELECT verdict FROM readings WHERE test_run_id = $1 ORDER BY value', [run.entityId])).rows
@@ -245,7 +264,9 @@ describe('push: who may write what', () => {
     const callId = await makeCall({ mechanicId: IDS.mech2 })
     const d = new Device(dispatcher)
     const o = new Device(office)
-    expect((await d.push([d.update('call', callId, { poNumber: 'PO-77', derate: 'countdown' }, { poNumber: null, derate: 'none' })])).body.results[0].status).toBe('applied')
+    expect((await d.push([d.update(
+      'call', callId, { poNumber: 'PO-77', derate: 'countdown' }, { poNumber: null, derate: 'none' },
+    )])).body.results[0].status).toBe('applied')
     expect((await o.push([o.op('note', { callId, text: 'Customer called: driver has the keys.' })])).body.results[0].status).toBe('applied')
     const r = await o.push([o.update('call', callId, { poNumber: 'PO-78' }, { poNumber: 'PO-77' })])
     expect(r.body.results[0]).toMatchObject({ status: 'rejected', reason: expect.stringMatching(/^poNumber: /) })
@@ -259,7 +280,10 @@ describe('push: merging call fields', () => {
     // The office rewrites the cause while the phone is offline (as PATCH /api/calls/[id] would).
     await testPool().query('UPDATE calls SET story_cause = $2 WHERE id = $1', [callId, 'Office: sensor connector corroded'])
     const d = new Device(mech1)
-    const op = d.update('call', callId, { storyCause: 'Open circuit in the sensor, 2 MΩ', storyCorrection: 'Replaced sensor' }, { storyCause: 'Sensor suspected', storyCorrection: null })
+    const op = d.update(
+      'call', callId, { storyCause: 'Open circuit in the sensor, 2 MΩ', storyCorrection: 'Replaced sensor' },
+      { storyCause: 'Sensor suspected', storyCorrection: null },
+    )
     const r = await d.push([op])
     expect(r.body.results[0]).toMatchObject({ status: 'conflict', reason: expect.stringMatching(/^storyCause: changed on the server/) })
     const row = await callRow(callId)
@@ -284,14 +308,19 @@ describe('push: merging call fields', () => {
     expect(row.status).toBe('on_site')
     expect(row.on_site_at.getTime()).toBeGreaterThanOrEqual(before - 5000)
     expect(row.status_changed_at.getTime()).toBe(row.on_site_at.getTime())
-    expect(await count('call_events', 'call_id = $1 AND kind = \'status\' AND from_status = \'assigned\' AND to_status = \'on_site\' AND by_user_id = $2', [callId, IDS.mech1])).toBe(1)
+    expect(await count(
+      'call_events', 'call_id = $1 AND kind = \'status\' AND from_status = \'assigned\' AND to_status = \'on_site\' AND by_user_id = $2',
+      [callId, IDS.mech1],
+    )).toBe(1)
 
     const r2 = await d.push([d.update('call', callId, { status: 'en_route' }, { status: 'assigned' })])
     expect(r2.body.results[0]).toMatchObject({ status: 'applied', reason: expect.stringMatching(/^status: .*never moves a status back/) })
     expect((await callRow(callId)).status).toBe('on_site')
 
     const cancelled = await makeCall({ status: 'cancelled' })
-    const r3 = await d.push([d.update('call', cancelled, { status: 'completed', outcome: 'repaired' }, { status: 'on_site', outcome: null })])
+    const r3 = await d.push([d.update(
+      'call', cancelled, { status: 'completed', outcome: 'repaired' }, { status: 'on_site', outcome: null },
+    )])
     expect(r3.body.results[0]).toMatchObject({ status: 'conflict', reason: expect.stringMatching(/^status: the call was cancelled; outcome: /) })
     expect(await callRow(cancelled)).toMatchObject({ status: 'cancelled', outcome: null })
     expect(await count('conflicts', 'call_id = $1 AND field = \'outcome\'', [cancelled])).toBe(1)
@@ -301,13 +330,18 @@ describe('push: merging call fields', () => {
   it('completes a call with its outcome, and keeps an invoiced call closed to field changes', async () => {
     const callId = await makeCall({ status: 'on_site' })
     const d = new Device(mech1)
-    const r = await d.push([d.update('call', callId, { status: 'completed', outcome: 'repaired', storyCorrection: 'Replaced the sensor' }, { status: 'on_site', outcome: null, storyCorrection: null })])
+    const r = await d.push([d.update(
+      'call', callId, { status: 'completed', outcome: 'repaired', storyCorrection: 'Replaced the sensor' },
+      { status: 'on_site', outcome: null, storyCorrection: null },
+    )])
     expect(r.body.results[0].status).toBe('applied')
     expect((await callRow(callId))).toMatchObject({ status: 'completed', outcome: 'repaired' })
 
     const locked = await makeCall({ status: 'invoiced' })
     const r2 = await d.push([d.update('call', locked, { storyCause: 'late edit' }, { storyCause: null })])
-    expect(r2.body.results[0]).toMatchObject({ status: 'conflict', reason: 'storyCause: the call is invoiced and takes no more field changes' })
+    expect(r2.body.results[0]).toMatchObject({
+      status: 'conflict', reason: 'storyCause: the call is invoiced and takes no more field changes',
+    })
     expect((await callRow(locked)).story_cause).toBeNull()
   })
 })
@@ -323,7 +357,9 @@ describe('push: in-place updates, photos, sign-off, repeated creates, position',
     const ops = [
       fc, run, readingOnRun,
       d.update('faultCode', fc.entityId, { state: 'stored', clearedAt: '2026-03-01T11:00:00Z', note: 'Cleared after repair' }),
-      d.update('testRun', run.entityId, { steps: [{ id: 's1', result: 'pass' }], conclusion: 'Sensor good', finishedAt: '2026-03-01T11:05:00Z' }),
+      d.update(
+        'testRun', run.entityId, { steps: [{ id: 's1', result: 'pass' }], conclusion: 'Sensor good', finishedAt: '2026-03-01T11:05:00Z' },
+      ),
     ]
     const r = await d.push(ops)
     expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'applied', 'applied', 'applied'])
@@ -333,7 +369,9 @@ describe('push: in-place updates, photos, sign-off, repeated creates, position',
     const t = (await testPool().query('SELECT * FROM test_runs WHERE id = $1', [run.entityId])).rows[0]
     expect(t).toMatchObject({ conclusion: 'Sensor good', steps: [{ id: 's1', result: 'pass' }] })
     // The server judges the reading against its spec itself (138.5 within 100…200).
-    expect((await testPool().query('SELECT verdict, test_run_id FROM readings WHERE id = $1', [readingOnRun.entityId])).rows[0]).toEqual({ verdict: 'pass', test_run_id: run.entityId })
+    expect((await testPool().query('SELECT verdict, test_run_id FROM readings WHERE id = $1', [readingOnRun.entityId])).rows[0]).toEqual({
+      verdict: 'pass', test_run_id: run.entityId,
+    })
 
     const other = new Device(mech2)
     const r2 = await other.push([other.update('faultCode', fc.entityId, { state: 'active' })])
@@ -365,14 +403,19 @@ describe('push: in-place updates, photos, sign-off, repeated creates, position',
     // Dispatch ranks mechanics by this position: put the demo's back afterwards.
     const saved = (await testPool().query('SELECT last_lat, last_lon, last_position_at FROM users WHERE id = $1', [IDS.mech1])).rows[0]
     onTestFinished(async () => {
-      await testPool().query('UPDATE users SET last_lat = $2, last_lon = $3, last_position_at = $4 WHERE id = $1', [IDS.mech1, saved.last_lat, saved.last_lon, saved.last_position_at])
+      await testPool().query(
+        'UPDATE users SET last_lat = $2, last_lon = $3, last_position_at = $4 WHERE id = $1',
+        [IDS.mech1, saved.last_lat, saved.last_lon, saved.last_position_at],
+      )
     })
     const at = new Date(Date.now() - 500).toISOString()
     const r = await d.push(ops, { position: { lat: 45.3, lon: -93.2, at } })
     expect(r.body.results.map((x: any) => x.status)).toEqual(['applied', 'applied', 'rejected'])
     expect(r.body.results[2].reason).toMatch(/^callId: this call already has a sign-off/)
     const p = (await testPool().query('SELECT * FROM photos WHERE id = $1', [ops[0]!.entityId])).rows[0]
-    expect(p).toMatchObject({ sha256: 'a'.repeat(64), content_type: 'image/jpeg', size_bytes: 2048, storage_key: null, created_by: IDS.mech1 })
+    expect(p).toMatchObject({
+      sha256: 'a'.repeat(64), content_type: 'image/jpeg', size_bytes: 2048, storage_key: null, created_by: IDS.mech1,
+    })
     const u = (await testPool().query('SELECT last_lat, last_lon, last_position_at FROM users WHERE id = $1', [IDS.mech1])).rows[0]
     expect([u.last_lat, u.last_lon, u.last_position_at.toISOString()]).toEqual([45.3, -93.2, at])
 
@@ -405,7 +448,9 @@ describe('conflicts', () => {
 
     const r = await office.post(`/api/conflicts/${id}/resolve`, { choice: 'device' })
     expect(r.status).toBe(200)
-    expect(r.body.conflict).toMatchObject({ status: 'resolved', choice: 'device', resolvedBy: IDS.office, resolvedValue: 'Device: order the harness' })
+    expect(r.body.conflict).toMatchObject({
+      status: 'resolved', choice: 'device', resolvedBy: IDS.office, resolvedValue: 'Device: order the harness',
+    })
     expect((await callRow(callId)).follow_up).toBe('Device: order the harness')
     expect((await office.get(`/api/conflicts?callId=${callId}`)).body.items).toHaveLength(0)
     expect((await office.post(`/api/conflicts/${id}/resolve`, { choice: 'server' })).status).toBe(409)
@@ -421,7 +466,9 @@ describe('conflicts', () => {
     const r = await d.push([d.op('conflictResolution', { conflictId: id, choice: 'value', value: 'Return visit with the harness' })])
     expect(r.body.results[0].status).toBe('applied')
     expect((await callRow(callId)).follow_up).toBe('Return visit with the harness')
-    expect((await testPool().query('SELECT status, resolved_by FROM conflicts WHERE id = $1', [id])).rows[0]).toEqual({ status: 'resolved', resolved_by: IDS.mech1 })
+    expect((await testPool().query('SELECT status, resolved_by FROM conflicts WHERE id = $1', [id])).rows[0]).toEqual({
+      status: 'resolved', resolved_by: IDS.mech1,
+    })
   })
 
   it('will not settle a conflict on an invoiced call by changing the call', async () => {

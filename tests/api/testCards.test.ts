@@ -12,7 +12,10 @@ const definition = (title = 'Glow plug resistance') => ({
   cautions: ['Glow plugs get very hot: key off and let them cool.'],
   tools: ['Multimeter'],
   steps: [
-    { id: 'plug-ohms', title: 'Plug resistance', instruction: 'Unplug the lead and measure plug tip to ground.', measure: 'resistance', conditions: 'key_off', spec: { kind: 'range', min: 0.2, max: 2 }, next: { pass: 'plug-ok', fail: 'replace-plug' } },
+    {
+      id: 'plug-ohms', title: 'Plug resistance', instruction: 'Unplug the lead and measure plug tip to ground.', measure: 'resistance',
+      conditions: 'key_off', spec: { kind: 'range', min: 0.2, max: 2 }, next: { pass: 'plug-ok', fail: 'replace-plug' },
+    },
   ],
   conclusions: [{ id: 'plug-ok', text: 'Plug good', kind: 'ok' }, { id: 'replace-plug', text: 'Replace glow plug', kind: 'fault' }],
 })
@@ -235,7 +238,9 @@ describe('a stored definition that fails the card checks', () => {
   it('is kept from the mechanic’s library and marked for the admin', async () => {
     // A row written around the routes, as a script or an older format might leave it.
     const pool = testPool()
-    const card = (await pool.query('INSERT INTO test_cards (slug, title, component_type) VALUES ($1, \'Half-written card\', \'x\') RETURNING id', [uniqueSlug()])).rows[0]
+    const card = (await pool.query(
+      'INSERT INTO test_cards (slug, title, component_type) VALUES ($1, \'Half-written card\', \'x\') RETURNING id', [uniqueSlug()],
+    )).rows[0]
     await pool.query('INSERT INTO test_card_versions (card_id, card_version, definition) VALUES ($1, 1, \'{"steps": []}\')', [card.id])
     const mech = await signedIn(DEMO.mech1)
     expect((await mech.get('/api/test-cards')).body.items.some((x: any) => x.id === card.id)).toBe(false)

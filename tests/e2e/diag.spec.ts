@@ -26,7 +26,8 @@ const answer = async (page: Page, step: string, yes: 'Yes' | 'No', next: RegExp)
   await page.getByRole('button', { name: next }).click()
 }
 
-test('after the first sync, offline: the exhaust-temperature card runs to its conclusion, the sensor judged at the pipe’s temperature', async ({ browser }) => {
+test('after the first sync, offline: the exhaust-temperature card runs to its conclusion, '
+  + 'the sensor judged at the pipe’s temperature', async ({ browser }) => {
   test.setTimeout(180_000)
   const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
   const page = await ctx.newPage()
@@ -74,7 +75,8 @@ test('after the first sync, offline: the exhaust-temperature card runs to its co
   await shot(page, 'diag-runner-step-360')
   await page.getByLabel('Sensor resistance at the pipe’s temperature: reading', { exact: true }).fill('118')
   await page.getByRole('button', { name: 'Record reading' }).click()
-  await expect(page.getByTestId('verdict-why')).toHaveText('measured 118 Ω; a Pt200 at 12 °C should read 209.4 Ω (201.6–217.1 Ω for ± 10 °C); low')
+  await expect(page.getByTestId('verdict-why'))
+    .toHaveText('measured 118 Ω; a Pt200 at 12 °C should read 209.4 Ω (201.6–217.1 Ω for ± 10 °C); low')
   await shot(page, 'diag-runner-verdict-360')
   // A part that may still be warm is asked about before anything is replaced.
   await page.getByRole('button', { name: 'Next: Was the sensor at a steady temperature?' }).click()
@@ -99,18 +101,28 @@ test('after the first sync, offline: the exhaust-temperature card runs to its co
   const runs = () => testPool().query('SELECT count(*)::int AS n FROM test_runs WHERE call_id = $1', [CALL_5])
   await expect.poll(async () => (await runs()).rows[0].n, { timeout: 30_000 }).toBe(1)
   const run = (await testPool().query(
-    'SELECT id, card_id, card_version, ambient_c, conclusion, jsonb_array_length(steps) AS steps FROM test_runs WHERE call_id = $1', [CALL_5],
+    'SELECT id, card_id, card_version, ambient_c, conclusion, jsonb_array_length(steps) AS steps FROM test_runs WHERE call_id = $1',
+    [CALL_5],
   )).rows[0]
-  expect(run).toMatchObject({ card_id: EGT_CARD, card_version: 1, ambient_c: null, conclusion: 'Replace the exhaust temperature sensor', steps: 6 })
+  expect(run).toMatchObject({
+    card_id: EGT_CARD, card_version: 1, ambient_c: null, conclusion: 'Replace the exhaust temperature sensor', steps: 6,
+  })
   const readingsOf = () => testPool().query('SELECT count(*)::int AS n FROM readings WHERE test_run_id = $1', [run.id])
   await expect.poll(async () => (await readingsOf()).rows[0].n, { timeout: 30_000 }).toBe(2)
   const readings = (await testPool().query(
-    'SELECT label, value, unit, part_role, verdict, conditions, spec->>\'partTempC\' AS part_c FROM readings WHERE test_run_id = $1 ORDER BY part_role',
+    'SELECT label, value, unit, part_role, verdict, conditions, spec->>\'partTempC\' AS part_c '
+    + 'FROM readings WHERE test_run_id = $1 ORDER BY part_role',
     [run.id],
   )).rows
   expect(readings).toEqual([
-    { label: 'Sensor resistance at the pipe’s temperature', value: 118, unit: 'ohm', part_role: 'installed', verdict: 'low', conditions: 'key_off', part_c: '12' },
-    { label: 'New sensor beside the old one', value: 215.6, unit: 'ohm', part_role: 'new', verdict: 'pass', conditions: 'key_off', part_c: '20' },
+    {
+      label: 'Sensor resistance at the pipe’s temperature', value: 118, unit: 'ohm', part_role: 'installed', verdict: 'low',
+      conditions: 'key_off', part_c: '12',
+    },
+    {
+      label: 'New sensor beside the old one', value: 215.6, unit: 'ohm', part_role: 'new', verdict: 'pass', conditions: 'key_off',
+      part_c: '20',
+    },
   ])
   await page.goto(`/m/calls/${CALL_5}/test`)
   const saved = page.getByRole('region', { name: 'Saved on this call' })
@@ -185,7 +197,8 @@ test('the admin edits a card: mistakes are named beside the field, a good change
   const titles = [
     'Exhaust temperature sensor (platinum RTD) and circuit', 'After-treatment running hot (exhaust over temperature)',
     'Coolant temperature sensor (NTC thermistor) and circuit', 'Engine running hot (coolant over temperature)',
-    'DEF quality: concentration and contamination', '5 V sensor supply circuit', 'Air brakes: build-up, governor, leakage, warning and spring brakes',
+    'DEF quality: concentration and contamination', '5 V sensor supply circuit',
+    'Air brakes: build-up, governor, leakage, warning and spring brakes',
   ]
   for (const title of titles) await expect(page.getByRole('link', { name: title, exact: true })).toBeVisible()
   await page.getByLabel('Filter').fill('spn 3516')
@@ -238,7 +251,8 @@ test('the admin enters the maker’s table for the coolant sensor, and the card 
   await expect(page.getByRole('status').filter({ hasText: 'Saved as version 2' })).toBeVisible()
   await shot(page, 'diag-setup-card-1280')
   const { rows: [v] } = await testPool().query(
-    'SELECT v.definition FROM test_card_versions v JOIN test_cards c ON c.id = v.card_id WHERE c.slug = \'coolant-temp-ntc\' AND v.card_version = 2',
+    'SELECT v.definition FROM test_card_versions v JOIN test_cards c ON c.id = v.card_id '
+    + 'WHERE c.slug = \'coolant-temp-ntc\' AND v.card_version = 2',
   )
   const step = v.definition.steps.find((s: { id: string }) => s.id === 'ect-ohms')
   expect(step.spec).toMatchObject({ kind: 'ntc_table', toleranceC: 2 })

@@ -327,7 +327,8 @@ test('work sent for a billed call is named in words, and only keeping the billed
     `INSERT INTO conflicts (call_id, entity, entity_id, field, device_value, server_value, reason, raised_by)
      VALUES ($1, 'partLine', $2, 'callId', $3, 'null', $4, $5)`,
     [callId, randomUUID(), JSON.stringify(sent),
-      'callId: the call is invoiced; the part line is kept for the office to add to a credit note or a follow-up call', seedId('user:mech1')],
+      'callId: the call is invoiced; the part line is kept for the office to add to a credit note or a follow-up call',
+      seedId('user:mech1')],
   )
   await page.goto(`/calls/${callId}`)
   const region = page.getByRole('region', { name: /Changes to settle/ })

@@ -19,7 +19,10 @@ async function callIdByNumber(page: Page, label: RegExp) {
   return (await link.getAttribute('href'))!.split('/').pop()!
 }
 
-async function addReading(page: Page, r: { label: string, kind: string, unit: string, value: string, where: string, conditions: string, min?: string, max?: string }) {
+async function addReading(
+  page: Page,
+  r: { label: string, kind: string, unit: string, value: string, where: string, conditions: string, min?: string, max?: string },
+) {
   await page.getByLabel('What was measured').fill(r.label)
   await page.getByLabel('Kind').selectOption(r.kind)
   await page.getByLabel('Unit', { exact: true }).selectOption(r.unit)
@@ -91,10 +94,18 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
 
   // Three readings, one judged against a spec.
   await page.getByRole('button', { name: 'Add a reading' }).click()
-  await addReading(page, { label: 'DEF concentration', kind: 'concentration', unit: '%', value: '26,5', where: 'DEF tank', conditions: 'Engine stopped', min: '31.8', max: '33.2' })
+  await addReading(page, {
+    label: 'DEF concentration', kind: 'concentration', unit: '%', value: '26,5', where: 'DEF tank', conditions: 'Engine stopped',
+    min: '31.8', max: '33.2',
+  })
   await expect(page.getByRole('list', { name: 'Readings recorded' })).toContainText('Low')
-  await addReading(page, { label: 'Battery at rest', kind: 'voltage', unit: 'V', value: '12.6', where: 'Battery posts', conditions: 'Key on, engine off' })
-  await addReading(page, { label: 'DEF heater resistance', kind: 'resistance', unit: 'ohm', value: '7.9', where: 'Heater connector', conditions: 'Key off, connector unplugged' })
+  await addReading(page, {
+    label: 'Battery at rest', kind: 'voltage', unit: 'V', value: '12.6', where: 'Battery posts', conditions: 'Key on, engine off',
+  })
+  await addReading(page, {
+    label: 'DEF heater resistance', kind: 'resistance', unit: 'ohm', value: '7.9', where: 'Heater connector',
+    conditions: 'Key off, connector unplugged',
+  })
 
   // A note and two photos.
   await page.getByRole('button', { name: 'Write a note' }).click()
@@ -151,7 +162,10 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await expect(page.getByTestId('sync-chip')).toContainText('waiting')
   await shot(page, 'field-call-done-offline-360')
   // One picture per section too, at phone size, to look at.
-  for (const [name, heading] of [['header', 'call-title'], ['steps', 'steps-title'], ['scene', 'scene-title'], ['codes', 'codes-title'], ['readings', 'readings-title'], ['photos', 'photos-title'], ['parts', 'parts-title'], ['story', 'story-title'], ['verify', 'verify-title'], ['signoff', 'sign-title']]) {
+  for (const [name, heading] of [
+    ['header', 'call-title'], ['steps', 'steps-title'], ['scene', 'scene-title'], ['codes', 'codes-title'], ['readings', 'readings-title'],
+    ['photos', 'photos-title'], ['parts', 'parts-title'], ['story', 'story-title'], ['verify', 'verify-title'], ['signoff', 'sign-title'],
+  ]) {
     await page.locator(`section[aria-labelledby="${heading}"]`).screenshot({ path: `tests/e2e/screenshots/field-section-${name}.png` })
   }
   await page.evaluate(() => window.scrollTo(0, 0))
@@ -160,7 +174,10 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   // A reload with no signal loses nothing.
   await page.reload()
   await expect(page.getByRole('heading', { level: 1, name: 'Call #3' })).toBeVisible()
-  for (const text of ['SPN 110 FMI 0', 'DEF concentration', 'Battery at rest', 'DEF heater resistance', 'Drained the diluted DEF', 'TR-DEF-10', 'K. Okafor', 'Work done: Repaired at the roadside']) {
+  for (const text of [
+    'SPN 110 FMI 0', 'DEF concentration', 'Battery at rest', 'DEF heater resistance', 'Drained the diluted DEF', 'TR-DEF-10', 'K. Okafor',
+    'Work done: Repaired at the roadside',
+  ]) {
     await expect(page.getByText(text).first()).toBeVisible()
   }
   await expect(page.getByLabel(/^Cause/)).toHaveValue('DEF diluted to 26.5 % by refractometer.')
@@ -174,7 +191,8 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   await shot(page, 'field-call-synced-360')
 
   // Every item is on the server, once.
-  const added = async (t: (typeof TABLES)[number], extra = 'true') => (await count(t, `call_id = $1 AND ${extra}`, [callId])) - (extra === 'true' ? before[t]! : 0)
+  const added = async (t: (typeof TABLES)[number], extra = 'true') =>
+    (await count(t, `call_id = $1 AND ${extra}`, [callId])) - (extra === 'true' ? before[t]! : 0)
   expect(await added('fault_codes')).toBe(1)
   expect(await added('readings')).toBe(3)
   expect(await added('notes')).toBe(1)
@@ -182,15 +200,24 @@ test('a whole call worked offline reaches the office after sync', async ({ brows
   expect(await added('photos', `storage_key IS NOT NULL AND created_at >= '${started.toISOString()}'`)).toBe(2)
   expect(await added('part_lines')).toBe(1)
   expect(await added('sign_offs')).toBe(1)
-  const clock = await testPool().query('SELECT kind FROM clock_events WHERE call_id = $1 AND created_at >= $2 ORDER BY device_at', [callId, started])
+  const clock = await testPool().query(
+    'SELECT kind FROM clock_events WHERE call_id = $1 AND created_at >= $2 ORDER BY device_at', [callId, started],
+  )
   expect(clock.rows.map(r => r.kind)).toEqual(['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'])
-  const part = (await testPool().query('SELECT part_number, quantity, unit_price_cents, service_truck_id FROM part_lines WHERE call_id = $1 AND created_at >= $2', [callId, started])).rows
+  const part = (await testPool().query(
+    'SELECT part_number, quantity, unit_price_cents, service_truck_id FROM part_lines WHERE call_id = $1 AND created_at >= $2',
+    [callId, started],
+  )).rows
   expect(part).toEqual([{ part_number: 'TR-DEF-10', quantity: 3, unit_price_cents: 2400, service_truck_id: expect.any(String) }])
-  const call = (await testPool().query('SELECT status, outcome, story_cause, verification, scene_checklist FROM calls WHERE id = $1', [callId])).rows[0]
+  const call = (await testPool().query(
+    'SELECT status, outcome, story_cause, verification, scene_checklist FROM calls WHERE id = $1', [callId],
+  )).rows[0]
   expect(call).toMatchObject({ status: 'completed', outcome: 'repaired', story_cause: 'DEF diluted to 26.5 % by refractometer.' })
   expect(call.verification).toMatchObject({ codesCleared: true, lampsOff: true, testDriveKm: 8, passed: true })
   expect(call.scene_checklist).toMatchObject({ hazard_lamps: true, high_visibility: true })
-  const reading = (await testPool().query('SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = \'DEF concentration\'', [callId])).rows[0]
+  const reading = (await testPool().query(
+    'SELECT value, unit, verdict FROM readings WHERE call_id = $1 AND label = \'DEF concentration\'', [callId],
+  )).rows[0]
   expect(reading).toEqual({ value: 26.5, unit: '%', verdict: 'low' })
 
   // The office finds every item on its call page, and the photos' bytes are the phone's.
@@ -260,7 +287,13 @@ test('two tabs with work waiting come online together: one syncs at a time, no d
   const spans: { tab: string, url: string, start: number, end: number }[] = []
   for (const [tab, p] of [['a', a], ['b', b]] as const) {
     const open = new Map<object, { tab: string, url: string, start: number, end: number }>()
-    p.on('request', (r) => { if (r.url().includes('/api/sync/')) { const s = { tab, url: r.url(), start: Date.now(), end: 0 }; open.set(r, s); spans.push(s) } })
+    p.on('request', (r) => {
+      if (r.url().includes('/api/sync/')) {
+        const s = { tab, url: r.url(), start: Date.now(), end: 0 }
+        open.set(r, s)
+        spans.push(s)
+      }
+    })
     p.on('requestfinished', (r) => { const s = open.get(r); if (s) s.end = Date.now() })
     p.on('requestfailed', (r) => { const s = open.get(r); if (s) s.end = Date.now() })
   }
@@ -356,15 +389,21 @@ test('a field changed on two phones from the same start is settled on the phone'
   await conflict.getByLabel('Or type the right value').fill('Thermostat stuck open; sensor reads true')
   await conflict.getByRole('button', { name: 'Keep what I typed' }).click()
   await expect(b.getByRole('article', { name: 'Conflict on Cause' })).toHaveCount(0, { timeout: 30_000 })
-  await expect.poll(async () => (await testPool().query('SELECT story_cause FROM calls WHERE id = $1', [callId])).rows[0].story_cause, { timeout: 30_000 })
+  await expect.poll(
+    async () => (await testPool().query('SELECT story_cause FROM calls WHERE id = $1', [callId])).rows[0].story_cause, { timeout: 30_000 },
+  )
     .toBe('Thermostat stuck open; sensor reads true')
-  expect(await count('conflicts', 'call_id = $1 AND field = \'storyCause\' AND status = \'resolved\' AND choice = \'value\'', [callId])).toBe(1)
+  expect(await count(
+    'conflicts', 'call_id = $1 AND field = \'storyCause\' AND status = \'resolved\' AND choice = \'value\'', [callId],
+  )).toBe(1)
   await expect(b.getByLabel(/^Cause/)).toHaveValue('Thermostat stuck open; sensor reads true')
   await Promise.all(phones.map(p => p.close()))
 })
 
 test('with consent, the last known position goes with the next sync; the question is asked once', async ({ browser }) => {
-  const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true, geolocation: { latitude: 45.4123, longitude: -93.2345 }, permissions: ['geolocation'] })
+  const ctx = await browser.newContext({
+    viewport: PHONE, isMobile: true, hasTouch: true, geolocation: { latitude: 45.4123, longitude: -93.2345 }, permissions: ['geolocation'],
+  })
   const page = await ctx.newPage()
   await signIn(page, 'mech2@wayside.test')
   const ask = page.getByRole('dialog', { name: /Share where you are/ })
@@ -372,7 +411,10 @@ test('with consent, the last known position goes with the next sync; the questio
   await ask.getByRole('button', { name: 'Yes, share it when syncing' }).click()
   await expect(ask).toHaveCount(0)
   await page.getByRole('button', { name: 'Sync now' }).click()
-  await expect.poll(async () => (await testPool().query('SELECT last_lat, last_lon FROM users WHERE email = \'mech2@wayside.test\'')).rows[0], { timeout: 30_000 })
+  await expect.poll(
+    async () => (await testPool().query('SELECT last_lat, last_lon FROM users WHERE email = \'mech2@wayside.test\'')).rows[0],
+    { timeout: 30_000 },
+  )
     .toEqual({ last_lat: 45.4123, last_lon: -93.2345 })
   await page.reload()
   await expect(page.getByRole('heading', { level: 1, name: 'My calls' })).toBeVisible()

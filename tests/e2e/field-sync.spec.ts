@@ -69,7 +69,8 @@ test('the chip leads to what waits to be settled, and on which call', async ({ b
   // The office changed the cause while this phone had changed it too.
   const { rows: [conflict] } = await testPool().query(
     `INSERT INTO conflicts (call_id, entity, entity_id, field, base_value, device_value, server_value, reason)
-     VALUES ($1, 'call', $1, 'storyCause', 'null', '"Sensor open"', '"Harness chafed"', 'Changed on the phone and in the office') RETURNING id`,
+     VALUES ($1, 'call', $1, 'storyCause', 'null', '"Sensor open"', '"Harness chafed"', `
+    + `'Changed on the phone and in the office') RETURNING id`,
     [CALL_5],
   )
   try {

@@ -26,12 +26,18 @@ export async function reloadApp() {
 }
 
 export function pullAnswer(over: Partial<PullAnswer['changes']> = {}, extra: Partial<PullAnswer> = {}): PullAnswer {
-  const empty = { calls: [], units: [], customers: [], faultCodes: [], readings: [], notes: [], photos: [], clockEvents: [], partLines: [], testRuns: [], signOffs: [], callEvents: [], conflicts: [] }
+  const empty = {
+    calls: [], units: [], customers: [], faultCodes: [], readings: [], notes: [], photos: [], clockEvents: [], partLines: [], testRuns: [],
+    signOffs: [], callEvents: [], conflicts: [],
+  }
   return { cursor: 'c1', lastSeq: 0, changes: { ...empty, ...over }, conflicts: [], revokedCallIds: [], ...extra }
 }
 
 export function demoCall(over: Record<string, unknown> = {}) {
-  return { id: CALL_ID, number: 41, status: 'assigned', customerId: CUSTOMER_ID, unitId: UNIT_ID, locationText: 'Route 8 shoulder', complaint: 'Derated', version: 3, storyCause: null, ...over }
+  return {
+    id: CALL_ID, number: 41, status: 'assigned', customerId: CUSTOMER_ID, unitId: UNIT_ID, locationText: 'Route 8 shoulder',
+    complaint: 'Derated', version: 3, storyCause: null, ...over,
+  }
 }
 
 export async function seedCall(over: Record<string, unknown> = {}) {

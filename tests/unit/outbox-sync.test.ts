@@ -27,7 +27,9 @@ describe('sync pass', () => {
 
   it('treats a captive portal 200 as failure and keeps every op', async () => {
     await note('kept')
-    server.script = url => (url === '/api/sync/push' ? new Response('<html><body>Accept the Wi-Fi terms</body></html>', { status: 200, headers: { 'content-type': 'text/html' } }) : undefined)
+    server.script = url => (url === '/api/sync/push'
+      ? new Response('<html><body>Accept the Wi-Fi terms</body></html>', { status: 200, headers: { 'content-type': 'text/html' } })
+      : undefined)
     const sync = useSyncStore()
     const r = await sync.runOnce({ fetch: server.fetch })
     expect(r).toMatchObject({ ok: false, kind: 'invalid' })
@@ -64,7 +66,9 @@ describe('sync pass', () => {
   })
 
   it(`sends at most ${PUSH_BATCH} ops a batch, in seq order`, async () => {
-    const changes = Array.from({ length: 1200 }, (_, i) => ({ entity: 'note' as const, entityId: crypto.randomUUID(), action: 'create' as const, changes: { callId: CALL_ID, text: `n${i}` } }))
+    const changes = Array.from({ length: 1200 }, (_, i) => ({
+      entity: 'note' as const, entityId: crypto.randomUUID(), action: 'create' as const, changes: { callId: CALL_ID, text: `n${i}` },
+    }))
     await commitChanges(CALL_ID, changes)
     const r = await useSyncStore().runOnce({ fetch: server.fetch })
     expect(r.ok).toBe(true)
@@ -134,7 +138,9 @@ describe('sync pass', () => {
     await useSyncStore().runOnce({ fetch: server.fetch })
     await note('b')
     await useSyncStore().runOnce({ fetch: server.fetch, position: { lat: 45.4, lon: -93.2, at: '2026-05-01T10:00:00.000Z' } })
-    expect(server.requests.filter(q => q.url === '/api/sync/push').map(q => q.position)).toEqual([undefined, { lat: 45.4, lon: -93.2, at: '2026-05-01T10:00:00.000Z' }])
+    expect(server.requests.filter(q => q.url === '/api/sync/push').map(q => q.position)).toEqual([
+      undefined, { lat: 45.4, lon: -93.2, at: '2026-05-01T10:00:00.000Z' },
+    ])
   })
 })
 
@@ -170,9 +176,14 @@ describe('conflicts', () => {
       const [op] = JSON.parse(String(init.body)).ops
       if (!op) return json(200, { lastSeq: server.lastSeq, results: [] })
       server.lastSeq = op.seq
-      return json(200, { lastSeq: op.seq, results: [{ opId: op.opId, seq: op.seq, status: 'conflict', reason: 'storyCause: changed in the office too' }] })
+      return json(200, {
+        lastSeq: op.seq, results: [{ opId: op.opId, seq: op.seq, status: 'conflict', reason: 'storyCause: changed in the office too' }],
+      })
     }
-    const conflict = { id: '44444444-4444-4444-8444-444444444444', callId: CALL_ID, entity: 'call', entityId: CALL_ID, field: 'storyCause', baseValue: null, deviceValue: 'Phone text', serverValue: 'Office text', status: 'open', reason: 'Changed in both places' }
+    const conflict = {
+      id: '44444444-4444-4444-8444-444444444444', callId: CALL_ID, entity: 'call', entityId: CALL_ID, field: 'storyCause', baseValue: null,
+      deviceValue: 'Phone text', serverValue: 'Office text', status: 'open', reason: 'Changed in both places',
+    }
     server.pullChanges = { conflicts: [conflict] }
     server.conflicts = [conflict]
     await useSyncStore().runOnce({ fetch: server.fetch })
@@ -183,7 +194,10 @@ describe('conflicts', () => {
 
     await field.resolveConflict(CALL_ID, conflict.id, 'value', 'Both, merged')
     const [op] = await readOutbox()
-    expect(op).toMatchObject({ entity: 'conflictResolution', entityId: conflict.id, action: 'create', changes: { conflictId: conflict.id, choice: 'value', value: 'Both, merged' } })
+    expect(op).toMatchObject({
+      entity: 'conflictResolution', entityId: conflict.id, action: 'create',
+      changes: { conflictId: conflict.id, choice: 'value', value: 'Both, merged' },
+    })
     view = await field.loadCall(CALL_ID)
     expect(view?.conflicts[0]?.pendingChoice).toBe('value')
   })

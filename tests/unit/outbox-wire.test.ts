@@ -3,7 +3,9 @@ import { expectedSeqOf, parseAnswer, pullAnswerSchema, pushResultSchema } from '
 
 describe('push result validator', () => {
   it('accepts a push answer of the protocol', () => {
-    const ok = parseAnswer(pushResultSchema, JSON.stringify({ lastSeq: 3, results: [{ opId: 'a', seq: 3, status: 'applied', version: 2 }] }))
+    const ok = parseAnswer(
+      pushResultSchema, JSON.stringify({ lastSeq: 3, results: [{ opId: 'a', seq: 3, status: 'applied', version: 2 }] }),
+    )
     expect(ok?.results[0]?.status).toBe('applied')
   })
 
@@ -21,7 +23,9 @@ describe('push result validator', () => {
 
   it('refuses a portal page in place of a pull answer too', () => {
     expect(parseAnswer(pullAnswerSchema, '<html>Welcome to Truck Stop Wi-Fi</html>')).toBeUndefined()
-    const ok = parseAnswer(pullAnswerSchema, JSON.stringify({ cursor: '9', lastSeq: 0, changes: { calls: [{ id: 'x' }] }, conflicts: [], revokedCallIds: [] }))
+    const ok = parseAnswer(
+      pullAnswerSchema, JSON.stringify({ cursor: '9', lastSeq: 0, changes: { calls: [{ id: 'x' }] }, conflicts: [], revokedCallIds: [] }),
+    )
     expect(ok?.changes.calls).toHaveLength(1)
     expect(ok?.changes.readings).toEqual([])
   })
