@@ -19,8 +19,8 @@ const VIN_MATRIX = withCheckDigit('1WYSD4KT0SF230517')
 
 /** A barcode on a white 640×480 label, as the JPEG frames of an MJPEG fake camera. */
 async function fakeCameraFile(browser: Browser, name: string, bcid: string, text: string) {
-  const svg = bwipjs.toSVG({ bcid, text, scale: 3, height: bcid === 'datamatrix' ? undefined : 18, includetext: bcid !== 'datamatrix',
-    textxalign: 'center', paddingwidth: 6, paddingheight: 6, backgroundcolor: 'FFFFFF' })
+  const bars = bcid === 'datamatrix' ? {} : { height: 18, includetext: true, textxalign: 'center' as const }
+  const svg = bwipjs.toSVG({ bcid, text, scale: 3, ...bars, paddingwidth: 6, paddingheight: 6, backgroundcolor: 'FFFFFF' })
   const page = await browser.newPage({ viewport: { width: 640, height: 480 } })
   await page.setContent(`<body style="margin:0;width:640px;height:480px;display:flex;align-items:center;justify-content:center;
     background:#fff"><div style="width:${bcid === 'datamatrix' ? 260 : 600}px">${svg.replace('<svg ', '<svg width="100%" ')}</div></body>`)
