@@ -84,7 +84,8 @@ const MECHANIC: Visit[] = [
   { path: '/m/settings' },
 ]
 
-const slug = (v: Visit) => v.name ?? (v.path.replace(/^\//, '').replace(/[^\w]+/g, '-').replace(/-[0-9a-f]{8}-[\w-]+/g, '-id') || 'home')
+const UUID = /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/g
+const slug = (v: Visit) => v.name ?? (v.path.replace(UUID, m => m.slice(0, 4)).replace(/^\//, '').replace(/[^\w]+/g, '-') || 'home')
 
 async function check(page: Page, where: string, findings: Finding[]) {
   const result = await new AxeBuilder({ page })
