@@ -61,3 +61,19 @@ export function validateVin(vin: string): { ok: true } | { ok: false, reason: st
   const p = vinProblem(vin)
   return p ? { ok: false, reason: p.reason } : { ok: true }
 }
+
+/**
+ * The VIN in what a barcode held, or null when it holds none. Door-jamb and windshield labels
+ * carry it in Code 39 or Data Matrix, alone, after a label word ("VIN:") or, on some imported
+ * vehicles' Code 39, after a leading "I" (from memory); spaces and dashes between groups are dropped.
+ */
+export function vinFromScan(text: string): string | null {
+  const runs = text.toUpperCase().replace(/[\s-]/g, '').match(/[A-Z0-9]+/g) ?? []
+  for (const run of runs) {
+    if (run.length === 17) return run
+    if (run.length === 18 && run.startsWith('I')) return run.slice(1)
+    // A label word run together with the VIN ("VIN1WSTR…"): the VIN is the last 17 characters.
+    if (run.length > 17 && /^VIN/.test(run) && run.length === 20) return run.slice(3)
+  }
+  return null
+}

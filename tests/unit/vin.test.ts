@@ -1,30 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import { validateVin, vinCheckDigit, vinProblem } from '../../shared/utils/vin'
-
-// Second, independent check-digit implementation (49 CFR 565): letters valued by their place in
-// the alphabet in three runs (A–I = 1–9, J–R = 1–9, S–Z = 2–9), weights from the position formula.
-// Deliberately no lookup tables, so a typo in the module's tables cannot be copied here.
-function refValue(ch: string): number {
-  const x = ch.charCodeAt(0)
-  if (x >= 48 && x <= 57) return x - 48
-  const i = x - 65
-  if (i < 9) return i + 1
-  if (i < 18) return i - 8
-  return i - 16
-}
-function refWeight(pos: number): number {
-  if (pos <= 7) return 9 - pos
-  if (pos === 8) return 10
-  if (pos === 9) return 0
-  return 19 - pos
-}
-function refCheckDigit(vin: string): string {
-  let sum = 0
-  for (let p = 1; p <= 17; p++) sum += refValue(vin.charAt(p - 1)) * refWeight(p)
-  const r = sum % 11
-  return r === 10 ? 'X' : String(r)
-}
+import { validateVin, vinCheckDigit, vinFromScan, vinProblem } from '../../shared/utils/vin'
+import { refCheckDigit, refValue } from '../support/vinReference'
 
 // Reference VINs built for these tests (invented, not real vehicles); check digit by refCheckDigit.
 const OUR_VINS = [
@@ -153,5 +130,22 @@ describe('what the check digit can and cannot catch', () => {
     // 49 CFR 565: remainder 10 is written X; position 9 carries weight 0
     expect(vinCheckDigit('1M8GDM9A0KP042788')).toBe('X')
     expect(vinCheckDigit('1M8GDM9A7KP042788')).toBe('X')
+  })
+})
+
+describe('vinFromScan', () => {
+  // What door-jamb and windshield labels hold (49 CFR 565: 17 characters); invented VINs from OUR_VINS.
+  it.each([
+    ['1WSTR42HXRA100001', '1WSTR42HXRA100001'],
+    ['  1wstr42hxra100001\n', '1WSTR42HXRA100001'],
+    ['I1WSTR42HXRA100001', '1WSTR42HXRA100001'], // leading import "I" on a Code 39 label (from memory)
+    ['VIN: 2WYDE5JK2SB204517', '2WYDE5JK2SB204517'],
+    ['VIN2WYDE5JK2SB204517', '2WYDE5JK2SB204517'],
+    ['3WXCN8-LM3TC-300288', '3WXCN8LM3TC300288'],
+  ])('%j holds %s', (text, vin) => {
+    expect(vinFromScan(text)).toBe(vin)
+  })
+  it.each(['4WAYS1DE5VD41993', 'PN 4471-220-19', '', 'A'.repeat(30)])('%j holds no VIN', (text) => {
+    expect(vinFromScan(text)).toBeNull()
   })
 })
