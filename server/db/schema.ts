@@ -317,7 +317,7 @@ export const calls = pgTable('calls', {
   check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),
   check('calls_after_decline',
     sql`${t.afterDecline} IS NULL OR ${t.afterDecline} IN (${sql.raw(DECLINE_CHOICES.map(c => `'${c}'`).join(', '))})`),
-    check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN (${sql.raw(sqlStatusList(DONE_STATUSES))})`),
+  check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN (${sql.raw(sqlStatusList(DONE_STATUSES))})`),
 ])
 
 /** Every status move, for the timeline; append-only. */
