@@ -39,6 +39,12 @@ function decodeCursor(cursor: string): [string | number, number] {
   throw badCursor()
 }
 
+/** A time in the cursor: PostgreSQL's microseconds kept whole (a JS Date would cut them to milliseconds and repeat calls). */
+const ISO_MICROS = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d{1,6})?Z$/
+const sortKey = (sort: (typeof SORTS)[keyof typeof SORTS]) => (sort.cast === 'timestamptz'
+  ? sql<string>`to_char(${sort.col()} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`
+  : sort.col())
+
 /** The calls after the cursor's call in the list's order: one range of the sort key's index, however deep. */
 function afterCursor(q: Query, cursor: string): SQL {
   const { calls } = tables
@@ -46,7 +52,7 @@ function afterCursor(q: Query, cursor: string): SQL {
   const sort = SORTS[q.sort ?? 'receivedAt']
   const cmp = sql.raw(q.dir === 'asc' ? '>' : '<')
   if (q.sort === 'number') return sql`${calls.number} ${cmp} ${number}`
-  if (sort.cast === 'timestamptz' && Number.isNaN(Date.parse(String(value)))) throw badCursor()
+  if (sort.cast === 'timestamptz' && !ISO_MICROS.test(String(value))) throw badCursor()
   if (sort.cast === 'call_status' && !(CALL_STATUSES as readonly unknown[]).includes(value)) throw badCursor()
   return sql`(${sort.col()}, ${calls.number}) ${cmp} (${String(value)}::${sql.raw(sort.cast)}, ${number})`
 }
@@ -70,7 +76,7 @@ export async function callListQueries(db: Db, user: Pick<User, 'id' | 'role'>, q
   const sortCol = SORTS[q.sort ?? 'receivedAt'].col()
   const dir = q.dir === 'asc' ? asc : desc
   // A deep page by offset walks only the sort key's index; a cursor jumps straight to its place.
-  const ids = db.select({ id: calls.id, key: sortCol, number: calls.number }).from(calls)
+  const ids = db.select({ id: calls.id, key: sortKey(SORTS[q.sort ?? 'receivedAt']), number: calls.number }).from(calls)
     .where(and(cond, q.after ? afterCursor(q, q.after) : undefined))
     .orderBy(dir(sortCol), dir(calls.number))
     .limit(q.pageSize + 1).offset(q.after ? 0 : (q.page - 1) * q.pageSize)

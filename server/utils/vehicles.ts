@@ -45,14 +45,17 @@ export const UNIT_HISTORY_PAGE = 20
 const DAY_MS = 86_400_000
 
 /** The unit history's cursor: when the last call shown was received, and its number. */
-function historyCursor(c: { receivedAt: Date, number: number }) {
-  return Buffer.from(JSON.stringify([c.receivedAt.toISOString(), c.number])).toString('base64url')
+function historyCursor(c: { receivedKey: string, number: number }) {
+  return Buffer.from(JSON.stringify([c.receivedKey, c.number])).toString('base64url')
 }
+
+/** PostgreSQL's microseconds kept whole: a JS Date would cut them to milliseconds and skip calls received together. */
+const ISO_MICROS = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d{1,6})?Z$/
 
 function readHistoryCursor(cursor: string): [string, number] {
   try {
     const v = JSON.parse(Buffer.from(cursor, 'base64url').toString('utf8')) as unknown
-    if (Array.isArray(v) && typeof v[0] === 'string' && !Number.isNaN(Date.parse(v[0])) && Number.isInteger(v[1])) return [v[0], v[1]]
+    if (Array.isArray(v) && typeof v[0] === 'string' && ISO_MICROS.test(v[0]) && Number.isInteger(v[1])) return [v[0], v[1]]
   }
   catch { /* answered below */ }
   throw createError({
@@ -69,6 +72,9 @@ export function unitHistoryQuery(db: Db, unitId: string, mechanicId: string | un
       cursor ? sql`(${calls.receivedAt}, ${calls.number}) < (${cursor[0]}::timestamptz, ${cursor[1]})` : undefined),
     orderBy: [desc(calls.receivedAt), desc(calls.number)],
     limit: UNIT_HISTORY_PAGE + 1,
+    extras: {
+      receivedKey: sql<string>`to_char(${calls.receivedAt} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`.as('received_key'),
+    },
     with: {
       faultCodes: { orderBy: [asc(tables.faultCodes.createdAt)] },
       partLines: { orderBy: [asc(tables.partLines.createdAt)] },
