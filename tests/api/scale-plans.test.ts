@@ -100,7 +100,7 @@ describe('on a long history, lists and reports stay on indexes', () => {
     }
     const first = await callListQueries(db, office, list({}))
     const [last] = (await first.ids).slice(-1)
-    const cursor = Buffer.from(JSON.stringify([last!.key.toISOString(), last!.number])).toString('base64url')
+    const cursor = Buffer.from(JSON.stringify([last!.key, last!.number])).toString('base64url')
     const after = await callListQueries(db, office, list({ after: cursor }))
     expect(await seqScans(after.ids.toSQL()), 'after a cursor').toEqual([])
   })
