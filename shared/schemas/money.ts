@@ -20,6 +20,7 @@ export function centsSchema(label: string, { max = 100_000_000, positive = false
   const tooLarge = `${label} is too large (at most ${dollars(max)})`
   return z.number({ message: `${label} must be ${kind}` })
     .max(max, { message: tooLarge, abort: true })
-    .min(positive ? 1 : 0, { message: positive ? `${label} must be more than zero` : `${label} cannot be negative`, abort: true })
+    // Not aborting here: a form's own cross-field rules (a customer picked) must still speak beside it.
+    .min(positive ? 1 : 0, { message: positive ? `${label} must be more than zero` : `${label} cannot be negative` })
     .int(`${label} must be whole cents`)
 }
