@@ -252,7 +252,7 @@ test('a customer and a unit are added through their forms, the VIN checked on th
 
   await page.getByRole('button', { name: 'Add unit' }).click()
   await page.getByLabel('Unit number').fill('MG-1')
-  await page.getByLabel('VIN').fill('1M8GDM9A5KP042788')
+  await page.getByLabel('VIN', { exact: true }).fill('1M8GDM9A5KP042788')
   await page.getByRole('button', { name: 'Add unit', exact: true }).last().click()
   await expect(page.getByText('Read the VIN again, or say why it is right as it is.')).toBeVisible()
   await page.getByLabel('Keep this VIN because').fill('Stamped so on the frame rail')
