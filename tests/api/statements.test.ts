@@ -128,8 +128,10 @@ describe('sending the statement', () => {
     expect(got[0]!.text).toContain('$320.00 in all, $70.00 of it past due')
     expect(got[0]!.attachments.map(a => [a.contentType, a.filename.startsWith('statement-evora-frete-s-n-haulage-')]))
       .toEqual([['application/pdf', true]])
-    const log = await testPool().query(`SELECT kind, status, related_type FROM mail_log WHERE related_id = $1`, [customerId])
-    expect(log.rows).toEqual([{ kind: 'statement', status: 'sent', related_type: 'customer' }])
+    // The catcher has the message a moment before the job writes down that it went.
+    const logged = async () => (await testPool().query(
+      `SELECT kind, status, related_type FROM mail_log WHERE related_id = $1`, [customerId])).rows
+    await expect.poll(logged, { timeout: 10_000 }).toEqual([{ kind: 'statement', status: 'sent', related_type: 'customer' }])
   })
 
   it('sends to another address when given one, and names the field when there is none (422) or it is bad (400)', async () => {
