@@ -35,12 +35,12 @@ async function partFactor() {
   return (1 + r.parts_markup_pct / 100) * (r.parts_taxable ? 1 + r.tax_rate_basis_points / 10_000 : 1)
 }
 
-async function addPart(page: Page, number: string, dollars: string) {
+async function addPart(page: Page, number: string, dollars: string, description: string) {
   const parts = page.locator('section[aria-labelledby="parts-title"]')
   const fold = parts.getByRole('button', { name: 'Add a part' })
   if (await fold.isVisible()) await fold.click()
   await parts.getByLabel('Part number').fill(number)
-  await parts.getByLabel('Description').fill('Radiator assembly')
+  await parts.getByLabel('Description').fill(description)
   await parts.getByLabel('Quantity').fill('1')
   await parts.getByLabel('Unit price').fill(dollars)
   await parts.getByRole('button', { name: 'Add part' }).click()
@@ -64,12 +64,12 @@ test('past 80 % and 100 % offline, ask, the fleet approves, new limit on the pho
   // No signal from here: the estimate works from the rates and records on the phone.
   await ctx.setOffline(true)
   const f = await partFactor()
-  await addPart(page, 'RAD-90', ((0.9 * LIMIT - sofar) / f / 100).toFixed(2))
+  await addPart(page, 'RAD-90', ((0.9 * LIMIT - sofar) / f / 100).toFixed(2), 'Radiator assembly')
   await expect(estimate).toHaveAttribute('data-state', 'warn')
   await expect(page.getByTestId('estimate-state')).toContainText('Near the limit')
   await page.getByTestId('estimate').scrollIntoViewIfNeeded()
   await shot(page, 'estimate-warn-offline-360')
-  await addPart(page, 'FAN-12', ((0.2 * LIMIT) / f / 100).toFixed(2))
+  await addPart(page, 'FAN-12', ((0.2 * LIMIT) / f / 100).toFixed(2), 'Fan clutch')
   await expect(estimate).toHaveAttribute('data-state', 'stop')
   await expect(page.getByTestId('estimate-state')).toContainText('Limit reached')
   await shot(page, 'estimate-stop-offline-360')
