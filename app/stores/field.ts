@@ -35,6 +35,8 @@ export interface CallView {
   /** The mechanic's requests for more and the fleet's answers. */
   approvalRequests: CollectionRows['approvalRequests'][]
   approvals: CollectionRows['approvals'][]
+  /** The estimates the driver signed before the work (card customers), oldest first. */
+  estimateSignatures: CollectionRows['estimateSignatures'][]
   /** Open conflicts on this call. */
   conflicts: CollectionRows['conflicts'][]
   /** Ids (call, records, conflicts) that an op still waiting on the device touches. */
@@ -75,6 +77,7 @@ export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: rea
     faultCodes: list('faultCodes'), readings: list('readings'), notes: list('notes'), photos: list('photos'),
     clockEvents: list('clockEvents'), partLines: list('partLines'), testRuns: list('testRuns'),
     signOffs: list('signOffs'), callEvents: list('callEvents'), approvalRequests: list('approvalRequests'), approvals: list('approvals'),
+    estimateSignatures: list('estimateSignatures'),
     conflicts: list('conflicts').filter(c => (c.status ?? 'open') === 'open'),
     pendingIds: [...new Set(mine.map(e => e.entityId))],
     rejected,

@@ -10,7 +10,7 @@ import {
   type SyncEntityName,
 } from '#shared/sync/entities'
 import type {
-  ApprovalRequestWire, ApprovalWire, CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire,
+  ApprovalRequestWire, ApprovalWire, CallEventWire, EstimateSignatureWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire,
   NoteWire, PartLineWire, PhotoWire,
   ReadingWire, SignOffWire, TestRunWire, UnitWire,
 } from '#shared/types/syncRows'
@@ -83,6 +83,7 @@ export interface CollectionRows {
   testRuns: DeviceRecord<TestRunWire>
   signOffs: DeviceRecord<SignOffWire>
   approvalRequests: DeviceRecord<ApprovalRequestWire>
+  estimateSignatures: DeviceRecord<EstimateSignatureWire>
   approvals: DeviceRecord<ApprovalWire>
   callEvents: DeviceRecord<CallEventWire>
   /** `pendingChoice`: settled on the phone, the settlement not yet sent. */

@@ -14,6 +14,7 @@ import { CLOCK_FLAGS } from '../../shared/sync/clockBounds'
 import { CLOCK_KINDS, FAULT_STATES, READING_QUANTITIES } from '../../shared/schemas/syncRecords'
 import { SYNC_OP_STATUSES } from '../../shared/schemas/sync'
 import { APPROVAL_CHANNELS, APPROVAL_DECISIONS, DECLINE_CHOICES, type PlannedPart } from '../../shared/schemas/approvals'
+import type { SignedLine } from '../../shared/schemas/estimateSignature'
 
 const xid8 = customType<{ data: string }>({ dataType: () => 'xid8' })
 
@@ -502,6 +503,32 @@ export const approvalRequests = pgTable('approval_requests', {
   check('approval_requests_money', sql`${t.estimateCents} >= 0 AND (${t.limitCents} IS NULL OR ${t.limitCents} >= 0)`),
 ])
 
+/**
+ * A card customer's driver signs the estimate before the work: made on the phone, synced like any
+ * record, append-only (a new estimate above the signed amount takes a new signature, a new row).
+ */
+export const estimateSignatures = pgTable('estimate_signatures', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  ...callChild,
+  driverName: text('driver_name').notNull(),
+  /** The drawn signature as a PNG data URL, as on the final sign-off. */
+  signature: text('signature').notNull(),
+  work: text('work').notNull(),
+  plannedLaborMinutes: integer('planned_labor_minutes').notNull().default(0),
+  plannedParts: jsonb('planned_parts').$type<PlannedPart[]>().notNull().default([]),
+  /** The estimate's lines as the driver saw them. */
+  lines: jsonb('lines').$type<SignedLine[]>().notNull().default([]),
+  taxCents: integer('tax_cents').notNull(),
+  amountCents: integer('amount_cents').notNull(),
+  /** The phone's time of signing, kept between the call being taken and the server's now. */
+  signedAt: ts('signed_at').notNull(),
+  ...synced,
+}, t => [
+  index('estimate_signatures_call_idx').on(t.callId, t.signedAt),
+  index('estimate_signatures_change_idx').on(t.changeXid),
+  check('estimate_signatures_money', sql`${t.amountCents} >= 0 AND ${t.taxCents} >= 0`),
+])
+
 const quoted = (xs: readonly string[]) => sql.raw(xs.map(x => `'${x}'`).join(', '))
 /** The fleet's answer: who, how much, which PO, how and when; written by the server only (the office or the fleet's link). */
 export const approvals = pgTable('approvals', {
@@ -817,6 +844,7 @@ export const callsRelations = relations(calls, ({ one, many }) => ({
   partLines: many(partLines),
   signOffs: many(signOffs),
   approvalRequests: many(approvalRequests),
+  estimateSignatures: many(estimateSignatures),
   approvals: many(approvals),
   events: many(callEvents),
   conflicts: many(conflicts),
@@ -846,6 +874,7 @@ export const clockEventsRelations = childOfCall(clockEvents)
 export const partLinesRelations = childOfCall(partLines)
 export const signOffsRelations = childOfCall(signOffs)
 export const approvalRequestsRelations = childOfCall(approvalRequests)
+export const estimateSignaturesRelations = childOfCall(estimateSignatures)
 export const approvalsRelations = childOfCall(approvals)
 export const callEventsRelations = childOfCall(callEvents)
 export const conflictsRelations = childOfCall(conflicts)

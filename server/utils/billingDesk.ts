@@ -7,7 +7,9 @@ type CallRow = typeof tables.calls.$inferSelect
 /** Sign-off, open conflicts and untrusted clock times for each call, in three queries. */
 async function recordFacts(callIds: string[]) {
   const out = new Map<string, RecordFacts>()
-  const none = { signedOff: false, openConflicts: 0, untrustedClock: 0, lastApproval: null, awaitingApproval: false }
+  const none = {
+    signedOff: false, openConflicts: 0, untrustedClock: 0, lastApproval: null, awaitingApproval: false, signedEstimates: [], partTimes: [],
+  }
   for (const id of callIds) out.set(id, { ...none })
   if (!callIds.length) return out
   const db = useDb()
@@ -32,6 +34,15 @@ async function recordFacts(callIds: string[]) {
   const answered = new Set(answers.map(a => a.requestId))
   for (const a of answers) if (a.decision === 'approved') out.get(a.callId)!.lastApproval = a
   for (const r of requests) if (!answered.has(r.id)) out.get(r.callId)!.awaitingApproval = true
+  // What a card customer's driver signed before the work, and when each part went on the record.
+  const { estimateSignatures: es, partLines: pl } = tables
+  const [signatures, parts] = await Promise.all([
+    db.select({ callId: es.callId, driverName: es.driverName, amountCents: es.amountCents, signedAt: es.signedAt }).from(es)
+      .where(inArray(es.callId, callIds)),
+    db.select({ callId: pl.callId, deviceAt: pl.deviceAt, createdAt: pl.createdAt }).from(pl).where(inArray(pl.callId, callIds)),
+  ])
+  for (const s of signatures) out.get(s.callId)!.signedEstimates.push(s)
+  for (const p of parts) out.get(p.callId)!.partTimes.push(p.deviceAt ?? p.createdAt)
   return out
 }
 
@@ -41,12 +52,20 @@ type RecordFacts = {
   untrustedClock: number
   lastApproval: { approvedBy: string, amountCents: number, poNumber: string | null } | null
   awaitingApproval: boolean
+  signedEstimates: { driverName: string, amountCents: number, signedAt: Date }[]
+  partTimes: Date[]
 }
 
 function flagsOf(call: CallRow, facts: RecordFacts, totalCents: number, onAccount: boolean) {
+  const { signedEstimates, partTimes, ...rest } = facts
+  const card = !onAccount
   return deskFlags({
-    ...facts, totalCents, onAccount, storyCause: call.storyCause, storyCorrection: call.storyCorrection,
+    ...rest, totalCents, onAccount, storyCause: call.storyCause, storyCorrection: call.storyCorrection,
     authLimitCents: call.authLimitCents, poNumber: call.poNumber,
+    signedEstimate: signatureInForce(signedEstimates),
+    repairBeforeSignature: repairBeforeSignature({
+      card, signed: signedEstimates, partTimes, correctionWritten: !!call.storyCorrection?.trim(),
+    }),
   })
 }
 

@@ -44,6 +44,7 @@ export async function getCallRecord(id: string) {
       partLines: { orderBy: t => [asc(t.createdAt)] },
       signOffs: true,
       approvalRequests: { orderBy: t => [asc(t.createdAt)] },
+      estimateSignatures: { orderBy: t => [asc(t.signedAt)] },
       approvals: { orderBy: t => [asc(t.decidedAt), asc(t.createdAt)] },
       events: { orderBy: t => [asc(t.at), asc(t.createdAt)] },
       conflicts: { orderBy: t => [asc(t.createdAt)] },
@@ -73,7 +74,7 @@ export async function getCallRecord(id: string) {
   const clockAt = (e: { deviceAt: Date | null, createdAt: Date }) => e.deviceAt ?? e.createdAt
   const {
     events, conflicts, signOffs, faultCodes, readings, testRuns, notes, photos, clockEvents, partLines, customer, unit,
-    approvalRequests, approvals, ...rest
+    approvalRequests, approvals, estimateSignatures, ...rest
   } = call
   const answered = new Set(approvals.map(a => a.requestId).filter(Boolean))
   return {
@@ -96,6 +97,12 @@ export async function getCallRecord(id: string) {
     approvalRequests: approvalRequests.map(r => ({ ...withoutXid(r), open: !answered.has(r.id) })),
     approvals: approvals.map(a => ({ ...withoutXid(a), recordedByPerson: person(a.recordedBy) })),
     awaitingApproval: approvalRequests.some(r => !answered.has(r.id)),
+    // A card customer's driver signs the estimate before the work (oldest first; the newest is in force).
+    estimateSignatures: estimateSignatures.map(withoutXid),
+    repairBeforeSignature: repairBeforeSignature({
+      card: signsEstimate(customer), signed: estimateSignatures,
+      partTimes: partLines.map(p => p.deviceAt ?? p.createdAt), correctionWritten: !!call.storyCorrection?.trim(),
+    }),
     conflicts: conflicts.map(c => ({
       ...withoutXid(c), raisedByPerson: person(c.raisedBy), resolvedByPerson: person(c.resolvedBy),
       // jsonb values, typed as JSON so the answer type keeps them.

@@ -5,6 +5,7 @@
 import { z } from 'zod'
 import { cleanText } from './text'
 import { approvalRequestCreateSchema, plannedPartSchema } from './approvals'
+import { estimateSignatureCreateSchema } from './estimateSignature'
 import { parseDtc } from '../utils/dtc'
 import { specBounds } from '../utils/spec'
 import {
@@ -176,3 +177,10 @@ export const approvalPartInputSchema = z.object({
   quantity: keypad(plannedPartSchema.shape.quantity, 'Quantity'),
   unitPrice: dollars(pl.unitPriceCents, 'Unit price', pl.unitPriceCents.unwrap().maxValue ?? 0),
 }).transform(({ unitPrice, ...p }) => ({ ...p, unitPriceCents: Number(unitPrice ?? 0), coreChargeCents: 0 }))
+
+/** The estimate a card customer's driver signs: the work in a line and the labor expected in hours, carried in minutes. */
+export const estimatePlanInputSchema = z.object({
+  work: estimateSignatureCreateSchema.shape.work,
+  laborHours: keypad(z.number({ message: 'Labor expected must be hours' }).min(0, 'Cannot be negative').max(168, 'At most 168 hours')
+    .optional(), 'Labor expected'),
+}).transform(({ laborHours, ...r }) => ({ ...r, plannedLaborMinutes: Math.round((laborHours ?? 0) * 60) }))

@@ -14,6 +14,7 @@ import {
 } from '../schemas/syncRecords'
 import { describeIssues } from '../utils/fieldErrors'
 import { approvalRequestCreateSchema } from '../schemas/approvals'
+import { estimateSignatureCreateSchema } from '../schemas/estimateSignature'
 import { formatCents } from '../utils/billing'
 
 type Changes = Record<string, unknown>
@@ -193,6 +194,18 @@ export const SYNC_ENTITIES = {
     summary: (_a, c) => {
       const total = typeof c.estimateCents === 'number' ? formatCents(c.estimateCents) : 'more'
       return `Asked the fleet for ${total}: ${cut(c.diagnosis)}`
+    },
+  },
+  estimateSignature: {
+    kind: 'record',
+    collection: 'estimateSignatures',
+    create: estimateSignatureCreateSchema,
+    updatable: [],
+    appendOnly: true,
+    words: { one: 'signed estimate', many: 'signed estimates' },
+    summary: (_a, c) => {
+      const total = typeof c.amountCents === 'number' ? formatCents(c.amountCents) : 'the estimate'
+      return `Driver signed the estimate of ${total}: ${cut(c.driverName, 30)}`
     },
   },
   conflictResolution: {

@@ -22,6 +22,7 @@ export type SignOffWire = Row<typeof db.signOffs>
 export type ConflictWire = Row<typeof db.conflicts>
 export type ApprovalRequestWire = Row<typeof db.approvalRequests>
 export type ApprovalWire = Row<typeof db.approvals>
+export type EstimateSignatureWire = Row<typeof db.estimateSignatures>
 export type RatesWire = Row<typeof db.rates>
 
 /**

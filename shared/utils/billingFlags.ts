@@ -2,8 +2,8 @@
 // by the billing desk, the invoice page and the tests.
 import { formatCents } from './billing'
 
-export type DeskFlagCode = 'untrusted_clock' | 'open_conflicts' | 'over_limit' | 'past_approval' | 'awaiting_approval' | 'no_sign_off'
-  | 'no_story' | 'no_po'
+export type DeskFlagCode = 'untrusted_clock' | 'open_conflicts' | 'over_limit' | 'past_approval' | 'past_signed_estimate'
+  | 'unsigned_estimate' | 'awaiting_approval' | 'no_sign_off' | 'no_story' | 'no_po'
 export type DeskFlag = { code: DeskFlagCode, text: string }
 
 export type DeskFacts = {
@@ -22,6 +22,10 @@ export type DeskFacts = {
   lastApproval?: { approvedBy: string, amountCents: number, poNumber: string | null } | null
   /** The mechanic asked the fleet for more and no answer is recorded. */
   awaitingApproval?: boolean
+  /** The estimate a card customer's driver signed before the work (the one in force), when there is one. */
+  signedEstimate?: { driverName: string, amountCents: number } | null
+  /** A card customer's repair went on the record before the driver signed the estimate (shared/utils/estimateSigning.ts). */
+  repairBeforeSignature?: boolean
 }
 
 const blank = (s: string | null) => !s || !s.trim()
@@ -44,6 +48,16 @@ export function deskFlags(f: DeskFacts): DeskFlag[] {
   }
   else if (f.authLimitCents !== null && f.totalCents > f.authLimitCents) {
     out.push({ code: 'over_limit', text: `Total ${formatCents(f.totalCents)} is over the authorized ${formatCents(f.authLimitCents)}` })
+  }
+  // A card customer signs for an amount as a fleet approves one: billing above it is the same overrun.
+  if (!f.onAccount && f.signedEstimate && f.totalCents > f.signedEstimate.amountCents) {
+    const s = f.signedEstimate
+    const past = formatCents(f.totalCents - s.amountCents)
+    const text = `Billed above the estimate the driver signed: ${past} over the ${formatCents(s.amountCents)} ${s.driverName} signed`
+    out.push({ code: 'past_signed_estimate', text: `${text}; ask the driver or take it off before sending` })
+  }
+  if (!f.onAccount && f.repairBeforeSignature) {
+    out.push({ code: 'unsigned_estimate', text: 'Repair recorded before the driver signed the estimate' })
   }
   if (f.awaitingApproval) out.push({ code: 'awaiting_approval', text: 'The mechanic asked the fleet for more; no answer is recorded' })
   if (!f.signedOff) out.push({ code: 'no_sign_off', text: 'No driver sign-off' })

@@ -15,9 +15,9 @@ const update = (entity: string, changes: Record<string, unknown>) => checkOp({ e
 describe('the entity registry', () => {
   it('names every entity the op envelope takes, and nothing else', () => {
     expect(opSchema.shape.entity.options).toEqual(SYNC_ENTITY_NAMES)
-    // DESIGN.md's list, and the mechanic's request for the fleet's approval added with the estimate.
+    // DESIGN.md's list, the mechanic's request for the fleet's approval and the driver's signed estimate added with the estimate.
     const design = ['call', 'reading', 'faultCode', 'note', 'photo', 'clockEvent', 'partLine', 'testRun', 'signOff', 'conflictResolution',
-      'approvalRequest']
+      'approvalRequest', 'estimateSignature']
     expect([...SYNC_ENTITY_NAMES].sort()).toEqual(design.sort())
   })
 

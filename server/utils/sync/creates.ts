@@ -25,8 +25,8 @@ type Written = {
 
 // The registry's order: test runs first, since readings may point at a run created in the same push.
 const WRITE_ORDER = RECORD_ENTITY_NAMES
-/** Columns that are not the record's content, left out when a repeated create is compared (the flag is the server's). */
-const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt', 'flag'])
+/** Columns that are not the record's content, left out when a repeated create is compared (flag and signedAt are the server's). */
+const NOT_CONTENT = new Set(['id', 'createdBy', 'deviceAt', 'flag', 'signedAt'])
 
 /** Whether a create repeats a stored (or earlier) row: the same content, whoever sent it and when. */
 export function sameRecordContent(row: Record<string, unknown>, there: Record<string, unknown>): boolean {

@@ -3,7 +3,7 @@
 // or the reason the op is refused when it points at something that is not there.
 import type { Op } from '#shared/schemas/sync'
 import type { RecordCreate, RecordEntityName } from '#shared/sync/entities'
-import { clockBoundFlag } from '#shared/sync/clockBounds'
+import { boundedMoveTime, clockBoundFlag } from '#shared/sync/clockBounds'
 import { judge } from '#shared/utils/spec'
 import type { ApplyContext } from './context'
 
@@ -85,6 +85,16 @@ export function buildCreateRow(ctx: ApplyContext, entity: RecordEntityName, op: 
       return {
         id, callId, createdBy, deviceAt, diagnosis: d.diagnosis, needed: d.needed ?? null, plannedLaborMinutes: d.plannedLaborMinutes,
         plannedParts: d.plannedParts, estimateCents: d.estimateCents, limitCents: d.limitCents, photoIds: d.photoIds,
+      }
+    }
+    case 'estimateSignature': {
+      const d = data as RecordCreate<'estimateSignature'>
+      // Signed at the phone's time, kept between the call being taken and the server's now.
+      const signedAt = boundedMoveTime(deviceAt, { after: ctx.calls.get(callId)!.receivedAt, now: ctx.now })
+      return {
+        id, callId, createdBy, deviceAt, driverName: d.driverName, signature: d.signature, work: d.work,
+        plannedLaborMinutes: d.plannedLaborMinutes, plannedParts: d.plannedParts, lines: d.lines, taxCents: d.taxCents,
+        amountCents: d.amountCents, signedAt,
       }
     }
   }
