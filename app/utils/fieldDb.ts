@@ -10,8 +10,8 @@ import {
   type SyncEntityName,
 } from '#shared/sync/entities'
 import type {
-  ApprovalRequestWire, ApprovalWire, CallEventWire, EstimateSignatureWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire,
-  NoteWire, PartLineWire, PhotoWire,
+  ApprovalRequestWire, ApprovalWire, CallEventWire, CallWire, ClockEventWire, ConflictWire, CustomerWire, DeviceRecord, FaultCodeWire,
+  EstimateSignatureWire, NoteWire, PartLineWire, PhotoWire,
   ReadingWire, SignOffWire, TestRunWire, UnitWire,
 } from '#shared/types/syncRows'
 

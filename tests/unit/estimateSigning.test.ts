@@ -19,7 +19,9 @@ const RATES: BillingRates = {
 }
 const T0 = Date.parse('2026-11-30T14:00:00Z')
 const at = (min: number) => new Date(T0 + min * 60_000).toISOString()
-const SENSOR = { partNumber: 'TR-ECT-10K', description: 'Coolant temperature sensor', quantity: 1, unitPriceCents: 12_000, coreChargeCents: 0 }
+const SENSOR = {
+  partNumber: 'TR-ECT-10K', description: 'Coolant temperature sensor', quantity: 1, unitPriceCents: 12_000, coreChargeCents: 0,
+}
 const PIGTAIL = { partNumber: 'TR-PT-3', description: 'Sensor pigtail', quantity: 1, unitPriceCents: 8_000, coreChargeCents: 0 }
 
 function record(untilMin: number, parts: EstimateRecord['parts'] = [], stopMin?: number): EstimateRecord {
