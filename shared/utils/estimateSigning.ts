@@ -2,7 +2,9 @@
 // the estimate rises above what was signed (more parts, more labor, a request to the fleet). A fleet
 // on account is not asked: its approval travels as a PO and an authorization limit instead. The
 // phone, the office and the billing desk read these rules from here only.
-import type { Estimate } from './estimate'
+import { clockSpans, type PricedLine } from './billing'
+import type { Estimate, EstimatePlan, EstimateRecord } from './estimate'
+import type { PlannedPart } from '../schemas/approvals'
 
 /** Who pays by card at the roadside (an owner-operator, a cash fleet) signs the estimate; an account customer does not. */
 export function signsEstimate(customer: { billingTerms?: unknown } | null | undefined): boolean {
@@ -24,6 +26,33 @@ export function signatureInForce<S extends SignedEstimate>(signed: readonly S[])
  */
 export function estimateToSign(e: Pick<Estimate, 'sofar' | 'expected'>): number {
   return Math.max(e.sofar.totalCents, e.expected.totalCents)
+}
+
+/**
+ * The work of a signed estimate still to come: its labor less the labor on the clock since it was
+ * signed, its parts less the ones put on the call's parts list since (matched by part number). The
+ * record priced with it is what the signed estimate comes to now, so a part it did not have, or
+ * labor past it, takes the total above what was signed.
+ */
+export function signedPlanLeft(
+  signed: { plannedLaborMinutes?: unknown, plannedParts?: unknown, signedAt?: string | Date | null, deviceAt?: string | Date | null },
+  record: Pick<EstimateRecord, 'clock' | 'parts' | 'until'>,
+): EstimatePlan {
+  const from = new Date(signed.signedAt ?? signed.deviceAt ?? 0).getTime()
+  const until = new Date(record.until)
+  const trusted = record.clock.filter(c => !c.flag)
+  const workedMs = clockSpans(trusted, until).labor.reduce((n, x) => n + Math.max(0, x.end - Math.max(x.start, from)), 0)
+  const laborMinutes = Math.max(0, Math.round(Number(signed.plannedLaborMinutes ?? 0) - workedMs / 60_000))
+  const onList = new Map<string, number>()
+  for (const p of record.parts) onList.set(p.partNumber, (onList.get(p.partNumber) ?? 0) + p.quantity)
+  const parts: EstimatePlan['parts'] = []
+  for (const p of (Array.isArray(signed.plannedParts) ? signed.plannedParts : []) as PlannedPart[]) {
+    const have = onList.get(p.partNumber) ?? 0
+    const used = Math.min(have, p.quantity)
+    onList.set(p.partNumber, have - used)
+    if (p.quantity > used) parts.push({ ...p, quantity: p.quantity - used, coreChargeCents: p.coreChargeCents ?? 0 })
+  }
+  return { laborMinutes, parts }
 }
 
 export type SigningState
@@ -65,4 +94,9 @@ export function repairBeforeSignature(r: {
   if (!times.length) return r.partTimes.length > 0 || r.correctionWritten
   const first = Math.min(...times)
   return r.partTimes.some(t => new Date(t).getTime() < first)
+}
+
+/** A priced line of work still to be done: planned labor, or a part not yet on the call's parts list. */
+export function isPlannedLine(l: Pick<PricedLine, 'kind' | 'source'>): boolean {
+  return !!l.source.planned || ((l.kind === 'part' || l.kind === 'core') && !l.source.partLineId)
 }

@@ -95,8 +95,8 @@ export async function cleanupSyncData() {
     await client.query(
       'DELETE FROM readings WHERE call_id = ANY($1) OR test_run_id IN (SELECT id FROM test_runs WHERE card_id = ANY($2))', [calls, cards])
     await client.query(`DELETE FROM links WHERE subject_id IN (SELECT id FROM approval_requests WHERE call_id = ANY($1))`, [calls])
-    const tables = ['approvals', 'approval_requests', 'fault_codes', 'notes', 'photos', 'clock_events', 'part_lines', 'sign_offs',
-      'conflicts', 'call_events']
+    const tables = ['approvals', 'approval_requests', 'estimate_signatures', 'fault_codes', 'notes', 'photos', 'clock_events',
+      'part_lines', 'sign_offs', 'conflicts', 'call_events']
     for (const t of tables) {
       await client.query(`DELETE FROM ${t} WHERE call_id = ANY($1)`, [calls])
     }

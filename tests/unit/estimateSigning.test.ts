@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest'
 import { priceCall, type BillingRates } from '../../shared/utils/billing'
 import { estimateCall, pricingInputOf, type EstimateRecord } from '../../shared/utils/estimate'
 import {
-  estimateToSign, repairBeforeSignature, signatureAsked, signatureInForce, signingState, signsEstimate,
+  estimateToSign, repairBeforeSignature, signatureAsked, signatureInForce, signedPlanLeft, signingState, signsEstimate,
 } from '../../shared/utils/estimateSigning'
 import { estimateSignatureCreateSchema } from '../../shared/schemas/estimateSignature'
 
@@ -77,6 +77,24 @@ describe('the signature against the invoice draft on the same record', () => {
     // The driver signs again for the new amount: the newest signature is the one in force.
     const again = [{ amountCents: signedCents, signedAt: at(30) }, { amountCents: 50_650, signedAt: at(125) }]
     expect(signingState(true, again, draftTotal(more))).toEqual({ need: 'signed', signedCents: 50_650 })
+  })
+
+  it('halfway through the signed work, the signed estimate still comes to what was signed; a part it did not have goes above', () => {
+    const signature = { amountCents: signedCents, signedAt: at(30), plannedLaborMinutes: 90, plannedParts: [SENSOR] }
+    const midway = record(60)
+    const left = signedPlanLeft(signature, midway)
+    // 30 of the 90 minutes worked since signing; the sensor not yet on the parts list.
+    expect(left).toEqual({ laborMinutes: 60, parts: [SENSOR] })
+    expect(estimateToSign(estimateCall(midway, null, left))).toBe(41_990)
+    const withPigtail = record(60, [{ id: 'p1', ...PIGTAIL }])
+    const now = estimateToSign(estimateCall(withPigtail, null, signedPlanLeft(signature, withPigtail)))
+    // worked by hand: $419.90 + $80.00 + $6.60 = $506.50, the sensor and the labor still to come
+    expect(now).toBe(50_650)
+    expect(signingState(true, [signature], now)).toEqual({ need: 'above', signedCents: 41_990, overCents: 8_660 })
+    // The sensor fitted: off the plan, and the estimate stays at what was signed.
+    const fitted = record(60, [{ id: 'p2', ...SENSOR }])
+    expect(signedPlanLeft(signature, fitted).parts).toEqual([])
+    expect(estimateToSign(estimateCall(fitted, null, signedPlanLeft(signature, fitted)))).toBe(41_990)
   })
 
   it('asks again when a request to the fleet takes the estimate above the signature, though nothing more is on record', () => {
