@@ -6,8 +6,12 @@ import { clockSpans, type PricedLine } from './billing'
 import type { Estimate, EstimatePlan, EstimateRecord } from './estimate'
 import type { PlannedPart } from '../schemas/approvals'
 
-/** Who pays by card at the roadside (an owner-operator, a cash fleet) signs the estimate; an account customer does not. */
-export function signsEstimate(customer: { billingTerms?: unknown } | null | undefined): boolean {
+/**
+ * Who pays by card at the roadside (an owner-operator, a cash fleet) signs the estimate; an account
+ * customer does not. The mechanic's copy of a customer carries this answer, not the billing terms.
+ */
+export function signsEstimate(customer: { billingTerms?: unknown, signsEstimate?: unknown } | null | undefined): boolean {
+  if (typeof customer?.signsEstimate === 'boolean') return customer.signsEstimate
   return customer?.billingTerms === 'card'
 }
 

@@ -55,14 +55,18 @@ describe('the signed estimate through sync', () => {
     expect(row).toMatchObject({ call_id: callId, driver_name: 'Rolf Vossberg', amount_cents: 45088, tax_cents: 1088,
       planned_labor_minutes: 90 })
     expect(row.lines).toHaveLength(2)
-    // The same op again (the phone lost the answer) is a no-op, not a second signature.
+    // The same op again (the phone lost the answer) is known as a duplicate, not a second signature.
     const again = await d.push([op])
-    expect(again.body.results[0]).toMatchObject({ status: 'applied' })
+    expect(again.body.results[0]).toMatchObject({ status: 'duplicate' })
     expect(await count('estimate_signatures', 'call_id = $1', [callId])).toBe(1)
 
     const { seen } = await pullUntil(new Device(mech), undefined, s => (s.estimateSignatures ?? []).some(x => x.id === op.entityId))
     const pulled = (seen.estimateSignatures ?? []).find(x => x.id === op.entityId) as Record<string, unknown> | undefined
     expect(pulled).toMatchObject({ callId, amountCents: 45088, driverName: 'Rolf Vossberg' })
+    // The phone learns that this customer's driver signs, not the customer's billing terms.
+    const customer = (seen.customers ?? []).find(c => c.id === CARD)
+    expect(customer).toMatchObject({ signsEstimate: true })
+    expect(customer).not.toHaveProperty('billingTerms')
 
     const rec = await dispatcher.get(`/api/calls/${callId}`)
     expect(rec.status).toBe(200)

@@ -37,6 +37,9 @@ describe('who signs the estimate', () => {
     expect(signsEstimate({ billingTerms: 'card' })).toBe(true)
     expect(signsEstimate({ billingTerms: 'account' })).toBe(false)
     expect(signsEstimate(null)).toBe(false)
+    // The mechanic's copy of a customer says it in a word of its own, without the billing terms.
+    expect(signsEstimate({ signsEstimate: true })).toBe(true)
+    expect(signsEstimate({ signsEstimate: false })).toBe(false)
     expect(signingState(false, [], 50_000)).toEqual({ need: 'not_asked' })
     expect(signatureAsked(signingState(false, [], 50_000))).toBe(false)
   })

@@ -232,13 +232,14 @@ async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean,
         : sql`${units.id} IN (SELECT unit_id FROM ${callRows} c)`,
     },
     {
-      // A mechanic needs who and how to reach them, not billing terms or account notes; tax exemption prices the estimate.
+      // A mechanic needs who and how to reach them, not billing terms or account notes; tax exemption prices the estimate,
+      // and whether the driver signs it before the work is said in a word of its own (the terms stay at the office).
       key: 'customers', table: customers,
       columns: {
         id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone, taxExempt: customers.taxExempt,
-        version: customers.version, updatedAt: customers.updatedAt,
+        version: customers.version, updatedAt: customers.updatedAt, billingTerms: customers.billingTerms,
       },
-      out: row => row,
+      out: ({ billingTerms, ...row }) => ({ ...row, signsEstimate: signsEstimate({ billingTerms }) }),
       where: incremental
         ? and(sql`${customers.id} IN (SELECT customer_id FROM calls WHERE mechanic_id = ${user.id})`,
             sql`(${win(customers.changeXid)} OR ${customers.id} IN (SELECT customer_id FROM ${callRows} c))`)
