@@ -2,12 +2,14 @@
 // before the repair, the driver reads it, types a name and signs; a part beyond it asks again; back
 // in signal the signed estimate reaches the office's call page.
 import { randomUUID } from 'node:crypto'
-import { expect, test, type Page } from '@playwright/test'
+import { expect, test, type Locator, type Page } from '@playwright/test'
 import { seedId } from '../../server/db/seed/ids'
 import { count, testPool } from '../support/db'
 import { PHONE, signIn, waitForServiceWorker } from './helpers'
 
 const shot = (page: Page, name: string) => page.screenshot({ path: `tests/e2e/screenshots/${name}.png`, fullPage: true })
+/** One section alone, to read at the phone's width. */
+const shotOf = (where: Locator, name: string) => where.screenshot({ path: `tests/e2e/screenshots/${name}.png` })
 const cents = (text: string | null) => Math.round(Number(String(text).replace(/[^0-9.]/g, '')) * 100)
 
 let callId: string
@@ -51,6 +53,7 @@ test('offline at 360 px the driver signs the estimate before the repair; the off
   await expect(page.getByTestId('presign-ask')).toContainText('has not signed the estimate')
   await section.scrollIntoViewIfNeeded()
   await shot(page, 'presign-unsigned-offline-360')
+  await shotOf(page.getByTestId('presign-ask'), 'presign-ask-offline-360')
 
   const form = page.getByRole('form', { name: 'The estimate to sign' })
   await form.getByLabel('What will be done, in a line').fill('Replace the coolant temperature sensor')
@@ -59,7 +62,7 @@ test('offline at 360 px the driver signs the estimate before the repair; the off
   await form.getByLabel('What the part is').fill('Coolant temperature sensor')
   await form.getByLabel('Price each, before markup').fill('120.00')
   await form.getByRole('button', { name: 'Add this part to the estimate' }).click()
-  await expect(form.getByText('TR-ECT-10K')).toBeVisible()
+  await expect(form.getByText('TR-ECT-10K', { exact: true })).toBeVisible()
   const estimate = page.getByTestId('presign-estimate')
   await expect(estimate).toContainText('Coolant temperature sensor (expected)')
   await expect(estimate).toContainText('Tax')
@@ -71,13 +74,12 @@ test('offline at 360 px the driver signs the estimate before the repair; the off
   await form.getByRole('button', { name: 'Sign the estimate' }).click()
   await expect(form.getByText('The driver signs in the box first')).toBeVisible()
   await draw(page, 'estimate-signature-pad')
-  await shot(page, 'presign-form-offline-360')
+  await shotOf(section, 'presign-form-offline-360')
   await form.getByRole('button', { name: 'Sign the estimate' }).click()
   await expect(section).toHaveAttribute('data-need', 'signed')
   await expect(page.getByTestId('presign-signed')).toContainText('Rolf Vossberg signed the estimate of')
   await expect(page.getByTestId('presign-ask')).toHaveCount(0)
-  await section.scrollIntoViewIfNeeded()
-  await shot(page, 'presign-signed-offline-360')
+  await shotOf(section, 'presign-signed-offline-360')
   expect(await count('estimate_signatures', 'call_id = $1', [callId])).toBe(0)
 
   // A part the estimate did not have takes it above what was signed: a new signature is asked.
@@ -91,8 +93,7 @@ test('offline at 360 px the driver signs the estimate before the repair; the off
   await parts.getByRole('button', { name: 'Add part' }).click()
   await expect(section).toHaveAttribute('data-need', 'above')
   await expect(page.getByTestId('presign-state')).toContainText('above the')
-  await section.scrollIntoViewIfNeeded()
-  await shot(page, 'presign-above-offline-360')
+  await shotOf(section, 'presign-above-offline-360')
 
   // Back in signal: the signature travels with the outbox, for the amount the driver saw.
   await ctx.setOffline(false)
@@ -111,5 +112,6 @@ test('offline at 360 px the driver signs the estimate before the repair; the off
   await expect(panel.getByRole('img', { name: 'Signature of Rolf Vossberg on the estimate' })).toBeVisible()
   await panel.scrollIntoViewIfNeeded()
   await shot(desk, 'presign-office-call')
+  await shotOf(panel, 'presign-office-panel')
   await Promise.all([ctx.close(), office.close()])
 })
