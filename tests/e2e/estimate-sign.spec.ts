@@ -27,7 +27,8 @@ test.beforeAll(async () => {
 
 async function draw(page: Page, testId: string) {
   const pad = page.getByTestId(testId)
-  await pad.scrollIntoViewIfNeeded()
+  // In the middle of the screen: the bar fixed at the bottom of the phone's page would take the strokes.
+  await pad.evaluate(el => el.scrollIntoView({ block: 'center' }))
   const box = (await pad.boundingBox())!
   await page.mouse.move(box.x + 20, box.y + box.height / 2)
   await page.mouse.down()
