@@ -27,19 +27,21 @@ export const PDF_FACES = {
 } as const
 export type FaceName = (typeof PDF_FACES)['body' | 'bold'][number]
 
-/** The bundled font files, read once per process from Nitro's server assets. */
-let loaded: Promise<Map<string, { bytes: Buffer, face: Face }>> | null = null
+/** A bundled face: its parsed font, shared by every document of the process (each makes its own subset), and its fallback test. */
+export type LoadedFont = { font: fontkit.Font, face: Face }
+
+/** The bundled font files, read and parsed once per process from Nitro's server assets. */
+let loaded: Promise<Map<string, LoadedFont>> | null = null
 export function pdfFonts() {
   loaded ??= (async () => {
     const names = [...new Set([...PDF_FACES.body, ...PDF_FACES.bold])]
-    const out = new Map<string, { bytes: Buffer, face: Face }>()
+    const out = new Map<string, LoadedFont>()
     for (const name of names) {
       const raw = await useStorage('assets:server').getItemRaw(`fonts/${name}.woff`)
       if (!raw) throw new Error(`The bundled font ${name}.woff is missing from server/assets/fonts`)
-      // The plain font inside: pdfkit reads it again for every document, a WOFF several times slower.
-      const bytes = sfntOf(Buffer.from(raw as Uint8Array))
-      const font = fontkit.create(bytes) as fontkit.Font
-      out.set(name, { bytes, face: { name, has: cp => font.hasGlyphForCodePoint(cp) } })
+      // The plain font inside, parsed here once: given bytes, pdfkit would parse them again for every document.
+      const font = fontkit.create(sfntOf(Buffer.from(raw as Uint8Array))) as fontkit.Font
+      out.set(name, { font, face: { name, has: cp => font.hasGlyphForCodePoint(cp) } })
     }
     return out
   })().catch((err) => {
@@ -53,8 +55,9 @@ export type PdfStyle = 'body' | 'bold'
 export type FaceChains = Record<PdfStyle, readonly Face[]>
 
 /** Registers the bundled faces with a document; answers the chain of faces per style. */
-export function registerPdfFonts(doc: PDFKit.PDFDocument, fonts: Map<string, { bytes: Buffer, face: Face }>): FaceChains {
-  for (const [name, f] of fonts) doc.registerFont(name, f.bytes)
+export function registerPdfFonts(doc: PDFKit.PDFDocument, fonts: Map<string, LoadedFont>): FaceChains {
+  // pdfkit takes a parsed fontkit font as it is (its types name only files and bytes).
+  for (const [name, f] of fonts) doc.registerFont(name, f.font as unknown as Buffer)
   return { body: PDF_FACES.body.map(n => fonts.get(n)!.face), bold: PDF_FACES.bold.map(n => fonts.get(n)!.face) }
 }
 
