@@ -41,7 +41,7 @@ export function pdfFonts() {
       if (!raw) throw new Error(`The bundled font ${name}.woff is missing from server/assets/fonts`)
       // The plain font inside, parsed here once: given bytes, pdfkit would parse them again for every document.
       const font = fontkit.create(sfntOf(Buffer.from(raw as Uint8Array))) as fontkit.Font
-      out.set(name, { font, face: { name, has: cp => font.hasGlyphForCodePoint(cp) } })
+      out.set(name, { font: withShapingCache(font), face: { name, has: cp => font.hasGlyphForCodePoint(cp) } })
     }
     return out
   })().catch((err) => {
@@ -49,6 +49,38 @@ export function pdfFonts() {
     throw err
   })
   return loaded
+}
+
+/** Words shaped per face and kept for the process; past this many the cache starts again. */
+const SHAPED_WORDS_MAX = 20_000
+
+type Position = { xAdvance: number, yAdvance: number, xOffset: number, yOffset: number }
+
+/**
+ * The font with its text shaping (fontkit's layout, the costliest part of a document) kept per
+ * word for the process: invoices repeat the same words. pdfkit scales the positions it is given in
+ * place, so each call answers fresh positions beside the shared glyphs.
+ */
+function withShapingCache(font: fontkit.Font): fontkit.Font {
+  const shaped = new Map<string, { glyphs: fontkit.Glyph[], positions: Position[] }>()
+  const cached = Object.create(font) as fontkit.Font
+  cached.layout = ((text: string, features?: unknown) => {
+    const key = features ? `${JSON.stringify(features)}\u0000${text}` : text
+    let run = shaped.get(key)
+    if (!run) {
+      const r = font.layout(text, features as string[])
+      const positions = r.positions.map(p => ({ xAdvance: p.xAdvance, yAdvance: p.yAdvance, xOffset: p.xOffset, yOffset: p.yOffset }))
+      run = { glyphs: r.glyphs, positions }
+      if (shaped.size >= SHAPED_WORDS_MAX) shaped.clear()
+      shaped.set(key, run)
+    }
+    const positions = run.positions.map(p => ({ ...p }))
+    return {
+      glyphs: run.glyphs, positions,
+      get advanceWidth() { return positions.reduce((sum, p) => sum + p.xAdvance, 0) },
+    }
+  }) as unknown as fontkit.Font['layout']
+  return cached
 }
 
 export type PdfStyle = 'body' | 'bold'
