@@ -313,6 +313,9 @@ export const calls = pgTable('calls', {
   index('calls_status_changed_idx').on(t.statusChangedAt, t.number),
   index('calls_unit_received_idx').on(t.unitId, t.receivedAt, t.number),
   index('calls_completed_idx').on(t.completedAt),
+  // A mechanic's first pull: their recent calls by one range, and each unit's last few calls of theirs.
+  index('calls_mechanic_recent_idx').on(t.mechanicId, sql`coalesce(assigned_at, received_at)`),
+  index('calls_mechanic_unit_idx').on(t.mechanicId, t.unitId, t.receivedAt),
   check('calls_lat_range', sql`${t.lat} IS NULL OR ${t.lat} BETWEEN -90 AND 90`),
   check('calls_lon_range', sql`${t.lon} IS NULL OR ${t.lon} BETWEEN -180 AND 180`),
   check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),

@@ -4,6 +4,7 @@ import type { User } from '#auth-utils'
 import type { z } from 'zod'
 import type { callListQuerySchema } from '#shared/schemas/calls'
 import { CALL_STATUSES, OPEN_STATUSES } from '#shared/utils/callStatus'
+import { awaitingApprovalSql } from './approvals'
 import { callSearchCondition } from './callSearch'
 import { tables, type Db } from './db'
 
@@ -58,11 +59,13 @@ function afterCursor(q: Query, cursor: string): SQL {
 }
 
 /**
- * The list's two queries, not yet run: the page's ids (with their sort key and number) and the
- * count. Every condition is on calls alone, so both read calls' indexes, never a join.
+ * The list's queries, not yet run: the page's ids (with their sort value and number), the page
+ * itself (those calls with their customer, unit and mechanic, in one statement) and the count.
+ * Every condition is on calls alone, so the ids and the count read calls' indexes, never a join;
+ * the page joins only its own rows, and formats the cursor's key for those rows alone.
  */
 export async function callListQueries(db: Db, user: Pick<User, 'id' | 'role'>, q: Query) {
-  const { calls } = tables
+  const { calls, customers, units, users } = tables
   const where: SQL[] = []
   if (user.role === 'mechanic') where.push(eq(calls.mechanicId, user.id))
   else if (q.mechanicId) where.push(eq(calls.mechanicId, q.mechanicId))
@@ -73,47 +76,49 @@ export async function callListQueries(db: Db, user: Pick<User, 'id' | 'role'>, q
   if (q.unitId) where.push(eq(calls.unitId, q.unitId))
   if (q.q) where.push(await callSearchCondition(db, q.q))
   const cond = where.length ? and(...where) : undefined
-  const sortCol = SORTS[q.sort ?? 'receivedAt'].col()
+  const sort = SORTS[q.sort ?? 'receivedAt']
+  const sortCol = sort.col()
   const dir = q.dir === 'asc' ? asc : desc
   // A deep page by offset walks only the sort key's index; a cursor jumps straight to its place.
-  const ids = db.select({ id: calls.id, key: sortKey(SORTS[q.sort ?? 'receivedAt']), number: calls.number }).from(calls)
+  // Aliased, so the page can order by them beside calls' own columns of the same names.
+  const ids = db.select({
+    id: sql<string>`${calls.id}`.as('page_id'), key: sql<unknown>`${sortCol}`.as('page_key'),
+    number: sql<number>`${calls.number}`.as('page_number'),
+  }).from(calls)
     .where(and(cond, q.after ? afterCursor(q, q.after) : undefined))
     .orderBy(dir(sortCol), dir(calls.number))
     .limit(q.pageSize + 1).offset(q.after ? 0 : (q.page - 1) * q.pageSize)
+  const p = ids.as('p')
+  const page = db.select({
+    call: calls,
+    key: sql<string | number>`${sortKey(sort)}`.as('key_text'),
+    customer: { id: customers.id, name: customers.name, billingTerms: customers.billingTerms },
+    unit: { id: units.id, unitNumber: units.unitNumber, vin: units.vin, yearMakeModel: units.yearMakeModel },
+    mechanic: { id: users.id, name: users.name },
+    awaitingApproval: awaitingApprovalSql(calls.id),
+  }).from(p)
+    .innerJoin(calls, eq(calls.id, p.id))
+    .innerJoin(customers, eq(customers.id, calls.customerId))
+    .leftJoin(units, eq(units.id, calls.unitId))
+    .leftJoin(users, eq(users.id, calls.mechanicId))
+    .orderBy(dir(p.key), dir(p.number))
   const count = db.select({ n: sql<number>`count(*)::int` }).from(calls).where(cond)
-  return { ids, count }
+  return { ids, page, count }
 }
 
 /** Calls the user may see, filtered and paged; a mechanic only ever sees their own. */
 export async function listCalls(user: User, q: Query) {
-  const { calls, customers, units, users } = tables
-  const db = useDb()
-  const queries = await callListQueries(db, user, q)
-  // The page's ids first, then those calls with their customer, unit and mechanic.
-  const [ids, [count]] = await Promise.all([queries.ids, queries.count])
-  const page = ids.slice(0, q.pageSize)
-  const rows = page.length
-    ? await db.select({
-        call: calls,
-        customer: { id: customers.id, name: customers.name, billingTerms: customers.billingTerms },
-        unit: { id: units.id, unitNumber: units.unitNumber, vin: units.vin, yearMakeModel: units.yearMakeModel },
-        mechanic: { id: users.id, name: users.name },
-        awaitingApproval: awaitingApprovalSql(calls.id),
-      }).from(calls)
-        .innerJoin(customers, eq(customers.id, calls.customerId))
-        .leftJoin(units, eq(units.id, calls.unitId))
-        .leftJoin(users, eq(users.id, calls.mechanicId))
-        .where(inArray(calls.id, page.map(r => r.id)))
-    : []
-  const byId = new Map(rows.map(r => [r.call.id, r]))
-  const last = page.at(-1)
+  const queries = await callListQueries(useDb(), user, q)
+  const [rows, [count]] = await Promise.all([queries.page, queries.count])
+  const items = rows.slice(0, q.pageSize)
+  const last = items.at(-1)
   return {
-    items: page.map(p => byId.get(p.id)).filter(r => r !== undefined).map(r => ({
+    items: items.map(r => ({
       ...r.call, changeXid: undefined, awaitingApproval: r.awaitingApproval, customer: r.customer,
       unit: r.unit?.id ? r.unit : null, mechanic: r.mechanic?.id ? r.mechanic : null,
     })),
     total: count?.n ?? 0,
     /** The cursor (`after`) for the page that follows, null on the last page. */
-    next: ids.length > q.pageSize && last ? encodeCursor(last.key, last.number) : null,
+    next: rows.length > q.pageSize && last ? encodeCursor(last.key, last.call.number) : null,
   }
 }

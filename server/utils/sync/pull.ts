@@ -167,22 +167,70 @@ function officeScope(win: Win) {
 /** How many days back a first pull brings closed calls (runtime config syncRecentDays). */
 const recentDays = () => Math.max(1, Number(useRuntimeConfig().syncRecentDays) || 30)
 
-/** Calls a mechanic's phone starts from: open ones, recent ones, and the last few earlier calls of each unit among them. */
+/**
+ * Calls a mechanic's phone starts from: open ones, recent ones, and the last few earlier calls of
+ * each unit among them. Each part is one range of an index of calls (calls_mechanic_idx,
+ * calls_mechanic_recent_idx, calls_mechanic_unit_idx), never the mechanic's whole career.
+ */
 function workingSet(user: User, days: number) {
-  const open = sql.join(OPEN_STATUSES.map(s => sql`${s}`), sql`, `)
+  const open = sql.join(OPEN_STATUSES.map(s => sql`${s}::call_status`), sql`, `)
   return sql`(
-    WITH mine AS (SELECT id, unit_id, status, received_at, assigned_at FROM calls WHERE mechanic_id = ${user.id}),
-    recent AS (
-      SELECT id, unit_id FROM mine
-      WHERE status::text IN (${open}) OR coalesce(assigned_at, received_at) >= now() - make_interval(days => ${days})
-    ),
-    earlier AS (
-      SELECT id, row_number() OVER (PARTITION BY unit_id ORDER BY received_at DESC) AS n FROM mine
-      WHERE unit_id IN (SELECT unit_id FROM recent) AND id NOT IN (SELECT id FROM recent)
+    WITH recent AS (
+      SELECT id, unit_id FROM calls WHERE mechanic_id = ${user.id} AND status IN (${open})
+      UNION
+      SELECT id, unit_id FROM calls WHERE mechanic_id = ${user.id}
+        AND coalesce(assigned_at, received_at) >= now() - make_interval(days => ${days})
     )
-    SELECT id FROM recent UNION ALL SELECT id FROM earlier WHERE n <= ${SYNC_UNIT_HISTORY_CALLS}
+    SELECT id FROM recent
+    UNION ALL
+    SELECT e.id FROM (SELECT DISTINCT unit_id FROM recent WHERE unit_id IS NOT NULL) u CROSS JOIN LATERAL (
+      SELECT c.id FROM calls c
+      WHERE c.mechanic_id = ${user.id} AND c.unit_id = u.unit_id AND c.id NOT IN (SELECT id FROM recent)
+      ORDER BY c.received_at DESC LIMIT ${SYNC_UNIT_HISTORY_CALLS}
+    ) e
   )`
 }
+
+/** A Postgres array literal of uuids read from the database (nothing typed by a person), for `= ANY(…::uuid[])`. */
+const uuidArray = (ids: readonly string[]) => sql`${`{${ids.join(',')}}`}::uuid[]`
+
+/**
+ * A first pull's collections: the working set's calls, with their units and customers, found in one
+ * query and then read by key, one query per collection (the working set is not worked out again
+ * for each of them).
+ */
+async function firstPullSources(tx: Tx, user: User, days: number): Promise<Source[]> {
+  const { calls, units, customers } = tables
+  const set = await tx.execute<{ id: string, unit_id: string | null, customer_id: string }>(
+    sql`SELECT id, unit_id, customer_id FROM calls WHERE id IN ${workingSet(user, days)}`)
+  const callIds = uuidArray(set.rows.map(r => r.id))
+  const unitIds = uuidArray([...new Set(set.rows.flatMap(r => (r.unit_id ? [r.unit_id] : [])))])
+  const customerIds = uuidArray([...new Set(set.rows.map(r => r.customer_id))])
+  return [
+    { key: 'calls', table: calls, where: and(sql`${calls.id} = ANY(${callIds})`, eq(calls.mechanicId, user.id)) },
+    { key: 'units', table: units, where: sql`${units.id} = ANY(${unitIds})` },
+    {
+      key: 'customers', table: customers, columns: MECHANIC_CUSTOMER_COLUMNS(), out: mechanicCustomerRow,
+      where: sql`${customers.id} = ANY(${customerIds})`,
+    },
+    ...recordSources(t => sql`${t.callId} = ANY(${callIds})`),
+  ]
+}
+
+/**
+ * A mechanic needs who and how to reach them, not billing terms or account notes; tax exemption prices the estimate,
+ * and whether the driver signs it before the work is said in a word of its own (the terms are read, never handed out).
+ */
+const MECHANIC_CUSTOMER_COLUMNS = () => {
+  const { customers } = tables
+  return {
+    id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone, taxExempt: customers.taxExempt,
+    version: customers.version, updatedAt: customers.updatedAt, billingTerms: customers.billingTerms,
+  }
+}
+const mechanicCustomerRow = ({ billingTerms, ...row }: Record<string, unknown>) => ({
+  ...row, signsEstimate: signsEstimate({ billingTerms }),
+})
 
 /** Ids of the calls any of whose records (the device's or the server's) changed in the window. */
 function callsWithChangedRecords(win: Win) {
@@ -197,64 +245,45 @@ function callsWithChangedRecords(win: Win) {
  * changed, and a call assigned inside the window, come whole: the phone may never have held them.
  */
 async function mechanicScope(tx: Tx, user: User, win: Win, incremental: boolean, days = recentDays()) {
+  if (!incremental) return { sources: await firstPullSources(tx, user, days), revoked: async () => [] as string[] }
   const { calls, units, customers, callEvents } = tables
   const mine = sql`(SELECT id FROM calls WHERE mechanic_id = ${user.id})`
-  let whole: string[] = []
-  if (incremental) {
-    const assigned = await tx.selectDistinct({ id: callEvents.callId }).from(callEvents).innerJoin(calls, eq(calls.id, callEvents.callId))
-      .where(and(
-        eq(calls.mechanicId, user.id), eq(callEvents.mechanicId, user.id), win(callEvents.changeXid),
-        sql`(${callEvents.kind} IN ('assigned', 'reassigned') OR ${callEvents.toStatus} = 'assigned')`,
-      ))
-    const outside = await tx.select({ id: calls.id }).from(calls).where(and(
-      eq(calls.mechanicId, user.id),
-      sql`${calls.id} NOT IN ${workingSet(user, days)}`,
-      sql`(${win(calls.changeXid)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`,
+  const assigned = await tx.selectDistinct({ id: callEvents.callId }).from(callEvents).innerJoin(calls, eq(calls.id, callEvents.callId))
+    .where(and(
+      eq(calls.mechanicId, user.id), eq(callEvents.mechanicId, user.id), win(callEvents.changeXid),
+      sql`(${callEvents.kind} IN ('assigned', 'reassigned') OR ${callEvents.toStatus} = 'assigned')`,
     ))
-    whole = [...new Set([...assigned, ...outside].map(r => r.id))]
-  }
+  const outside = await tx.select({ id: calls.id }).from(calls).where(and(
+    eq(calls.mechanicId, user.id),
+    sql`${calls.id} NOT IN ${workingSet(user, days)}`,
+    sql`(${win(calls.changeXid)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`,
+  ))
+  const whole = [...new Set([...assigned, ...outside].map(r => r.id))]
   const wholeOr = (col: PgColumn) => (whole.length ? inArray(col, whole) : sql`false`)
-  const scopeCalls = incremental ? mine : workingSet(user, days)
-  const callWhere = incremental
-    ? sql`(${win(calls.changeXid)} OR ${wholeOr(calls.id)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`
-    : undefined
-  const changed = (col: PgColumn, callCol: PgColumn) => (incremental ? sql`(${win(col)} OR ${wholeOr(callCol)})` : undefined)
+  const callWhere = sql`(${win(calls.changeXid)} OR ${wholeOr(calls.id)} OR ${calls.id} IN ${callsWithChangedRecords(win)})`
   // The units and customers of the calls this pull hands out.
-  const callRows = sql`(SELECT unit_id, customer_id FROM calls WHERE id IN ${scopeCalls} ${callWhere ? sql`AND ${callWhere}` : sql``})`
+  const callRows = sql`(SELECT unit_id, customer_id FROM calls WHERE id IN ${mine} AND ${callWhere})`
 
   const sources: Source[] = [
-    { key: 'calls', table: calls, where: and(sql`${calls.id} IN ${scopeCalls}`, eq(calls.mechanicId, user.id), callWhere) },
+    { key: 'calls', table: calls, where: and(sql`${calls.id} IN ${mine}`, eq(calls.mechanicId, user.id), callWhere) },
     {
       key: 'units', table: units,
-      where: incremental
-        ? and(sql`${units.id} IN (SELECT unit_id FROM calls WHERE mechanic_id = ${user.id})`,
-            sql`(${win(units.changeXid)} OR ${units.id} IN (SELECT unit_id FROM ${callRows} c))`)
-        : sql`${units.id} IN (SELECT unit_id FROM ${callRows} c)`,
+      where: and(sql`${units.id} IN (SELECT unit_id FROM calls WHERE mechanic_id = ${user.id})`,
+        sql`(${win(units.changeXid)} OR ${units.id} IN (SELECT unit_id FROM ${callRows} c))`),
     },
     {
-      // A mechanic needs who and how to reach them, not billing terms or account notes; tax exemption prices the estimate,
-      // and whether the driver signs it before the work is said in a word of its own (the terms stay at the office).
-      key: 'customers', table: customers,
-      columns: {
-        id: customers.id, name: customers.name, kind: customers.kind, phone: customers.phone, taxExempt: customers.taxExempt,
-        version: customers.version, updatedAt: customers.updatedAt, billingTerms: customers.billingTerms,
-      },
-      out: ({ billingTerms, ...row }) => ({ ...row, signsEstimate: signsEstimate({ billingTerms }) }),
-      where: incremental
-        ? and(sql`${customers.id} IN (SELECT customer_id FROM calls WHERE mechanic_id = ${user.id})`,
-            sql`(${win(customers.changeXid)} OR ${customers.id} IN (SELECT customer_id FROM ${callRows} c))`)
-        : sql`${customers.id} IN (SELECT customer_id FROM ${callRows} c)`,
+      key: 'customers', table: customers, columns: MECHANIC_CUSTOMER_COLUMNS(), out: mechanicCustomerRow,
+      where: and(sql`${customers.id} IN (SELECT customer_id FROM calls WHERE mechanic_id = ${user.id})`,
+        sql`(${win(customers.changeXid)} OR ${customers.id} IN (SELECT customer_id FROM ${callRows} c))`),
     },
-    ...recordSources(t => and(sql`${t.callId} IN ${scopeCalls}`, changed(t.changeXid, t.callId))),
+    ...recordSources(t => and(sql`${t.callId} IN ${mine}`, sql`(${win(t.changeXid)} OR ${wholeOr(t.callId)})`)),
   ]
 
   // Calls taken away: changed in the window, not this mechanic's now, but assigned to them once.
-  const revoked = async () => incremental
-    ? (await tx.select({ id: calls.id }).from(calls).where(and(
-        win(calls.changeXid),
-        sql`${calls.mechanicId} IS DISTINCT FROM ${user.id}`,
-        sql`EXISTS (SELECT 1 FROM call_events e WHERE e.call_id = ${calls.id} AND e.mechanic_id = ${user.id})`,
-      ))).map(r => r.id)
-    : []
+  const revoked = async () => (await tx.select({ id: calls.id }).from(calls).where(and(
+    win(calls.changeXid),
+    sql`${calls.mechanicId} IS DISTINCT FROM ${user.id}`,
+    sql`EXISTS (SELECT 1 FROM call_events e WHERE e.call_id = ${calls.id} AND e.mechanic_id = ${user.id})`,
+  ))).map(r => r.id)
   return { sources, revoked }
 }

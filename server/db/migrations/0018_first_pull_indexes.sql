@@ -1,0 +1,2 @@
+CREATE INDEX "calls_mechanic_recent_idx" ON "calls" USING btree ("mechanic_id",coalesce(assigned_at, received_at));--> statement-breakpoint
+CREATE INDEX "calls_mechanic_unit_idx" ON "calls" USING btree ("mechanic_id","unit_id","received_at");
