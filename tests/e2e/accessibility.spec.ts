@@ -1,7 +1,8 @@
 // Every page of every role, in the sunlight and the night theme, checked by axe-core (WCAG 2.x A and
 // AA rules plus its best practices): a serious or critical finding fails the test. Each role signs in
 // once and visits its pages; on each page the theme is switched with the app's own button where the
-// page has one (else the class the app sets on <html>), and axe runs in both.
+// page has one (else the class the app sets on <html>). The sunlight theme runs every rule; the night
+// theme changes only colours, so it runs the colour rules. A page two roles share is checked once.
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type BrowserContext, type Page } from '@playwright/test'
 import { seedId } from '../../server/db/seed/ids'
@@ -57,10 +58,7 @@ const OFFICE: Visit[] = [
   { path: `/calls/${CALL_7}` },
   { path: '/billing' },
   { path: `/billing/invoices/${INVOICE_7}` },
-  { path: '/reports' },
   { path: '/setup/trucks/restock' },
-  { path: `/units/${UNIT_2}` },
-  { path: `/customers/${CUSTOMER}` },
 ]
 const ADMIN: Visit[] = [
   { path: '/setup' },
@@ -69,9 +67,6 @@ const ADMIN: Visit[] = [
   { path: '/setup/cards' },
   { path: `/setup/cards/${CARD}` },
   { path: '/setup/trucks' },
-  { path: '/setup/trucks/restock' },
-  { path: '/dispatch' },
-  { path: '/billing' },
   { path: '/no-such-page-at-all', ready: heading(/./) },
 ]
 const MECHANIC: Visit[] = [
@@ -87,15 +82,20 @@ const MECHANIC: Visit[] = [
 const UUID = /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/g
 const slug = (v: Visit) => v.name ?? (v.path.replace(UUID, m => m.slice(0, 4)).replace(/^\//, '').replace(/[^\w]+/g, '-') || 'home')
 
-async function check(page: Page, where: string, findings: Finding[]) {
-  const result = await new AxeBuilder({ page })
-    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa', 'best-practice'])
-    .analyze()
+/** The rules a theme can change: colours and what is drawn over what. */
+const COLOUR_RULES = ['color-contrast', 'link-in-text-block']
+
+async function check(page: Page, where: string, findings: Finding[], coloursOnly = false) {
+  const axe = new AxeBuilder({ page })
+  const result = await (coloursOnly
+    ? axe.withRules(COLOUR_RULES)
+    : axe.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa', 'best-practice'])).analyze()
   for (const v of result.violations) {
     if (v.impact !== 'serious' && v.impact !== 'critical') continue
     findings.push({ where, rule: v.id, impact: v.impact, help: v.help, targets: v.nodes.slice(0, 5).map(n => n.target.join(' ')) })
   }
-  return result.passes.length
+  // Rules that ran: passed, or found something to look at (contrast over an image is 'incomplete').
+  return result.passes.length + result.incomplete.length
 }
 
 /** Switches the theme with the app's own button where the page has one, else sets the class the app sets. */
@@ -119,13 +119,13 @@ async function visitAll(page: Page, role: string, visits: Visit[], findings: Fin
     await page.goto(v.path)
     await (v.ready ?? heading(/./))(page)
     // Lists and charts fill in after the heading; give the page a moment to stop asking for data.
-    await page.waitForLoadState('networkidle', { timeout: 2_000 }).catch(() => {})
+    await page.waitForLoadState('networkidle', { timeout: 1_000 }).catch(() => {})
     if (v.act) await v.act(page)
     for (const theme of ['sunlight', 'night'] as const) {
       await setTheme(page, theme)
       const where = `${role} ${v.path}${v.name ? ` (${v.name})` : ''} [${theme}]`
-      const passed = await check(page, where, findings)
-      expect(passed, `${where}: axe ran its rules`).toBeGreaterThan(10)
+      const passed = await check(page, where, findings, theme === 'night')
+      expect(passed, `${where}: axe ran its rules`).toBeGreaterThan(theme === 'night' ? 0 : 10)
       await page.screenshot({ path: `tests/e2e/screenshots/a11y-${role}-${slug(v)}-${theme}.png` })
     }
     await setTheme(page, 'sunlight')
