@@ -61,7 +61,8 @@ function phone(d: Device) {
 async function pushAll(d: Device, ops: TestOp[]) {
   const r = await d.push(ops)
   expect(r.status).toBe(200)
-  expect(r.body.results.map((x: any) => `${x.status}${x.reason ? ` ${x.reason}` : ''}`)).toEqual(ops.map(() => 'applied'))
+  const results = r.body.results as { status: string, reason?: string }[]
+  expect(results.map(x => `${x.status}${x.reason ? ` ${x.reason}` : ''}`)).toEqual(ops.map(() => 'applied'))
 }
 
 async function travelHours(callId: string) {
@@ -155,7 +156,7 @@ describe('odometer and engine hours read at the truck', () => {
       d.update('call', c, { engineHoursReading: 'lots' }, { engineHoursReading: 12100 }),
       d.update('call', c, { odometerReading: 10_000_000 }, { odometerReading: 405000 }),
     ])
-    expect(bad.body.results.map((x: any) => [x.status, x.reason])).toEqual([
+    expect((bad.body.results as { status: string, reason?: string }[]).map(x => [x.status, x.reason])).toEqual([
       ['rejected', expect.stringMatching(/^odometerReading: Odometer cannot be below 0/)],
       ['rejected', expect.stringMatching(/^engineHoursReading: Engine hours must be a number/)],
       ['rejected', expect.stringMatching(/^odometerReading: Odometer cannot be above 9999999/)],
