@@ -5,8 +5,10 @@
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { ref } from 'vue'
 import { describeFaultCode } from '#shared/utils/dtc'
+import { isPauseMove, type CallStatus } from '#shared/utils/callStatus'
+import { runningCalls } from '../utils/fieldClock'
 import {
-  RECORD_COLLECTION, commitChanges, readBundle, readBundles, readOutbox,
+  RECORD_COLLECTION, commitCallGroups, commitChanges, readBundle, readBundles, readOutbox,
   type CallBundle, type CallRecord, type CollectionRows, type CustomerRecord, type DeviceRow, type LocalChange, type OutboxEntry,
   type RecordEntity, type UnitRecord,
 } from '../utils/fieldDb'
@@ -37,6 +39,8 @@ export interface CallView {
   approvals: CollectionRows['approvals'][]
   /** The estimates the driver signed before the work (card customers), oldest first. */
   estimateSignatures: CollectionRows['estimateSignatures'][]
+  /** The mechanic's other calls on the phone with a running clock: starting on this one pauses them. */
+  runningElsewhere: { id: string, number: number, status: string }[]
   /** Open conflicts on this call. */
   conflicts: CollectionRows['conflicts'][]
   /** Ids (call, records, conflicts) that an op still waiting on the device touches. */
@@ -78,12 +82,18 @@ export function viewOf(b: CallBundle, others: readonly CallBundle[], outbox: rea
     clockEvents: list('clockEvents'), partLines: list('partLines'), testRuns: list('testRuns'),
     signOffs: list('signOffs'), callEvents: list('callEvents'), approvalRequests: list('approvalRequests'), approvals: list('approvals'),
     estimateSignatures: list('estimateSignatures'),
+    runningElsewhere: runningCalls(others.map(clocked), b.id),
     conflicts: list('conflicts').filter(c => (c.status ?? 'open') === 'open'),
     pendingIds: [...new Set(mine.map(e => e.entityId))],
     rejected,
     revoked: !!b.revoked,
   }
 }
+
+const timeMarks = (b: CallBundle) => Object.values(b.records.clockEvents ?? {}).map(e => ({ kind: String(e.kind), at: timeOf(e) }))
+const clocked = (b: CallBundle) => ({
+  id: b.id, number: Number(b.call.number), status: String(b.call.status), revoked: !!b.revoked, marks: timeMarks(b),
+})
 
 function pick(row: Record<string, unknown>, keys: string[]) {
   return Object.fromEntries(keys.map(k => [k, row[k] ?? null]))
@@ -148,18 +158,32 @@ export const useFieldStore = defineStore('field', () => {
   ) {
     const bundle = await readBundle(callId)
     if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
-    const list: LocalChange[] = []
-    if (Object.keys(changes).length) {
-      list.push({
-        entity: 'call', entityId: callId, action: 'update', changes,
-        base: pick(bundle.call, Object.keys(changes)),
-        baseVersion: typeof bundle.call.version === 'number' ? bundle.call.version : undefined,
-        apply: (b, _at, checked) => { b.call = { ...b.call, ...checked } },
-      })
-    }
-    for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId }))
-    await commitChanges(callId, list)
+    await commitChanges(callId, callChanges(bundle, changes, records))
     await afterWrite(callId)
+  }
+
+  /**
+   * Starts driving to (or working on) a call, first pausing the other calls whose clock still
+   * runs, in one transaction: a `pause` clock event ends their travel or labor, and their status
+   * goes back to assigned (en route or at the truck only) so the board shows them paused. The
+   * server keeps their enRouteAt (statusTimes), which is what makes the board's paused state true;
+   * going back to a paused call later is a plain "Start driving" again.
+   */
+  async function startCall(
+    callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
+  ): Promise<number[]> {
+    const all = await readBundles()
+    const bundle = all.find(b => b.id === callId)
+    if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
+    const running = runningCalls(all.map(clocked), callId)
+    const groups = running.map((r) => {
+      const other = all.find(b => b.id === r.id)!
+      const back = isPauseMove(r.status as CallStatus, 'assigned') ? { status: 'assigned' } : {}
+      return { callId: r.id, list: callChanges(other, back, [{ entity: 'clockEvent', record: { kind: 'pause' } }]) }
+    })
+    await commitCallGroups([...groups, { callId, list: callChanges(bundle, changes, records) }])
+    await afterWrite(callId)
+    return running.map(r => r.number)
   }
 
   /**
@@ -205,8 +229,25 @@ export const useFieldStore = defineStore('field', () => {
     }))
   }
 
-  return { current, loadCall, addRecord, addPhoto, updateRecord, updateCall, writeCall, resolveConflict, listCalls }
+  return { current, loadCall, addRecord, addPhoto, updateRecord, updateCall, writeCall, startCall, resolveConflict, listCalls }
 })
+
+/** A call update (base: what the phone last had) and the records that go with it, as local changes. */
+function callChanges(
+  bundle: CallBundle, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
+): LocalChange[] {
+  const list: LocalChange[] = []
+  if (Object.keys(changes).length) {
+    list.push({
+      entity: 'call', entityId: bundle.id, action: 'update', changes,
+      base: pick(bundle.call, Object.keys(changes)),
+      baseVersion: typeof bundle.call.version === 'number' ? bundle.call.version : undefined,
+      apply: (b, _at, checked) => { b.call = { ...b.call, ...checked } },
+    })
+  }
+  for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId: bundle.id }))
+  return list
+}
 
 /** A create op; `localOnly` fields (a thumbnail) stay on the phone and are not sent. */
 function createChange(

@@ -173,32 +173,47 @@ export interface QueuedPhoto {
  * shape throws OpRefusedError naming the field, and nothing is written. Returns the ops written.
  */
 export async function commitChanges(callId: string, list: LocalChange[]): Promise<Op[]> {
-  const checked = list.map(c => checkedChange(c))
+  return commitCallGroups([{ callId, list }])
+}
+
+/**
+ * Changes to several calls in one transaction, in the order given (pausing one call and starting
+ * another: both land, or neither does).
+ */
+export async function commitCallGroups(groups: { callId: string, list: LocalChange[] }[]): Promise<Op[]> {
+  const checked = groups.map(g => ({ callId: g.callId, list: g.list.map(c => checkedChange(c)) }))
   const clientId = await getClientId()
   return deviceTx(['meta', 'calls', 'outbox', 'photos'], 'readwrite', async (tx) => {
     const meta = tx.objectStore('meta')
     const callsStore = tx.objectStore('calls')
-    const bundle = await promisifyRequest<CallBundle | undefined>(callsStore.get(callId))
-    if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
+    const bundles = new Map<string, CallBundle>()
+    for (const { callId } of checked) {
+      const bundle = await promisifyRequest<CallBundle | undefined>(callsStore.get(callId))
+      if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
+      bundles.set(callId, bundle)
+    }
     let seq = (await promisifyRequest<number | undefined>(meta.get(META_SEQ))) ?? 0
     const at = new Date().toISOString()
     const ops: Op[] = []
-    for (const c of checked) {
-      seq += 1
-      const op: Op = {
-        opId: crypto.randomUUID(), clientId, seq, at, schemaVersion: SCHEMA_VERSION,
-        entity: c.entity, entityId: c.entityId, action: c.action, changes: c.changes,
+    for (const { callId, list } of checked) {
+      const bundle = bundles.get(callId)!
+      for (const c of list) {
+        seq += 1
+        const op: Op = {
+          opId: crypto.randomUUID(), clientId, seq, at, schemaVersion: SCHEMA_VERSION,
+          entity: c.entity, entityId: c.entityId, action: c.action, changes: c.changes,
+        }
+        if (c.base) op.base = c.base
+        if (c.baseVersion !== undefined) op.baseVersion = c.baseVersion
+        c.apply?.(bundle, at, c.changes)
+        if (c.photo) tx.objectStore('photos').put(c.photo, c.photo.id)
+        const entry: OutboxEntry = { ...op, callId, state: 'pending', tries: 0 }
+        tx.objectStore('outbox').put(entry, seq)
+        ops.push(op)
       }
-      if (c.base) op.base = c.base
-      if (c.baseVersion !== undefined) op.baseVersion = c.baseVersion
-      c.apply?.(bundle, at, c.changes)
-      if (c.photo) tx.objectStore('photos').put(c.photo, c.photo.id)
-      const entry: OutboxEntry = { ...op, callId, state: 'pending', tries: 0 }
-      tx.objectStore('outbox').put(entry, seq)
-      ops.push(op)
     }
     meta.put(seq, META_SEQ)
-    callsStore.put(bundle, callId)
+    for (const [callId, bundle] of bundles) callsStore.put(bundle, callId)
     return ops
   })
 }

@@ -288,6 +288,9 @@ export const calls = pgTable('calls', {
   followUp: text('follow_up'),
   /** What the mechanic chose after the fleet declined more work (make safe and release, tow, stop). */
   afterDecline: text('after_decline'),
+  /** Read at the truck on arrival (the unit's odometer unit); the unit's own is raised to it, never lowered. */
+  odometerReading: integer('odometer_reading'),
+  engineHoursReading: doublePrecision('engine_hours_reading'),
   cancelReason: text('cancel_reason'),
   receivedAt: ts('received_at').notNull().defaultNow(),
   assignedAt: ts('assigned_at'),
@@ -319,6 +322,8 @@ export const calls = pgTable('calls', {
   check('calls_lat_range', sql`${t.lat} IS NULL OR ${t.lat} BETWEEN -90 AND 90`),
   check('calls_lon_range', sql`${t.lon} IS NULL OR ${t.lon} BETWEEN -180 AND 180`),
   check('calls_auth_limit_nonneg', sql`${t.authLimitCents} IS NULL OR ${t.authLimitCents} >= 0`),
+  check('calls_truck_readings_nonneg',
+    sql`(${t.odometerReading} IS NULL OR ${t.odometerReading} >= 0) AND (${t.engineHoursReading} IS NULL OR ${t.engineHoursReading} >= 0)`),
   check('calls_after_decline',
     sql`${t.afterDecline} IS NULL OR ${t.afterDecline} IN (${sql.raw(DECLINE_CHOICES.map(c => `'${c}'`).join(', '))})`),
   check('calls_outcome_when_done', sql`${t.outcome} IS NULL OR ${t.status} IN (${sql.raw(sqlStatusList(DONE_STATUSES))})`),

@@ -17,11 +17,14 @@ async function pdfFacts(inv: InvoiceDetail) {
   const [rate] = inv.ratesId
     ? await db.select().from(rates).where(eq(rates.id, inv.ratesId))
     : await db.select().from(rates).orderBy(desc(rates.effectiveFrom)).limit(1)
-  const [call] = await db.select({ mechanicId: calls.mechanicId, unitId: calls.unitId, completedAt: calls.completedAt })
-    .from(calls).where(eq(calls.id, inv.callId))
+  const [call] = await db.select({
+    mechanicId: calls.mechanicId, unitId: calls.unitId, completedAt: calls.completedAt,
+    odometerReading: calls.odometerReading, engineHoursReading: calls.engineHoursReading,
+  }).from(calls).where(eq(calls.id, inv.callId))
   const [mechanic] = call?.mechanicId ? await db.select({ name: users.name }).from(users).where(eq(users.id, call.mechanicId)) : []
   const [unit] = call?.unitId
-    ? await db.select({ odometer: units.odometer, odometerUnit: units.odometerUnit }).from(units).where(eq(units.id, call.unitId))
+    ? await db.select({ odometer: units.odometer, odometerUnit: units.odometerUnit, engineHours: units.engineHours })
+        .from(units).where(eq(units.id, call.unitId))
     : []
   const clock = await db.select({ at: clockEvents.deviceAt, createdAt: clockEvents.createdAt }).from(clockEvents)
     .where(eq(clockEvents.callId, inv.callId)).orderBy(asc(clockEvents.createdAt))
@@ -38,7 +41,8 @@ async function pdfFacts(inv: InvoiceDetail) {
       email: rate?.businessEmail ?? '', remit: rate?.remitAddress ?? '',
     },
     serviceDate, mechanic: mechanic?.name ?? null,
-    odometer: unit?.odometer != null ? `${unit.odometer.toLocaleString('en-US')} ${unit.odometerUnit}` : null,
+    // The reading taken at the truck on this call, else the unit's last known.
+    odometer: odometerShown(call, unit), engineHours: engineHoursShown(call, unit),
     images, day,
   }
 }
@@ -98,7 +102,8 @@ export async function renderInvoicePdf(inv: InvoiceDetail): Promise<Buffer> {
     ['Invoice date', d(inv.createdAt)], ['Due', d(inv.dueAt)], ['Terms', terms],
     ['Date of service', facts.serviceDate], ['Mechanic', facts.mechanic], ['PO', inv.call.poNumber],
     ['Unit', inv.call.unit ? [inv.call.unit.unitNumber, inv.call.unit.yearMakeModel].filter(Boolean).join(', ') : null],
-    ['VIN', inv.call.unit?.vin ?? null], ['Odometer', facts.odometer], ['Location', inv.call.locationText],
+    ['VIN', inv.call.unit?.vin ?? null], ['Odometer', facts.odometer], ['Engine hours', facts.engineHours],
+    ['Location', inv.call.locationText],
   ]
   doc.fontSize(10)
   const billTo = `Bill to: ${inv.customer.name}${inv.customer.billingEmail ? ` <${inv.customer.billingEmail}>` : ''}`

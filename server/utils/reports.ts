@@ -167,16 +167,16 @@ export const mechanicWeeksSql = (r: Ctx, cameBack: string) => sql`
     ), clocked AS (
       -- A week either side: the event before a start and the stop after it (a longer span is flagged, never billed).
       -- Each event's call is read by its key, not joined, so a year of events does not read every call. A
-      -- start's end is the first work stop or departure after it, found in the same pass (a window, not a
+      -- start's end is the first work stop, departure or pause after it, found in the same pass (a window, not a
       -- search per start).
       SELECT ce.call_id, (SELECT c.mechanic_id FROM calls c WHERE c.id = ce.call_id) AS mechanic_id, ce.kind,
         coalesce(ce.device_at, ce.created_at) AS at,
         lag(ce.kind) OVER (PARTITION BY ce.call_id ORDER BY coalesce(ce.device_at, ce.created_at)) AS prev,
-        min(coalesce(ce.device_at, ce.created_at)) FILTER (WHERE ce.kind IN ('work_stop', 'depart')) OVER (
+        min(coalesce(ce.device_at, ce.created_at)) FILTER (WHERE ce.kind IN ('work_stop', 'depart', 'pause')) OVER (
           PARTITION BY ce.call_id ORDER BY coalesce(ce.device_at, ce.created_at)
           RANGE BETWEEN CURRENT ROW AND UNBOUNDED FOLLOWING EXCLUDE GROUP) AS ends
       FROM clock_events ce
-      WHERE ce.flag IS NULL AND ce.kind IN ('work_start', 'work_stop', 'depart')
+      WHERE ce.flag IS NULL AND ce.kind IN ('work_start', 'work_stop', 'depart', 'pause')
         AND ${inZone(sql`coalesce(ce.device_at, ce.created_at)`, r, 7, 7)}
     ), labor AS (
       SELECT s.mechanic_id, ${week(localDay(sql`s.at`, r.zone))} AS week, sum(extract(epoch FROM s.ends - s.at)) / 3600 AS hours

@@ -55,7 +55,8 @@ export async function serviceReportFacts(callId: string) {
     unit: call.unit
       ? {
           number: call.unit.unitNumber, description: call.unit.yearMakeModel, vin: call.unit.vin,
-          odometer: call.unit.odometer != null ? `${call.unit.odometer.toLocaleString('en-US')} ${call.unit.odometerUnit}` : null,
+          // The reading taken at the truck on this call, else the unit's last known.
+          odometer: odometerShown(call, call.unit), engineHours: engineHoursShown(call, call.unit),
         }
       : null,
     story: {

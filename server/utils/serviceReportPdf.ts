@@ -72,8 +72,9 @@ export async function renderServiceReportPdf(r: ServiceReportFacts): Promise<Buf
 
   const unit = r.unit ? [r.unit.number, r.unit.description].filter(Boolean).join(', ') : null
   const facts: [string, string | null][] = [
-    ['Unit', unit], ['VIN', r.unit?.vin ?? null], ['Odometer', r.unit?.odometer ?? null], ['Date of service', r.serviceDate],
-    ['Mechanic', r.mechanic], ['Where', r.location], ['Outcome', r.outcome], ['Finished', r.completedOn],
+    ['Unit', unit], ['VIN', r.unit?.vin ?? null], ['Odometer', r.unit?.odometer ?? null], ['Engine hours', r.unit?.engineHours ?? null],
+    ['Date of service', r.serviceDate], ['Mechanic', r.mechanic], ['Where', r.location], ['Outcome', r.outcome],
+    ['Finished', r.completedOn],
   ]
   const top = doc.y
   facts.forEach(([label, value], i) => {

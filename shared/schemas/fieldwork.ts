@@ -184,3 +184,9 @@ export const estimatePlanInputSchema = z.object({
   laborHours: keypad(z.number({ message: 'Labor expected must be hours' }).min(0, 'Cannot be negative').max(168, 'At most 168 hours')
     .optional(), 'Labor expected'),
 }).transform(({ laborHours, ...r }) => ({ ...r, plannedLaborMinutes: Math.round((laborHours ?? 0) * 60) }))
+
+/** The odometer and engine hours typed at the truck; an empty box is no reading (null on the call). */
+export const truckReadingsInputSchema = z.object({
+  odometerReading: keypad(callFieldSchemas.odometerReading.optional(), 'Odometer'),
+  engineHoursReading: keypad(callFieldSchemas.engineHoursReading.optional(), 'Engine hours'),
+}).transform(v => ({ odometerReading: v.odometerReading ?? null, engineHoursReading: v.engineHoursReading ?? null }))

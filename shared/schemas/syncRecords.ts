@@ -8,12 +8,14 @@ import { CALL_OUTCOMES, CALL_STATUSES, type CallSyncField } from '../utils/callS
 import { callCancelSchema, dispatchFields } from './calls'
 import { cleanText } from './text'
 import { DECLINE_CHOICES } from './approvals'
+import { truckReadingFields } from './truckReadings'
 
 /** A drawn signature as a data URL; a few tens of KB in practice. */
 export const SIGNATURE_MAX_CHARS = 300_000
 
 export const READING_QUANTITIES = ['resistance', 'voltage', 'temperature', 'pressure', 'concentration', 'other'] as const
-export const CLOCK_KINDS = ['travel_start', 'arrive', 'work_start', 'work_stop', 'depart'] as const
+/** `pause` ends whatever runs on a call (travel or work) when its mechanic starts on another call. */
+export const CLOCK_KINDS = ['travel_start', 'arrive', 'work_start', 'work_stop', 'depart', 'pause'] as const
 export type ClockKind = (typeof CLOCK_KINDS)[number]
 export const FAULT_STATES = ['active', 'stored'] as const
 export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const
@@ -166,6 +168,7 @@ export const callFieldSchemas = {
   verification: z.record(z.string().max(60), z.unknown()).nullable(),
   followUp: text(2000).nullable(),
   afterDecline: z.enum(DECLINE_CHOICES, { message: `Expected one of ${DECLINE_CHOICES.join(', ')}` }).nullable(),
+  ...truckReadingFields,
   ...dispatchFields,
   customerId: uuid('customer id'),
   unitId: uuid('unit id').nullable(),

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { vinProblem } from '../utils/vin'
 import { optInt, optText, pageQuery, recordId, versionField } from './fields'
 import { cleanText, requiredText } from './text'
+import { ENGINE_HOURS_MAX, ODOMETER_MAX } from './truckReadings'
 
 export const ODOMETER_UNITS = ['km', 'mi'] as const
 
@@ -14,10 +15,11 @@ const unitFields = {
   vinOverrideReason: optText(300, 'The reason'),
   yearMakeModel: optText(120, 'Year, make and model'),
   engine: optText(120, 'Engine'),
-  odometer: optInt(0, 9_999_999, 'Odometer'),
+  odometer: optInt(0, ODOMETER_MAX, 'Odometer'),
   odometerUnit: z.enum(ODOMETER_UNITS, { message: 'Odometer is in km or mi' }),
   engineHours: z.number({ message: 'Engine hours must be a number' })
-    .min(0, 'Engine hours cannot be below 0').max(999_999, 'Engine hours cannot be above 999999').nullable().optional(),
+    .min(0, 'Engine hours cannot be below 0').max(ENGINE_HOURS_MAX, `Engine hours cannot be above ${ENGINE_HOURS_MAX}`)
+    .nullable().optional(),
   notes: optText(2000, 'Notes', { multiline: true }),
 }
 

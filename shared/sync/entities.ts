@@ -72,11 +72,13 @@ const keysOf = (s: { shape: object }) => Object.keys(s.shape)
 
 export const CLOCK_WORDS: Record<ClockKind, string> = {
   travel_start: 'Started driving', arrive: 'Arrived', work_start: 'Work started', work_stop: 'Work stopped', depart: 'Left the scene',
+  pause: 'Paused for another call',
 }
 
 export const CALL_FIELD_WORDS: Readonly<Record<string, string>> = {
   status: 'status', outcome: 'outcome', storyComplaint: 'complaint', storyCause: 'cause', storyCorrection: 'correction',
   sceneChecklist: 'scene checklist', verification: 'verification', followUp: 'follow-up', afterDecline: 'what was done after the decline',
+  odometerReading: 'odometer', engineHoursReading: 'engine hours',
   customerId: 'customer', unitId: 'unit',
   locationText: 'location', lat: 'latitude', lon: 'longitude', complaint: 'driver\'s complaint', lamps: 'lamps', derate: 'derate state',
   derateNote: 'derate note', loaded: 'loaded', hazmat: 'hazmat', safetyNotes: 'safety notes', callerName: 'caller',

@@ -31,7 +31,7 @@ export type BillingRates = BusinessHours & {
   environmentalFeeCents: number
 }
 
-export type ClockKind = 'travel_start' | 'arrive' | 'work_start' | 'work_stop' | 'depart'
+export type ClockKind = 'travel_start' | 'arrive' | 'work_start' | 'work_stop' | 'depart' | 'pause'
 /** A clock event; `flag` is set when the phone's clock could not be trusted for it (never billed). */
 export type BillingClockEvent = { id?: string, kind: ClockKind, at: string | Date, flag?: string | null }
 export type BillingPart = {
@@ -118,8 +118,9 @@ type Span = { start: number, end: number, ids: string[] }
 
 /**
  * Travel and labor spans from the clock events, in order of time. Travel runs from travel_start to
- * arrive; labor from each work_start to the next work_stop (or depart). An open span counts up to
- * `until`, so a running clock shows what has accrued so far.
+ * arrive; labor from each work_start to the next work_stop (or depart). A pause (the mechanic
+ * started on another call) ends either, so one mechanic never runs two clocks at once. An open span
+ * counts up to `until`, so a running clock shows what has accrued so far.
  */
 export function clockSpans(events: BillingClockEvent[], until: Date = new Date()): { travel: Span[], labor: Span[] } {
   const sorted = events.map(e => ({ kind: e.kind, id: e.id, t: new Date(e.at).getTime() }))
@@ -138,6 +139,11 @@ export function clockSpans(events: BillingClockEvent[], until: Date = new Date()
     else if ((e.kind === 'work_stop' || e.kind === 'depart') && workFrom) {
       labor.push({ start: workFrom.t, end: e.t, ids: ids(workFrom, e) })
       workFrom = null
+    }
+    if (e.kind === 'pause') {
+      if (travelFrom) travel.push({ start: travelFrom.t, end: e.t, ids: ids(travelFrom, e) })
+      if (workFrom) labor.push({ start: workFrom.t, end: e.t, ids: ids(workFrom, e) })
+      travelFrom = workFrom = null
     }
   }
   const end = until.getTime()

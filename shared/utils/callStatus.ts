@@ -81,13 +81,28 @@ export function canMoveStatus(from: CallStatus, to: CallStatus): boolean {
   return statusRank(to) > statusRank(from)
 }
 
+/** Statuses a mechanic's running clock can be paused from (they drove out, or are at the truck). */
+export const PAUSABLE_STATUSES = ['en_route', 'on_site'] as const satisfies readonly CallStatus[]
+
+/**
+ * A pause: the mechanic started on another of their calls, so this one goes back to assigned until
+ * they return to it. The one back move sync takes (see server/utils/sync/merge.ts).
+ */
+export function isPauseMove(from: CallStatus, to: CallStatus): boolean {
+  return to === 'assigned' && (PAUSABLE_STATUSES as readonly string[]).includes(from)
+}
+
 /**
  * The time columns a move writes (call properties → value). Forward, or to the same status as a
- * reassignment: its status's time. Back (a refund reopens a paid call): the later statuses' times
- * cleared, its own kept. statusChangedAt whenever the status changes.
+ * reassignment: its status's time. A pause keeps every time: enRouteAt (and onSiteAt) still say
+ * when the call was driven out to and reached, which is how the board knows a paused call from a
+ * fresh one (isPausedCall); the timeline holds the pause, and driving out again stamps enRouteAt
+ * anew. Back otherwise (a refund reopens a paid call): the later statuses' times cleared, its own
+ * kept. statusChangedAt whenever the status changes.
  */
 export function statusTimes(from: CallStatus, to: CallStatus, at: Date): Record<string, Date | null> {
   const set: Record<string, Date | null> = {}
+  if (isPauseMove(from, to)) return { statusChangedAt: at }
   const back = to !== 'cancelled' && from !== 'cancelled' && statusRank(to) < statusRank(from)
   if (back) for (const s of STATUS_ORDER.slice(statusRank(to) + 1, statusRank(from) + 1)) set[STATUS_TIME_FIELD[s]] = null
   else set[STATUS_TIME_FIELD[to]] = at
@@ -95,12 +110,15 @@ export function statusTimes(from: CallStatus, to: CallStatus, at: Date): Record<
   return set
 }
 
-/** Moves each role may make from the field (the phone's status buttons, by sync); billing and assignment have their own routes. */
+/**
+ * Moves each role may make from the field (the phone's status buttons, by sync); billing and
+ * assignment have their own routes. `assigned` only as a pause (isPauseMove), never as an assignment.
+ */
 export const FIELD_STATUS_TARGETS: Record<Role, readonly CallStatus[]> = {
-  mechanic: ['en_route', 'on_site', 'completed'],
-  office: ['en_route', 'on_site', 'completed'],
-  dispatcher: ['en_route', 'on_site', 'completed', 'cancelled'],
-  admin: ['en_route', 'on_site', 'completed', 'cancelled'],
+  mechanic: ['assigned', 'en_route', 'on_site', 'completed'],
+  office: ['assigned', 'en_route', 'on_site', 'completed'],
+  dispatcher: ['assigned', 'en_route', 'on_site', 'completed', 'cancelled'],
+  admin: ['assigned', 'en_route', 'on_site', 'completed', 'cancelled'],
 }
 
 /** Why an outcome cannot stand with this status (the calls table's rule), or undefined. */
@@ -113,6 +131,7 @@ export function outcomeProblem(status: CallStatus, outcome: unknown): string | u
 /** Field work is the mechanic's (the phone writes it); dispatch fields are the office's. */
 export const CALL_FIELD_WORK_FIELDS = [
   'status', 'outcome', 'storyComplaint', 'storyCause', 'storyCorrection', 'sceneChecklist', 'verification', 'followUp', 'afterDecline',
+  'odometerReading', 'engineHoursReading',
 ] as const
 export const CALL_DISPATCH_FIELDS = [
   'customerId', 'unitId', 'locationText', 'lat', 'lon', 'complaint', 'lamps', 'derate', 'derateNote', 'loaded', 'hazmat',

@@ -9,6 +9,7 @@ import { outcomeProblem, STATUS_TIME_FIELD, type CallStatus } from '#shared/util
 import type { CallSyncField } from '#shared/schemas/sync'
 import type { Tx } from '../db'
 import { moveCallStatus } from '../callMove'
+import { raiseUnitReadings } from '../truckReadings'
 
 export type CallRow = typeof tables.calls.$inferSelect
 
@@ -20,7 +21,11 @@ export function callOutcomeProblem(call: CallRow, changes: Partial<Record<CallSy
 /** When a move happened: the device's time when it was made on a phone, never before the call's last move nor after now. */
 export function moveTime(call: CallRow, deviceAt?: Date, now = new Date()): Date {
   if (!deviceAt) return now
-  const last = call[STATUS_TIME_FIELD[call.status]] ?? call.statusChangedAt ?? call.receivedAt
+  // The later of the two: a paused call is back at assigned, but its last move was the pause.
+  const stamped = call[STATUS_TIME_FIELD[call.status]]
+  const last = stamped && call.statusChangedAt
+    ? new Date(Math.max(stamped.getTime(), call.statusChangedAt.getTime()))
+    : stamped ?? call.statusChangedAt ?? call.receivedAt
   return boundedMoveTime(deviceAt, { after: last, now })
 }
 
@@ -35,5 +40,6 @@ export async function writeCallChanges(
     ? await moveCallStatus(tx, call, { to, by: user.id, at: moveTime(call, opts.deviceAt), also })
     : (await tx.update(tables.calls).set(also).where(eq(tables.calls.id, call.id)).returning())[0]
   if (!row) throw new Error(`call ${call.id} left its status while it was locked`)
+  await raiseUnitReadings(tx, row.unitId, also)
   return row
 }

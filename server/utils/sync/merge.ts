@@ -1,7 +1,8 @@
 // The three-way, per-field merge of a call update from a device (DESIGN.md, "Sync protocol").
 // Pure: no database, no Nitro globals, so unit tests import it directly.
 import {
-  CALL_FIELD_WRITERS, callFieldOwner, canMoveStatus, FIELD_STATUS_TARGETS, isBilledStatus, isLockedStatus, STATUS_LABELS, statusRank,
+  CALL_FIELD_WRITERS, callFieldOwner, canMoveStatus, FIELD_STATUS_TARGETS, isBilledStatus, isLockedStatus, isPauseMove, STATUS_LABELS,
+  statusRank,
   type CallStatus,
 } from '#shared/utils/callStatus'
 import type { Role } from '#shared/utils/roles'
@@ -55,8 +56,16 @@ export function lockedReason(field: string, status: CallStatus): string {
   return field === 'status' ? 'status: the call was cancelled' : `${field}: the call was cancelled and takes no more field changes`
 }
 
-/** Status moves ignore base: the order itself decides, and a stale move never drags a call back. */
+/**
+ * Status moves ignore base: the order itself decides, and a stale move never drags a call back. A
+ * pause (en route or at the truck → assigned) is the one back move taken: the phone sends it only
+ * when its mechanic starts on another call; a call already done keeps its status (below).
+ */
 function mergeStatus(from: CallStatus, to: CallStatus): MergeDecision {
+  if (isPauseMove(from, to)) return { action: 'take', value: to }
+  if (to === 'assigned' && statusRank(from) < statusRank(to)) {
+    return { action: 'reject', reason: 'status: a call is assigned on the dispatch board; sync moves it to assigned only as a pause' }
+  }
   if (canMoveStatus(from, to)) return { action: 'take', value: to }
   if (to === 'cancelled') {
     return { action: 'conflict', reason: `status: a call that is ${STATUS_LABELS[from].toLowerCase()} cannot be cancelled` }
