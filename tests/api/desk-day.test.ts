@@ -40,7 +40,8 @@ describe('a second call for a unit that already has an open call', () => {
     expect(list.body.items.every((c: any) => c.unit.id === unitId && c.complaint)).toBe(true)
 
     // A cancelled call is no longer open: it drops out of both.
-    const cancel = await dispatcher.post(`/api/calls/${first.body.id}/cancel`, { reason: 'Same breakdown phoned in twice', version: first.body.version })
+    const reason = 'Same breakdown phoned in twice'
+    const cancel = await dispatcher.post(`/api/calls/${first.body.id}/cancel`, { reason, version: first.body.version })
     expect(cancel.status).toBe(200)
     const after = await dispatcher.get(`/api/calls?unitId=${unitId}&open=1`)
     expect(after.body.items.map((c: any) => c.id)).toEqual([second.body.id])
