@@ -40,7 +40,7 @@ export function ratesToForm(r: RatesRow | null | undefined) {
     openDays: [...(r?.openDays ?? [1, 2, 3, 4, 5, 6, 7])], holidays: (r?.holidays ?? []).join('\n'),
     businessName: r?.businessName ?? '', businessPhone: r?.businessPhone ?? '',
     businessEmail: r?.businessEmail ?? '', remitAddress: r?.remitAddress ?? '',
-    statusLinkDays: String(r?.statusLinkDays ?? 14),
+    statusLinkDays: String(r?.statusLinkDays ?? 14), alarmMinutes: String(r?.assignmentAlarmMinutes ?? 10),
   }
 }
 export type RatesForm = ReturnType<typeof ratesToForm>
@@ -59,5 +59,6 @@ export function ratesFromForm(f: RatesForm) {
     openMinute: minuteFromText(f.open), closeMinute: minuteFromText(f.close), openDays: [...f.openDays].sort(),
     holidays: f.holidays.split(/[\s,]+/).filter(Boolean), businessName: f.businessName, businessPhone: f.businessPhone,
     businessEmail: f.businessEmail, remitAddress: f.remitAddress, statusLinkDays: numberFromText(f.statusLinkDays),
+    assignmentAlarmMinutes: numberFromText(f.alarmMinutes),
   }
 }

@@ -192,6 +192,8 @@ export const rates = pgTable('rates', {
   remitAddress: text('remit_address').notNull().default(''),
   /** How many days a fleet's status link stays open at most (it also closes when the call is paid). */
   statusLinkDays: integer('status_link_days').notNull().default(14),
+  /** Minutes an assignment may wait for the mechanic to set off before the dispatch board turns it red. */
+  assignmentAlarmMinutes: integer('assignment_alarm_minutes').notNull().default(10),
   effectiveFrom: ts('effective_from').notNull().defaultNow(),
   ...synced,
 }, t => [
@@ -201,6 +203,7 @@ export const rates = pgTable('rates', {
   check('rates_travel_basis', sql`${t.travelBasis} IN ('distance', 'time')`),
   check('rates_hours', sql`${t.openMinute} BETWEEN 0 AND 1440 AND ${t.closeMinute} BETWEEN 0 AND 1440`),
   check('rates_status_link_days', sql`${t.statusLinkDays} BETWEEN 1 AND 90`),
+  check('rates_assignment_alarm', sql`${t.assignmentAlarmMinutes} BETWEEN 1 AND 240`),
   check('rates_fees_nonneg', sql`${t.travelCentsPerHour} >= 0 AND ${t.shopSuppliesBasisPoints} >= 0 AND ${
     sql`${t.environmentalFeeCents} >= 0 AND ${t.roadFactorPct} >= 100`}`),
 ])

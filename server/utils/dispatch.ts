@@ -152,6 +152,8 @@ export async function suggestionsFor(call: CallRow) {
     callPosition: at,
     averageRoadKph,
     averageRoadKphFromRates: !!rates,
+    /** Distances are shown in the unit the business bills travel in. */
+    distanceUnit: rates?.travelUnit === 'mi' ? 'mi' as const : 'km' as const,
     items: ranked.map(r => ({ ...r, openCalls: r.mechanic.openCalls, assignedHere: call.mechanicId === r.mechanic.id })),
   }
 }

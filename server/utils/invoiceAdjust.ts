@@ -96,6 +96,7 @@ export async function invoiceView(id: string) {
     ...invoice, ...(await draftHistory(row!)), flags: await invoiceFlags(invoice.callId, invoice.totalCents),
     approvals: await invoiceApprovals({ ...invoice, ratesId: row!.ratesId }),
     signedEstimates: await signedEstimatesOf(invoice.callId),
+    signOff: await signOffOf(invoice.callId),
     photos: photos.map(x => ({
       ...x, url: `/api/photos/${x.id}`, pending: !x.uploadedAt, printable: x.contentType === 'image/jpeg' || x.contentType === 'image/png',
     })),

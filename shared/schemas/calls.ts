@@ -22,7 +22,9 @@ export const callListQuerySchema = z.object({
     }
     return list as CallStatus[]
   }),
-  open: z.enum(['true', 'false']).optional().transform(v => v === 'true'),
+  // `open=1` as well as `open=true`, since both get typed into addresses.
+  open: z.enum(['true', 'false', '1', '0'], { message: 'open is true or false (or 1 or 0)' }).optional()
+    .transform(v => v === 'true' || v === '1'),
   mechanicId: z.string().uuid('Not a valid mechanic id').optional(),
   customerId: z.string().uuid('Not a valid customer id').optional(),
   unitId: z.string().uuid('Not a valid unit id').optional(),

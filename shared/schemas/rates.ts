@@ -48,6 +48,8 @@ export const ratesSchema = z.object({
   businessEmail: text('Business e-mail', 200).default(''),
   remitAddress: text('Remit-to address', 300).default(''),
   statusLinkDays: whole('Status link lifetime', 1, 90, 'A status link lasts at most 90 days').default(14),
+  /** Minutes an assignment may go unacted on (not en route) before the board turns it red. */
+  assignmentAlarmMinutes: whole('Assignment alarm', 1, 240, 'The assignment alarm is at most 240 minutes (4 hours)').default(10),
 }).refine(r => r.closeMinute > r.openMinute || (r.openMinute === 0 && r.closeMinute === 0),
   { message: 'Closing time must be after opening time', path: ['closeMinute'] })
 export type RatesInput = z.input<typeof ratesSchema>

@@ -42,3 +42,9 @@ export const idParamsSchema = z.object({ id: z.string().trim().toLowerCase().uui
 
 export type UserCreateInput = z.input<typeof userCreateSchema>
 export type UserPatchInput = z.input<typeof userPatchSchema>
+
+/** Start or end a shift: a mechanic for themself (POST /api/me/duty), dispatch for a mechanic (POST /api/mechanics/[id]/duty). */
+export const dutySchema = z.object({
+  onDuty: z.boolean({ message: 'Say whether on duty: true or false' }),
+})
+export type DutyInput = z.input<typeof dutySchema>

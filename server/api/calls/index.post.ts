@@ -5,5 +5,7 @@ export default defineEventHandler(async (event) => {
   const input = await readValidatedBody(event, validateWith(callCreateSchema))
   const { call, mail } = await createCall(input, user)
   setResponseStatus(event, 201)
-  return { ...(await getCallRecord(call.id))!, mail }
+  // Said at once, so the dispatcher can tell the caller "we already have someone on that truck".
+  const openCallsOnSameUnit = await openCallsOnUnit(call.unitId, call.id)
+  return { ...(await getCallRecord(call.id))!, mail, openCallsOnSameUnit }
 })

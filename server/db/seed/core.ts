@@ -15,13 +15,19 @@ export const DEMO_USERS = [
   { key: 'admin', email: 'admin@wayside.test', name: 'Ada Okafor', role: 'admin' },
   { key: 'dispatch', email: 'dispatch@wayside.test', name: 'Dee Marchetti', role: 'dispatcher' },
   { key: 'office', email: 'office@wayside.test', name: 'Olu Brandt', role: 'office' },
-  { key: 'mech1', email: 'mech1@wayside.test', name: 'Marco Lindqvist', role: 'mechanic', lat: 45.512, lon: -92.981, truck: 'Truck 11' },
-  { key: 'mech2', email: 'mech2@wayside.test', name: 'Priya Haldane', role: 'mechanic', lat: 45.301, lon: -93.402, truck: 'Truck 12' },
+  { key: 'mech1', email: 'mech1@wayside.test', name: 'Marco Lindqvist', role: 'mechanic', lat: 45.512, lon: -92.981, truck: 'Truck 11',
+    phone: '555-0151',
+  },
+  { key: 'mech2', email: 'mech2@wayside.test', name: 'Priya Haldane', role: 'mechanic', lat: 45.301, lon: -93.402, truck: 'Truck 12',
+    phone: '555-0152',
+  },
   {
     key: 'mech3', email: 'mech3@wayside.test', name: 'Tomasz Reyes', role: 'mechanic', lat: 45.078, lon: -93.115, truck: 'Truck 21',
-    offDuty: true,
+    offDuty: true, phone: '555-0153',
   },
-  { key: 'mech4', email: 'mech4@wayside.test', name: 'Sunniva Adeyemi', role: 'mechanic', lat: 45.164, lon: -93.236, truck: 'Truck 22' },
+  { key: 'mech4', email: 'mech4@wayside.test', name: 'Sunniva Adeyemi', role: 'mechanic', lat: 45.164, lon: -93.236, truck: 'Truck 22',
+    phone: '555-0154',
+  },
   // A new hire whose phone has not synced yet: no known position.
   { key: 'mech5', email: 'mech5@wayside.test', name: 'Levi Castellanos', role: 'mechanic' },
 ] as const
@@ -85,6 +91,7 @@ export async function seedCore(db: Db) {
     lastLat: 'lat' in u ? u.lat : null, lastLon: 'lon' in u ? u.lon : null,
     lastPositionAt: 'lat' in u ? new Date() : null,
     onDuty: !('offDuty' in u && u.offDuty),
+    phone: 'phone' in u ? u.phone : null,
     homeTruckId: 'truck' in u ? seedId(`truck:${u.truck}`) : null,
   }))).onConflictDoNothing()
 

@@ -1,0 +1,2 @@
+ALTER TABLE "rates" ADD COLUMN "assignment_alarm_minutes" integer DEFAULT 10 NOT NULL;--> statement-breakpoint
+ALTER TABLE "rates" ADD CONSTRAINT "rates_assignment_alarm" CHECK ("rates"."assignment_alarm_minutes" BETWEEN 1 AND 240);
