@@ -57,6 +57,10 @@ test('at 360 px the next-step button walks a call from assigned to the driver\'s
     expect(await b.evaluate(el => el.scrollWidth <= el.clientWidth)).toBe(true)
   }
   await shot(page, 'field-next-step-top-360')
+  // Clear of the bar fixed at the bottom of the screen for its picture.
+  await bar.evaluate(el => el.scrollIntoView({ block: 'center' }))
+  await shotOf(bar, 'field-jump-nav-360')
+  await page.evaluate(() => window.scrollTo(0, 0))
 
   const next = page.getByTestId('next-step')
   const button = next.getByRole('button')
@@ -78,7 +82,7 @@ test('at 360 px the next-step button walks a call from assigned to the driver\'s
   // The scene: the button goes to the checklist and puts the focus there.
   await button.click()
   await expect(section('scene-title')).toBeFocused()
-  for (const box of await page.getByRole('group', { name: 'Every call' }).getByRole('checkbox').all()) await box.check()
+  for (const box of await page.getByRole('region', { name: 'Every call' }).getByRole('checkbox').all()) await box.check()
   await expect(next).toHaveAttribute('data-step', 'work', { timeout: 10_000 })
   await page.evaluate(() => window.scrollTo(0, 0))
   await button.click()
