@@ -77,6 +77,11 @@ test('one fault-code form on the call: typed codes decoded live, the returned fl
   await openCall(page, call)
   const codes = page.getByRole('region', { name: /Fault codes/ })
   const seeded = codes.getByRole('article', { name: 'Fault code SPN 3242 FMI 4' }).first()
+  // Marking a code cleared waits for the repair: record it first (the correction).
+  await expect(seeded.getByTestId('clear-after-repair')).toContainText('comes after the repair')
+  await expect(seeded.getByRole('button', { name: 'Mark cleared after the repair' })).toHaveCount(0)
+  await page.getByLabel(/^Correction/).fill('Replaced the exhaust temperature sensor.')
+  await page.getByRole('button', { name: 'Save the story' }).click()
   await seeded.getByRole('button', { name: 'Mark cleared after the repair' }).click()
   await expect(seeded).toContainText('Cleared')
   await codes.getByRole('button', { name: 'Add a fault code' }).click()

@@ -164,6 +164,11 @@ test('fault codes at the card picker: decoded as typed, cleared, and flagged as 
   const page = await ctx.newPage()
   await signIn(page, 'mech2@wayside.test')
   await expect(page.getByRole('list', { name: 'Open calls' }).getByRole('link', { name: /#5/ })).toBeVisible()
+  // Marking a code cleared waits for the repair: the correction goes on record first, on the call page.
+  await page.goto(`/m/calls/${CALL_5}`)
+  await page.getByLabel(/^Correction/).fill('Replaced the exhaust temperature sensor.')
+  await page.getByRole('button', { name: 'Save the story' }).click()
+  await expect(page.getByText('Story saved on the phone')).toBeVisible()
   await page.goto(`/m/calls/${CALL_5}/test`)
   const seeded = page.getByRole('article', { name: 'Fault code SPN 3242 FMI 4' })
   // SAE J1939-73 FMI 4 (REFERENCES §4): voltage below normal or shorted low

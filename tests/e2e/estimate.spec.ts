@@ -133,11 +133,12 @@ test('past 80 % and 100 % offline, ask, the fleet approves, new limit on the pho
   await page.getByTestId('estimate').scrollIntoViewIfNeeded()
   await shot(page, 'estimate-approved-360')
 
-  // The driver signs beside the work done, the hours and the amount.
-  const amount = page.getByTestId('signoff-amount')
-  await amount.scrollIntoViewIfNeeded()
-  await expect(amount).toContainText('$')
-  await expect(amount).toContainText(' h')
+  // The driver signs beneath the work and the hours; an account customer's amount goes on the fleet's invoice.
+  const summary = page.getByTestId('signoff-summary')
+  await summary.scrollIntoViewIfNeeded()
+  await expect(page.getByTestId('signoff-hours')).toContainText(' min')
+  await expect(summary).toContainText('The amount goes on the invoice to Prairie Cold Haul')
+  await expect(page.getByTestId('signoff-amount')).toHaveCount(0)
   await shot(page, 'estimate-signoff-amount-360')
   await Promise.all([ctx.close(), office.close(), fleetCtx.close()])
 })
