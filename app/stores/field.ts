@@ -5,13 +5,14 @@
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { ref } from 'vue'
 import { describeFaultCode } from '#shared/utils/dtc'
-import {
-  RECORD_COLLECTION, commitChanges, readBundle, readBundles, readOutbox,
-  type CallBundle, type CallRecord, type CollectionRows, type CustomerRecord, type DeviceRow, type LocalChange, type OutboxEntry,
-  type RecordEntity, type UnitRecord,
+import { readBundle, readDeviceLists } from '../utils/deviceRead'
+import type {
+  CallBundle, CallRecord, CollectionRows, CustomerRecord, DeviceRow, LocalChange, OutboxEntry, RecordEntity, UnitRecord,
 } from '../utils/fieldDb'
-import { readPhotoQueue } from '../utils/syncApply'
 import { useOutboxStore } from './outbox'
+
+// The write path (op checks and their schemas) loads on the first write, not with the screens that only read.
+const writer = () => import('../utils/fieldDb')
 
 export type AddableEntity = RecordEntity
 export type UpdatableEntity = 'faultCode' | 'testRun'
@@ -94,8 +95,9 @@ export const useFieldStore = defineStore('field', () => {
   const current = ref<CallView | null>(null)
 
   async function loadCall(callId: string): Promise<CallView | null> {
-    const [bundle, all, outbox] = await Promise.all([readBundle(callId), readBundles(), readOutbox()])
-    const view = bundle ? viewOf(bundle, all.filter(o => o.id !== callId), outbox) : null
+    const { bundles, outbox } = await readDeviceLists()
+    const bundle = bundles.find(b => b.id === callId)
+    const view = bundle ? viewOf(bundle, bundles.filter(o => o.id !== callId), outbox) : null
     current.value = view
     return view
   }
@@ -107,10 +109,11 @@ export const useFieldStore = defineStore('field', () => {
 
   /** Adds an append-only record to a call; returns its id. */
   async function addRecord(entity: AddableEntity, record: Record<string, unknown> & { callId: string, id?: string }): Promise<string> {
+    const { RECORD_COLLECTION, commitChanges } = await writer()
     if (!(entity in RECORD_COLLECTION)) throw new Error(`Unknown record kind ${entity}`)
     const { id: given, ...fields } = record
     const id = given ?? crypto.randomUUID()
-    await commitChanges(record.callId, [createChange(entity, id, fields)])
+    await commitChanges(record.callId, [createChange(RECORD_COLLECTION, entity, id, fields)])
     await afterWrite(record.callId)
     return id
   }
@@ -119,7 +122,8 @@ export const useFieldStore = defineStore('field', () => {
   async function updateRecord(
     entity: UpdatableEntity, id: string, changes: Record<string, unknown>, base?: Record<string, unknown>,
   ): Promise<void> {
-    const bundle = (await readBundles()).find(b => b.records[RECORD_COLLECTION[entity]]?.[id])
+    const { RECORD_COLLECTION, commitChanges } = await writer()
+    const bundle = (await readDeviceLists()).bundles.find(b => b.records[RECORD_COLLECTION[entity]]?.[id])
     if (!bundle) throw new Error('That record is not on the phone')
     const rec = bundle.records[RECORD_COLLECTION[entity]][id]!
     await commitChanges(bundle.id, [{
@@ -146,7 +150,7 @@ export const useFieldStore = defineStore('field', () => {
   async function writeCall(
     callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
   ) {
-    const bundle = await readBundle(callId)
+    const [{ RECORD_COLLECTION, commitChanges }, bundle] = await Promise.all([writer(), readBundle(callId)])
     if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
     const list: LocalChange[] = []
     if (Object.keys(changes).length) {
@@ -157,7 +161,7 @@ export const useFieldStore = defineStore('field', () => {
         apply: (b, _at, checked) => { b.call = { ...b.call, ...checked } },
       })
     }
-    for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId }))
+    for (const r of records) list.push(createChange(RECORD_COLLECTION, r.entity, crypto.randomUUID(), { ...r.record, callId }))
     await commitChanges(callId, list)
     await afterWrite(callId)
   }
@@ -169,11 +173,12 @@ export const useFieldStore = defineStore('field', () => {
   async function addPhoto(
     callId: string, photo: { bytes: ArrayBuffer, contentType: string, caption?: string, thumb?: string },
   ): Promise<string> {
+    const { RECORD_COLLECTION, commitChanges } = await writer()
     const id = crypto.randomUUID()
     const sha256 = await sha256Hex(photo.bytes)
     const fields: Record<string, unknown> = { callId, contentType: photo.contentType, sizeBytes: photo.bytes.byteLength, sha256 }
     if (photo.caption) fields.caption = photo.caption
-    const change = createChange('photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
+    const change = createChange(RECORD_COLLECTION, 'photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
     const { bytes, contentType } = photo
     change.photo = { id, callId, bytes, sha256, contentType, size: bytes.byteLength, opApplied: false, tries: 0 }
     await commitChanges(callId, [change])
@@ -185,6 +190,7 @@ export const useFieldStore = defineStore('field', () => {
   async function resolveConflict(callId: string, conflictId: string, choice: 'device' | 'server' | 'value', value?: unknown) {
     const changes: Record<string, unknown> = { conflictId, choice }
     if (choice === 'value') changes.value = value
+    const { commitChanges } = await writer()
     await commitChanges(callId, [{
       entity: 'conflictResolution', entityId: conflictId, action: 'create', changes,
       apply: (b) => {
@@ -197,8 +203,8 @@ export const useFieldStore = defineStore('field', () => {
 
   /** Calls on the phone with how many of their changes wait to sync. */
   async function listCalls() {
-    const [all, outbox, photos] = await Promise.all([readBundles(), readOutbox(), readPhotoQueue()])
-    return all.map(b => ({
+    const { bundles, outbox, photos } = await readDeviceLists({ photos: true })
+    return bundles.map(b => ({
       call: b.call, unit: b.unit, customer: b.customer, revoked: !!b.revoked,
       waiting: outbox.filter(e => e.callId === b.id && e.state === 'pending').length + photos.filter(p => p.callId === b.id).length,
       rejected: outbox.filter(e => e.callId === b.id && e.state === 'rejected').length,
@@ -210,11 +216,12 @@ export const useFieldStore = defineStore('field', () => {
 
 /** A create op; `localOnly` fields (a thumbnail) stay on the phone and are not sent. */
 function createChange(
-  entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {},
+  collections: Record<AddableEntity, keyof CallBundle['records']>, entity: AddableEntity, id: string, fields: Record<string, unknown>,
+  localOnly: Record<string, unknown> = {},
 ): LocalChange {
   return {
     entity, entityId: id, action: 'create', changes: fields,
-    apply: (b, at, checked) => { b.records[RECORD_COLLECTION[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },
+    apply: (b, at, checked) => { b.records[collections[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },
   }
 }
 
