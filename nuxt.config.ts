@@ -24,6 +24,9 @@ export default defineNuxtConfig({
     },
   },
   css: ['~/assets/css/main.css'],
+  // Painted by the offline shell (and any page rendered in the browser) before the app's scripts
+  // run: the phone shows its bar and a line at once, not a blank screen (app/spa-loading-template.html).
+  spaLoadingTemplate: 'spa-loading-template.html',
   runtimeConfig: {
     // Every value can be set by NUXT_<NAME> at run time (see README, Configuration).
     databaseUrl: 'postgres://wayside@127.0.0.1:54329/wayside',

@@ -31,10 +31,15 @@ export function useCurrentUser() {
   async function resolve(): Promise<User | null> {
     if (loggedIn.value) return user.value as User
     if (!import.meta.client) return null
-    // The session plugin may have failed for lack of network; ask once more, then fall back.
-    const answer = await $fetch<{ user?: User }>('/api/_auth/session', { retry: 0, timeout: 5000 }).catch(() => 'unreachable' as const)
+    // The person remembered here is read beside the request, and with no network at all the
+    // request is not even tried: the phone's screens paint without waiting on it.
+    const remembered = deviceUser()
+    const answer = navigator.onLine === false
+      ? 'unreachable' as const
+      // The session plugin may have failed for lack of network; ask once more, then fall back.
+      : await $fetch<{ user?: User }>('/api/_auth/session', { retry: 0, timeout: 5000 }).catch(() => 'unreachable' as const)
     if (answer === 'unreachable') {
-      offlineUser.value = (await deviceUser()) ?? null
+      offlineUser.value = (await remembered) ?? null
       return offlineUser.value
     }
     if (answer.user) {

@@ -7,13 +7,14 @@ import { ref } from 'vue'
 import { describeFaultCode } from '#shared/utils/dtc'
 import { isPauseMove, type CallStatus } from '#shared/utils/callStatus'
 import { runningCalls } from '../utils/fieldClock'
-import {
-  RECORD_COLLECTION, commitCallGroups, commitChanges, readBundle, readBundles, readOutbox,
-  type CallBundle, type CallRecord, type CollectionRows, type CustomerRecord, type DeviceRow, type LocalChange, type OutboxEntry,
-  type RecordEntity, type UnitRecord,
+import { readBundle, readBundles, readDeviceLists } from '../utils/deviceRead'
+import type {
+  CallBundle, CallRecord, CollectionRows, CustomerRecord, DeviceRow, LocalChange, OutboxEntry, RecordEntity, UnitRecord,
 } from '../utils/fieldDb'
-import { readPhotoQueue } from '../utils/syncApply'
 import { useOutboxStore } from './outbox'
+
+// The write path (op checks and their schemas) loads on the first write, not with the screens that only read.
+const writer = () => import('../utils/fieldDb')
 
 export type AddableEntity = RecordEntity
 export type UpdatableEntity = 'faultCode' | 'testRun'
@@ -104,8 +105,9 @@ export const useFieldStore = defineStore('field', () => {
   const current = ref<CallView | null>(null)
 
   async function loadCall(callId: string): Promise<CallView | null> {
-    const [bundle, all, outbox] = await Promise.all([readBundle(callId), readBundles(), readOutbox()])
-    const view = bundle ? viewOf(bundle, all.filter(o => o.id !== callId), outbox) : null
+    const { bundles, outbox } = await readDeviceLists()
+    const bundle = bundles.find(b => b.id === callId)
+    const view = bundle ? viewOf(bundle, bundles.filter(o => o.id !== callId), outbox) : null
     current.value = view
     return view
   }
@@ -117,10 +119,11 @@ export const useFieldStore = defineStore('field', () => {
 
   /** Adds an append-only record to a call; returns its id. */
   async function addRecord(entity: AddableEntity, record: Record<string, unknown> & { callId: string, id?: string }): Promise<string> {
+    const { RECORD_COLLECTION, commitChanges } = await writer()
     if (!(entity in RECORD_COLLECTION)) throw new Error(`Unknown record kind ${entity}`)
     const { id: given, ...fields } = record
     const id = given ?? crypto.randomUUID()
-    await commitChanges(record.callId, [createChange(entity, id, fields)])
+    await commitChanges(record.callId, [createChange(RECORD_COLLECTION, entity, id, fields)])
     await afterWrite(record.callId)
     return id
   }
@@ -129,7 +132,8 @@ export const useFieldStore = defineStore('field', () => {
   async function updateRecord(
     entity: UpdatableEntity, id: string, changes: Record<string, unknown>, base?: Record<string, unknown>,
   ): Promise<void> {
-    const bundle = (await readBundles()).find(b => b.records[RECORD_COLLECTION[entity]]?.[id])
+    const { RECORD_COLLECTION, commitChanges } = await writer()
+    const bundle = (await readDeviceLists()).bundles.find(b => b.records[RECORD_COLLECTION[entity]]?.[id])
     if (!bundle) throw new Error('That record is not on the phone')
     const rec = bundle.records[RECORD_COLLECTION[entity]][id]!
     await commitChanges(bundle.id, [{
@@ -156,9 +160,9 @@ export const useFieldStore = defineStore('field', () => {
   async function writeCall(
     callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
   ) {
-    const bundle = await readBundle(callId)
+    const [{ RECORD_COLLECTION, commitChanges }, bundle] = await Promise.all([writer(), readBundle(callId)])
     if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
-    await commitChanges(callId, callChanges(bundle, changes, records))
+    await commitChanges(callId, callChanges(RECORD_COLLECTION, bundle, changes, records))
     await afterWrite(callId)
   }
 
@@ -172,16 +176,16 @@ export const useFieldStore = defineStore('field', () => {
   async function startCall(
     callId: string, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
   ): Promise<number[]> {
-    const all = await readBundles()
+    const [{ RECORD_COLLECTION, commitCallGroups }, all] = await Promise.all([writer(), readBundles()])
     const bundle = all.find(b => b.id === callId)
     if (!bundle) throw new Error('This call is not on the phone; open it once with signal first')
     const running = runningCalls(all.map(clocked), callId)
     const groups = running.map((r) => {
       const other = all.find(b => b.id === r.id)!
       const back = isPauseMove(r.status as CallStatus, 'assigned') ? { status: 'assigned' } : {}
-      return { callId: r.id, list: callChanges(other, back, [{ entity: 'clockEvent', record: { kind: 'pause' } }]) }
+      return { callId: r.id, list: callChanges(RECORD_COLLECTION, other, back, [{ entity: 'clockEvent', record: { kind: 'pause' } }]) }
     })
-    await commitCallGroups([...groups, { callId, list: callChanges(bundle, changes, records) }])
+    await commitCallGroups([...groups, { callId, list: callChanges(RECORD_COLLECTION, bundle, changes, records) }])
     await afterWrite(callId)
     return running.map(r => r.number)
   }
@@ -193,11 +197,12 @@ export const useFieldStore = defineStore('field', () => {
   async function addPhoto(
     callId: string, photo: { bytes: ArrayBuffer, contentType: string, caption?: string, thumb?: string },
   ): Promise<string> {
+    const { RECORD_COLLECTION, commitChanges } = await writer()
     const id = crypto.randomUUID()
     const sha256 = await sha256Hex(photo.bytes)
     const fields: Record<string, unknown> = { callId, contentType: photo.contentType, sizeBytes: photo.bytes.byteLength, sha256 }
     if (photo.caption) fields.caption = photo.caption
-    const change = createChange('photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
+    const change = createChange(RECORD_COLLECTION, 'photo', id, fields, photo.thumb ? { thumb: photo.thumb } : {})
     const { bytes, contentType } = photo
     change.photo = { id, callId, bytes, sha256, contentType, size: bytes.byteLength, opApplied: false, tries: 0 }
     await commitChanges(callId, [change])
@@ -209,6 +214,7 @@ export const useFieldStore = defineStore('field', () => {
   async function resolveConflict(callId: string, conflictId: string, choice: 'device' | 'server' | 'value', value?: unknown) {
     const changes: Record<string, unknown> = { conflictId, choice }
     if (choice === 'value') changes.value = value
+    const { commitChanges } = await writer()
     await commitChanges(callId, [{
       entity: 'conflictResolution', entityId: conflictId, action: 'create', changes,
       apply: (b) => {
@@ -221,8 +227,8 @@ export const useFieldStore = defineStore('field', () => {
 
   /** Calls on the phone with how many of their changes wait to sync. */
   async function listCalls() {
-    const [all, outbox, photos] = await Promise.all([readBundles(), readOutbox(), readPhotoQueue()])
-    return all.map(b => ({
+    const { bundles, outbox, photos } = await readDeviceLists({ photos: true })
+    return bundles.map(b => ({
       call: b.call, unit: b.unit, customer: b.customer, revoked: !!b.revoked,
       waiting: outbox.filter(e => e.callId === b.id && e.state === 'pending').length + photos.filter(p => p.callId === b.id).length,
       rejected: outbox.filter(e => e.callId === b.id && e.state === 'rejected').length,
@@ -234,7 +240,7 @@ export const useFieldStore = defineStore('field', () => {
 
 /** A call update (base: what the phone last had) and the records that go with it, as local changes. */
 function callChanges(
-  bundle: CallBundle, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
+  collections: Record<AddableEntity, keyof CallBundle['records']>, bundle: CallBundle, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
 ): LocalChange[] {
   const list: LocalChange[] = []
   if (Object.keys(changes).length) {
@@ -245,17 +251,18 @@ function callChanges(
       apply: (b, _at, checked) => { b.call = { ...b.call, ...checked } },
     })
   }
-  for (const r of records) list.push(createChange(r.entity, crypto.randomUUID(), { ...r.record, callId: bundle.id }))
+  for (const r of records) list.push(createChange(collections, r.entity, crypto.randomUUID(), { ...r.record, callId: bundle.id }))
   return list
 }
 
 /** A create op; `localOnly` fields (a thumbnail) stay on the phone and are not sent. */
 function createChange(
-  entity: AddableEntity, id: string, fields: Record<string, unknown>, localOnly: Record<string, unknown> = {},
+  collections: Record<AddableEntity, keyof CallBundle['records']>, entity: AddableEntity, id: string, fields: Record<string, unknown>,
+  localOnly: Record<string, unknown> = {},
 ): LocalChange {
   return {
     entity, entityId: id, action: 'create', changes: fields,
-    apply: (b, at, checked) => { b.records[RECORD_COLLECTION[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },
+    apply: (b, at, checked) => { b.records[collections[entity]][id] = { ...checked, ...localOnly, id, deviceAt: at } },
   }
 }
 

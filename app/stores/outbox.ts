@@ -3,8 +3,8 @@
 // The sync pass that empties it is app/utils/syncClient.ts, run by the sync store.
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import { readBundles, readJournal, readOutbox, type JournalEntry, type OutboxEntry } from '../utils/fieldDb'
-import { readPhotoQueue } from '../utils/syncApply'
+import { readDeviceLists } from '../utils/deviceRead'
+import type { JournalEntry, OutboxEntry } from '../utils/fieldDb'
 
 export type PhotoWaiting = { id: string, callId: string, size: number, opApplied: boolean, tries: number, lastError?: string }
 /** An open conflict on one of the phone's calls that no choice has been made for yet. */
@@ -26,7 +26,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   const isEmpty = computed(() => entries.value.length === 0 && photos.value.length === 0)
 
   async function refresh() {
-    const [o, j, p, bundles] = await Promise.all([readOutbox(), readJournal(50), readPhotoQueue(), readBundles()])
+    const { outbox: o, journal: j, photos: p, bundles } = await readDeviceLists({ photos: true, journal: 50 })
     settle.value = bundles.flatMap(b => Object.values(b.records.conflicts ?? {})
       .filter(c => (c.status ?? 'open') === 'open' && !c.pendingChoice)
       .map(c => ({

@@ -7,14 +7,16 @@
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { ref, watch } from 'vue'
 import { nextRetryDelay } from '../utils/backoff'
-import { claimDevice, getMeta } from '../utils/fieldDb'
-import { SyncStop, syncPass, type SyncFailure, type SyncFetch, type SyncPosition } from '../utils/syncClient'
+import { getMeta } from '../utils/deviceRead'
+import type { SyncFailure, SyncFetch, SyncPosition } from '../utils/syncClient'
 import { useOutboxStore } from './outbox'
 
 export type SyncOutcome = { ok: true, changedCalls: string[] } | { ok: false, kind: SyncFailure, message: string, retryAfterMs?: number }
 
 const PERIOD_MS = 60_000
 const AFTER_WRITE_MS = 1500
+// The pass itself (push, pull, their schemas) loads when the first pass runs, after the screen has painted.
+const engine = () => import('../utils/syncClient')
 
 // usePrefsStore is Nuxt's auto-import (the prefs store needs the Nuxt app), read only when a pass runs in the app.
 async function lastPosition(consent: string | undefined): Promise<SyncPosition | undefined> {
@@ -65,6 +67,10 @@ export const useSyncStore = defineStore('sync', () => {
   /** One whole pass: push, photos, pull. Never throws; says what happened. */
   async function runOnce(opts: { fetch?: SyncFetch, position?: SyncPosition } = {}): Promise<SyncOutcome> {
     const doFetch = opts.fetch ?? ((url, init) => globalThis.fetch(url, init))
+    const loaded = await engine().catch((err: unknown) => err instanceof Error ? err : new Error(String(err)))
+    // The app's files could not be read (a new version replaced them): like no signal, tried again later.
+    if (loaded instanceof Error) return { ok: false, kind: 'offline', message: loaded.message }
+    const { SyncStop, syncPass } = loaded
     syncing.value = true
     lastAttemptAt.value = new Date().toISOString()
     try {
@@ -153,6 +159,7 @@ export const useSyncStore = defineStore('sync', () => {
   /** Who the engine syncs for; a sign-in as someone else (without a reload) claims the device again. */
   async function claim(id: string) {
     userId = id
+    const { claimDevice } = await import('../utils/fieldDb')
     if ((await claimDevice(id)) === 'foreign') {
       paused.value = 'owner'
       lastError.value = 'Changes made by another person wait on this phone. They sign in here to send them first.'

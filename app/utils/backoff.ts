@@ -17,9 +17,12 @@ export function backoffDelay(attempt: number, random: number): number {
   return Math.round(Math.min(BACKOFF_MAX_MS, Math.max(BACKOFF_MIN_MS, ceiling * (0.5 + r / 2))))
 }
 
-/** The backoff delay, or the server's Retry-After when that asks for longer. */
-export function nextRetryDelay(attempt: number, random: number, retryAfterMs?: number): number {
+/**
+ * The backoff delay, or the server's Retry-After when that asks for longer. (`askedMs`, not the
+ * name syncWire.ts exports: Nuxt's auto-import would pull that file, and its schemas, in here.)
+ */
+export function nextRetryDelay(attempt: number, random: number, askedMs?: number): number {
   const d = backoffDelay(attempt, random)
-  if (retryAfterMs === undefined || !Number.isFinite(retryAfterMs)) return d
-  return Math.max(d, Math.min(RETRY_AFTER_MAX_MS, retryAfterMs))
+  if (askedMs === undefined || !Number.isFinite(askedMs)) return d
+  return Math.max(d, Math.min(RETRY_AFTER_MAX_MS, askedMs))
 }

@@ -10,6 +10,13 @@ export const DEVICE_STORES = ['meta', 'calls', 'library', 'outbox', 'photos', 'j
 export type DeviceStoreName = (typeof DEVICE_STORES)[number]
 
 let dbPromise: Promise<IDBDatabase> | undefined
+// Read-write transactions begun so far: a read started earlier is stale once this has moved.
+let writes = 0
+
+/** How many read-write transactions have begun (deviceRead.ts drops an early read after one). */
+export function deviceWriteCount() {
+  return writes
+}
 
 function openDb(): Promise<IDBDatabase> {
   if (!dbPromise) {
@@ -48,6 +55,7 @@ export async function deviceTx<T>(
     try {
       const db = await openDb()
       const tx = db.transaction(stores, mode)
+      if (mode === 'readwrite') writes++
       const done = transactionDone(tx)
       done.catch(() => {}) // observed below; avoids an unhandled rejection when fn throws first
       let result: T

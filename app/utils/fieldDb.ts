@@ -124,9 +124,6 @@ export async function getClientId(): Promise<string> {
   })
 }
 
-export async function getMeta<T>(key: string): Promise<T | undefined> {
-  return deviceTx(['meta'], 'readonly', tx => promisifyRequest<T | undefined>(tx.objectStore('meta').get(key)))
-}
 export async function setMeta(key: string, value: unknown): Promise<void> {
   await deviceTx(['meta'], 'readwrite', (tx) => {
     tx.objectStore('meta').put(value, key)
@@ -221,26 +218,6 @@ export async function commitCallGroups(groups: { callId: string, list: LocalChan
 function checkedChange(c: LocalChange): LocalChange {
   if (c.action === 'update' && !Object.keys(c.changes).length) throw new OpRefusedError({ _: 'Nothing to change' })
   return { ...c, changes: checkOp(c.entity, c.action, c.changes) }
-}
-
-export async function readOutbox(): Promise<OutboxEntry[]> {
-  return deviceTx(['outbox'], 'readonly', async (tx) => {
-    const all = await promisifyRequest<OutboxEntry[]>(tx.objectStore('outbox').getAll())
-    return all.sort((a, b) => a.seq - b.seq)
-  })
-}
-
-export async function readJournal(limit = 100): Promise<JournalEntry[]> {
-  const all = await deviceTx(['journal'], 'readonly', tx => promisifyRequest<JournalEntry[]>(tx.objectStore('journal').getAll()))
-  return all.sort((a, b) => b.seq - a.seq).slice(0, limit)
-}
-
-export async function readBundle(callId: string): Promise<CallBundle | undefined> {
-  return deviceTx(['calls'], 'readonly', tx => promisifyRequest<CallBundle | undefined>(tx.objectStore('calls').get(callId)))
-}
-
-export async function readBundles(): Promise<CallBundle[]> {
-  return deviceTx(['calls'], 'readonly', tx => promisifyRequest<CallBundle[]>(tx.objectStore('calls').getAll()))
 }
 
 /** Lays pending changes over a server row, oldest first, so the device shows its own edits. */

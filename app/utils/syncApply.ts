@@ -141,10 +141,6 @@ export async function discardRejected(seq: number): Promise<void> {
   })
 }
 
-export async function readPhotoQueue(): Promise<QueuedPhoto[]> {
-  return deviceTx(['photos'], 'readonly', tx => promisifyRequest<QueuedPhoto[]>(tx.objectStore('photos').getAll()))
-}
-
 /** The server confirmed these bytes: the device's copy goes, the record shows it as uploaded. */
 export async function photoConfirmed(id: string, sha256: string): Promise<void> {
   await deviceTx(['photos', 'calls'], 'readwrite', async (tx) => {

@@ -5,8 +5,9 @@
 // and the one-tab lock are the sync store's (app/stores/sync.ts). Nothing leaves the outbox until
 // the server answered applied, duplicate or conflict.
 import { isLockedStatus } from '#shared/utils/callStatus'
-import { getClientId, getMeta, readBundles, readOutbox, setLibrary, setMeta, type DeviceRow } from './fieldDb'
-import { applyPull, applyPushResults, photoConfirmed, photoFailed, readPhotoQueue, realignSeq } from './syncApply'
+import { getMeta, readBundles, readOutbox, readPhotoQueue } from './deviceRead'
+import { getClientId, setLibrary, setMeta, type DeviceRow } from './fieldDb'
+import { applyPull, applyPushResults, photoConfirmed, photoFailed, realignSeq } from './syncApply'
 import {
   expectedSeqOf, parseAnswer, photoPutAnswerSchema, pullAnswerSchema, pushResultSchema, retryAfterMs, stockAnswerSchema,
 } from './syncWire'

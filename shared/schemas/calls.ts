@@ -5,6 +5,7 @@ import { cleanText, requiredText, searchQuery } from './text'
 import { customerCreateSchema } from './customers'
 import { unitDraftSchema } from './units'
 import { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus } from '../utils/callStatus'
+import { DERATE_LABELS, DERATE_STATES, LAMP_LABELS, LAMPS } from '../utils/callWords'
 
 // The statuses and outcomes live with the call module (shared/utils/callStatus.ts).
 export { CALL_OUTCOMES, CALL_STATUSES, type CallOutcome, type CallStatus }
@@ -40,25 +41,7 @@ export type CallListQuery = z.input<typeof callListQuerySchema>
 
 // ── Taking and editing a call (dispatch fields) ─────────────────────────────────────────────
 
-/** Dash lamps a dispatcher asks the driver about; anything else is typed and kept as written. */
-export const LAMPS = ['check_engine', 'stop_engine', 'emissions', 'def', 'abs', 'charging', 'oil_pressure', 'coolant'] as const
-export const LAMP_LABELS: Record<(typeof LAMPS)[number], string> = {
-  check_engine: 'Check engine',
-  stop_engine: 'Stop engine',
-  emissions: 'Emissions (exhaust filter)',
-  def: 'DEF',
-  abs: 'ABS',
-  charging: 'Charging / battery',
-  oil_pressure: 'Oil pressure',
-  coolant: 'Coolant temperature',
-}
-export const DERATE_STATES = ['none', 'derated', 'countdown', 'shutdown'] as const
-export const DERATE_LABELS: Record<(typeof DERATE_STATES)[number], string> = {
-  none: 'Runs normally',
-  derated: 'Derated (power or speed limited)',
-  countdown: 'Countdown to derate or shutdown',
-  shutdown: 'Shut down, will not run',
-}
+export { DERATE_LABELS, DERATE_STATES, LAMP_LABELS, LAMPS }
 
 const latField = z.number({ message: 'Latitude must be a number' })
   .min(-90, 'Latitude is from -90 to 90').max(90, 'Latitude is from -90 to 90').nullable().optional()

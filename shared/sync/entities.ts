@@ -15,7 +15,7 @@ import {
 import { describeIssues } from '../utils/fieldErrors'
 import { approvalRequestCreateSchema } from '../schemas/approvals'
 import { estimateSignatureCreateSchema } from '../schemas/estimateSignature'
-import { formatCents } from '../utils/billing'
+import { formatCents } from '../utils/money'
 
 type Changes = Record<string, unknown>
 export type OpAction = 'create' | 'update'

@@ -3,6 +3,7 @@
 // throughout; time is billed in tenths of an hour rounded UP (a started six minutes is a billed
 // tenth, shop policy stated on the invoice); every rule comes from the admin's rates row.
 import { splitByBusinessHours, type BusinessHours } from './businessHours'
+import { formatCents } from './money'
 
 export type TravelBasis = 'distance' | 'time'
 
@@ -369,9 +370,4 @@ export function priceCall(input: PricingInput): PricedInvoice {
   const order = new Map(adjustments.map((a, i) => [a, i]))
   const missed = [...unapplied, ...missedDerived].sort((a, b) => order.get(a)! - order.get(b)!)
   return { lines, subtotalCents, taxCents, totalCents: subtotalCents + taxCents, excludedClock, unapplied: missed }
-}
-
-/** "$1,234.56" for display; cents stay integers everywhere else. */
-export function formatCents(cents: number, currency = 'USD'): string {
-  return new Intl.NumberFormat('en-US', { style: 'currency', currency }).format(cents / 100)
 }

@@ -1,6 +1,6 @@
 // What a billing clerk must see before an invoice goes out, most serious first. One list, read
 // by the billing desk, the invoice page and the tests.
-import { formatCents } from './billing'
+import { formatCents } from './money'
 
 export type DeskFlagCode = 'untrusted_clock' | 'open_conflicts' | 'over_limit' | 'past_approval' | 'past_signed_estimate'
   | 'unsigned_estimate' | 'awaiting_approval' | 'no_sign_off' | 'no_story' | 'no_po'

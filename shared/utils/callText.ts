@@ -1,5 +1,5 @@
 // Words about a call and its unit that several screens, the e-mails and the PDFs print the same way.
-import { DERATE_LABELS } from '../schemas/calls'
+import { DERATE_LABELS } from './callWords'
 
 /** Brackets a person typed around a whole note, dropped so a label's own brackets are not doubled. */
 function unwrapped(note: string): string {

@@ -2,7 +2,7 @@
 // would refuse for its shape is refused on the phone, beside the field, and nothing is written.
 import { beforeEach, describe, expect, it } from 'vitest'
 import { useFieldStore } from '../../app/stores/field'
-import { readBundle, readOutbox } from '../../app/utils/fieldDb'
+import { readBundle, readOutbox } from '../../app/utils/deviceRead'
 import { OpRefusedError } from '../../app/utils/opCheck'
 import { SIGNATURE_MAX_CHARS } from '../../shared/schemas/sync'
 import { CALL_ID, freshDevice, seedCall } from './outbox-support'

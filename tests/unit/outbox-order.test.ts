@@ -1,7 +1,8 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { useFieldStore } from '../../app/stores/field'
 import { useOutboxStore } from '../../app/stores/outbox'
-import { getClientId, readBundle, readOutbox } from '../../app/utils/fieldDb'
+import { getClientId } from '../../app/utils/fieldDb'
+import { readBundle, readOutbox } from '../../app/utils/deviceRead'
 import { CALL_ID, freshDevice, reloadApp, seedCall } from './outbox-support'
 
 beforeEach(async () => { await freshDevice(); await seedCall() })

@@ -1,8 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { sha256Hex, useFieldStore } from '../../app/stores/field'
 import { useSyncStore } from '../../app/stores/sync'
-import { readBundle, readOutbox } from '../../app/utils/fieldDb'
-import { readPhotoQueue } from '../../app/utils/syncApply'
+import { readBundle, readOutbox, readPhotoQueue } from '../../app/utils/deviceRead'
 import { FakeSyncServer, json } from './fakeSyncServer'
 import { CALL_ID, freshDevice, reloadApp, seedCall } from './outbox-support'
 
