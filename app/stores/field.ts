@@ -240,7 +240,8 @@ export const useFieldStore = defineStore('field', () => {
 
 /** A call update (base: what the phone last had) and the records that go with it, as local changes. */
 function callChanges(
-  collections: Record<AddableEntity, keyof CallBundle['records']>, bundle: CallBundle, changes: Record<string, unknown>, records: { entity: AddableEntity, record: Record<string, unknown> }[],
+  collections: Record<AddableEntity, keyof CallBundle['records']>, bundle: CallBundle, changes: Record<string, unknown>,
+  records: { entity: AddableEntity, record: Record<string, unknown> }[],
 ): LocalChange[] {
   const list: LocalChange[] = []
   if (Object.keys(changes).length) {
