@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto'
 import { expect, test, type Locator, type Page } from '@playwright/test'
 import { seedId } from '../../server/db/seed/ids'
 import { count, testPool } from '../support/db'
-import { PHONE, signIn, waitForServiceWorker } from './helpers'
+import { signIn, drawSignature, signInSynced, PHONE } from './helpers'
 
 const shot = (page: Page, name: string) => page.screenshot({ path: `tests/e2e/screenshots/${name}.png`, fullPage: true })
 /** One section alone, to read at the phone's width. */
@@ -25,25 +25,11 @@ test.beforeAll(async () => {
   await db.query(`INSERT INTO clock_events (call_id, kind, device_at) VALUES ($1, 'work_start', now() - interval '30 minutes')`, [callId])
 })
 
-async function draw(page: Page, testId: string) {
-  const pad = page.getByTestId(testId)
-  // In the middle of the screen: the bar fixed at the bottom of the phone's page would take the strokes.
-  await pad.evaluate(el => el.scrollIntoView({ block: 'center' }))
-  const box = (await pad.boundingBox())!
-  await page.mouse.move(box.x + 20, box.y + box.height / 2)
-  await page.mouse.down()
-  for (let i = 1; i <= 10; i++) await page.mouse.move(box.x + 20 + i * 24, box.y + box.height / 2 + (i % 2 ? -25 : 25), { steps: 3 })
-  await page.mouse.up()
-}
-
 test('offline at 360 px the driver signs the estimate before the repair; the office sees it', async ({ browser }) => {
   test.slow()
   const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
   const page = await ctx.newPage()
-  await signIn(page, 'mech1@wayside.test')
-  await waitForServiceWorker(page)
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Sync' }).click()
-  await expect(page.getByTestId('last-sync')).not.toHaveText('never', { timeout: 30_000 })
+  await signInSynced(page, 'mech1@wayside.test')
   await page.goto(`/m/calls/${callId}`)
   await ctx.setOffline(true)
 
@@ -76,7 +62,7 @@ test('offline at 360 px the driver signs the estimate before the repair; the off
   await expect(form.getByText('The driver signs in the box first')).toBeVisible()
   // A screenshot taller than the screen resizes the page, and a resized pad starts blank: take it before the strokes.
   await shotOf(section, 'presign-form-offline-360')
-  await draw(page, 'estimate-signature-pad')
+  await drawSignature(page, 'estimate-signature-pad')
   await form.getByRole('button', { name: 'Sign the estimate' }).click()
   await expect(section).toHaveAttribute('data-need', 'signed')
   await expect(page.getByTestId('presign-signed')).toContainText('Rolf Vossberg signed the estimate of')

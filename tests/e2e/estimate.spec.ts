@@ -6,7 +6,7 @@ import { randomUUID } from 'node:crypto'
 import { expect, test, type Page } from '@playwright/test'
 import { seedId } from '../../server/db/seed/ids'
 import { count, testPool } from '../support/db'
-import { PHONE, signIn, waitForServiceWorker } from './helpers'
+import { signIn, signInSynced, PHONE } from './helpers'
 
 const shot = (page: Page, name: string) => page.screenshot({ path: `tests/e2e/screenshots/${name}.png`, fullPage: true })
 const cents = (text: string | null) => Math.round(Number(String(text).replace(/[^0-9.]/g, '')) * 100)
@@ -51,10 +51,7 @@ test('past 80 % and 100 % offline, ask, the fleet approves, new limit on the pho
   test.slow()
   const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
   const page = await ctx.newPage()
-  await signIn(page, 'mech1@wayside.test')
-  await waitForServiceWorker(page)
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Sync' }).click()
-  await expect(page.getByTestId('last-sync')).not.toHaveText('never', { timeout: 30_000 })
+  await signInSynced(page, 'mech1@wayside.test')
   await page.goto(`/m/calls/${callId}`)
   const estimate = page.getByTestId('estimate')
   await expect(estimate).toHaveAttribute('data-state', 'ok')

@@ -7,7 +7,7 @@ import { randomUUID } from 'node:crypto'
 import { expect, test, type Locator, type Page } from '@playwright/test'
 import { seedId } from '../../server/db/seed/ids'
 import { testPool } from '../support/db'
-import { PHONE, signIn, waitForServiceWorker } from './helpers'
+import { drawSignature, signInSynced, PHONE } from './helpers'
 
 const shot = (page: Page, name: string) => page.screenshot({ path: `tests/e2e/screenshots/${name}.png` })
 const shotOf = (where: Locator, name: string) => where.screenshot({ path: `tests/e2e/screenshots/${name}.png` })
@@ -23,25 +23,11 @@ test.beforeAll(async () => {
     [callId, seedId('user:mech1')])
 })
 
-async function draw(page: Page, testId: string) {
-  const pad = page.getByTestId(testId)
-  // In the middle of the screen: the bar fixed at the bottom of the phone's page would take the strokes.
-  await pad.evaluate(el => el.scrollIntoView({ block: 'center' }))
-  const box = (await pad.boundingBox())!
-  await page.mouse.move(box.x + 20, box.y + box.height / 2)
-  await page.mouse.down()
-  for (let i = 1; i <= 10; i++) await page.mouse.move(box.x + 20 + i * 24, box.y + box.height / 2 + (i % 2 ? -25 : 25), { steps: 3 })
-  await page.mouse.up()
-}
-
 test('at 360 px the next-step button walks a call from assigned to the driver\'s sign-off', async ({ browser }) => {
   test.slow()
   const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
   const page = await ctx.newPage()
-  await signIn(page, 'mech1@wayside.test')
-  await waitForServiceWorker(page)
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Sync' }).click()
-  await expect(page.getByTestId('last-sync')).not.toHaveText('never', { timeout: 30_000 })
+  await signInSynced(page, 'mech1@wayside.test')
   await page.goto(`/m/calls/${callId}`)
   await expect(page.getByRole('heading', { level: 1 })).toContainText('Call #')
 
@@ -115,7 +101,7 @@ test('at 360 px the next-step button walks a call from assigned to the driver\'s
   await form.getByLabel('Price each, before markup').fill('120.00')
   await form.getByRole('button', { name: 'Add this part to the estimate' }).click()
   await form.getByLabel('Name of the driver signing').fill('Rolf Vossberg')
-  await draw(page, 'estimate-signature-pad')
+  await drawSignature(page, 'estimate-signature-pad')
   await form.getByRole('button', { name: 'Sign the estimate' }).click()
   await expect(page.getByTestId('presign')).toHaveAttribute('data-need', 'signed')
 
@@ -185,7 +171,7 @@ test('at 360 px the next-step button walks a call from assigned to the driver\'s
   expect(above).toBe(true)
   await shotOf(summary, 'field-signoff-summary-360')
   await signoff.getByLabel('Driver\'s name').fill('Rolf Vossberg')
-  await draw(page, 'signature-pad')
+  await drawSignature(page, 'signature-pad')
   await signoff.getByRole('button', { name: 'Save sign-off' }).click()
   await expect(signoff.getByTestId('signed')).toContainText('Rolf Vossberg')
   await shotOf(signoff, 'field-signoff-signed-360')

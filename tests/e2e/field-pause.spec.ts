@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto'
 import { expect, test, type Page } from '@playwright/test'
 import { seedId } from '../../server/db/seed/ids'
 import { testPool } from '../support/db'
-import { PHONE, signIn, waitForServiceWorker } from './helpers'
+import { signIn, signInSynced, PHONE } from './helpers'
 
 /** What the phone's screen shows, bottom bar included. */
 const view = (page: Page, name: string) => page.screenshot({ path: `tests/e2e/screenshots/${name}.png` })
@@ -42,10 +42,7 @@ test('starting a second call pauses the first; readings on arrival; the board sh
   const [a, b] = calls as [typeof calls[number], typeof calls[number]]
   const ctx = await browser.newContext({ viewport: PHONE, isMobile: true, hasTouch: true })
   const page = await ctx.newPage()
-  await signIn(page, 'mech3@wayside.test')
-  await waitForServiceWorker(page)
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Sync' }).click()
-  await expect(page.getByTestId('last-sync')).not.toHaveText('never', { timeout: 30_000 })
+  await signInSynced(page, 'mech3@wayside.test')
   await page.goto(`/m/calls/${a.id}`)
   await expect(page.getByRole('heading', { level: 1, name: `Call #${a.number}` })).toBeVisible()
   await ctx.setOffline(true)
