@@ -1,6 +1,6 @@
 // Travel and labor on the phone, from the call's clock events and never typed: the same sums the
-// office bills with (clockTotals in shared/utils/billing.ts), plus whether a clock is running.
-import { clockTotals, type BillingClockEvent } from '#shared/utils/billing'
+// office bills with (clockTotals in shared/utils/clockSpans.ts), plus whether a clock is running.
+import { clockTotals, type BillingClockEvent } from '#shared/utils/clockSpans'
 import { isOpenStatus } from '#shared/utils/callStatus'
 
 export interface ClockMark { kind: string, at: string }

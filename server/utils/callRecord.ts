@@ -1,7 +1,7 @@
 // The whole record of one call, as the office reads it (GET /api/calls/[id]).
 import { asc, eq, inArray } from 'drizzle-orm'
 import type { StoredSpec } from '#shared/utils/readingFormat'
-import type { BillingClockEvent } from '#shared/utils/billing'
+import type { BillingClockEvent } from '#shared/utils/clockSpans'
 
 /** The spec as people write it ('209.4 Ω ± 2 % (205.2–213.6 Ω)'), by the shared readings formatter. */
 function specText(spec: Record<string, unknown> | null, unit: string) {

@@ -1,7 +1,7 @@
 // How far the server trusts a phone's clock. A clock event keeps the device's time (labor is
 // billed from it), but a time before the call was taken, after the server's own now, or a span
 // nobody works in one go is flagged for the office and left out of the pricing, never billed silently.
-import { clockSpans, type BillingClockEvent } from '../utils/billing'
+import { clockSpans, type BillingClockEvent } from '../utils/clockSpans'
 
 export const CLOCK_FLAGS = ['before_call', 'future', 'long_span'] as const
 export type ClockFlag = (typeof CLOCK_FLAGS)[number]

@@ -3,6 +3,7 @@
 // throughout; time is billed in tenths of an hour rounded UP (a started six minutes is a billed
 // tenth, shop policy stated on the invoice); every rule comes from the admin's rates row.
 import { splitByBusinessHours, type BusinessHours } from './businessHours'
+import { clockSpans, type BillingClockEvent, type ClockKind, type Span } from './clockSpans'
 import { formatCents } from './money'
 
 export type TravelBasis = 'distance' | 'time'
@@ -32,9 +33,7 @@ export type BillingRates = BusinessHours & {
   environmentalFeeCents: number
 }
 
-export type ClockKind = 'travel_start' | 'arrive' | 'work_start' | 'work_stop' | 'depart' | 'pause'
 /** A clock event; `flag` is set when the phone's clock could not be trusted for it (never billed). */
-export type BillingClockEvent = { id?: string, kind: ClockKind, at: string | Date, flag?: string | null }
 export type BillingPart = {
   id?: string
   partNumber: string
@@ -113,51 +112,6 @@ export function laborTenthsFromMs(ms: number): number {
   if (!Number.isFinite(ms) || ms < 0) throw new RangeError(`time must be a non-negative number of milliseconds (got ${ms})`)
   // Tolerate float noise from date arithmetic so exactly 0.3 h does not become 0.4 h.
   return Math.max(0, Math.ceil(ms / MS_PER_TENTH - 1e-9))
-}
-
-type Span = { start: number, end: number, ids: string[] }
-
-/**
- * Travel and labor spans from the clock events, in order of time. Travel runs from travel_start to
- * arrive; labor from each work_start to the next work_stop (or depart). A pause (the mechanic
- * started on another call) ends either, so one mechanic never runs two clocks at once. An open span
- * counts up to `until`, so a running clock shows what has accrued so far.
- */
-export function clockSpans(events: BillingClockEvent[], until: Date = new Date()): { travel: Span[], labor: Span[] } {
-  const sorted = events.map(e => ({ kind: e.kind, id: e.id, t: new Date(e.at).getTime() }))
-  for (const e of sorted) if (!Number.isFinite(e.t)) throw new RangeError(`clock event ${e.kind} has no valid time`)
-  sorted.sort((a, b) => a.t - b.t)
-  const travel: Span[] = [], labor: Span[] = []
-  let travelFrom: typeof sorted[number] | null = null, workFrom: typeof sorted[number] | null = null
-  const ids = (...xs: ({ id?: string } | null)[]) => xs.flatMap(x => (x?.id ? [x.id] : []))
-  for (const e of sorted) {
-    if (e.kind === 'travel_start') travelFrom ??= e
-    else if (e.kind === 'arrive' && travelFrom) {
-      travel.push({ start: travelFrom.t, end: e.t, ids: ids(travelFrom, e) })
-      travelFrom = null
-    }
-    else if (e.kind === 'work_start') workFrom ??= e
-    else if ((e.kind === 'work_stop' || e.kind === 'depart') && workFrom) {
-      labor.push({ start: workFrom.t, end: e.t, ids: ids(workFrom, e) })
-      workFrom = null
-    }
-    if (e.kind === 'pause') {
-      if (travelFrom) travel.push({ start: travelFrom.t, end: e.t, ids: ids(travelFrom, e) })
-      if (workFrom) labor.push({ start: workFrom.t, end: e.t, ids: ids(workFrom, e) })
-      travelFrom = workFrom = null
-    }
-  }
-  const end = until.getTime()
-  if (travelFrom && end > travelFrom.t) travel.push({ start: travelFrom.t, end, ids: ids(travelFrom) })
-  if (workFrom && end > workFrom.t) labor.push({ start: workFrom.t, end, ids: ids(workFrom) })
-  return { travel, labor }
-}
-
-/** Total travel and labor time from the clock events (see clockSpans). */
-export function clockTotals(events: BillingClockEvent[], now: Date = new Date()): { travelMs: number, laborMs: number } {
-  const { travel, labor } = clockSpans(events, now)
-  const sum = (s: Span[]) => s.reduce((n, x) => n + x.end - x.start, 0)
-  return { travelMs: sum(travel), laborMs: sum(labor) }
 }
 
 /** Half-up rounding to whole cents of a non-negative amount. */

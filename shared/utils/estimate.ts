@@ -4,8 +4,9 @@
 // pricingInputOf, so the two agree to the cent.
 import { haversineKm } from './geo'
 import {
-  priceCall, type BillingClockEvent, type BillingPart, type BillingRates, type PricedInvoice, type PricedLine, type PricingInput,
+  priceCall, type BillingPart, type BillingRates, type PricedInvoice, type PricedLine, type PricingInput,
 } from './billing'
+import type { BillingClockEvent } from './clockSpans'
 
 /** Where the estimate warns (share of the authorization limit, percent) and where it stops and asks. */
 export const LIMIT_WARN_PCT = 80

@@ -2,7 +2,8 @@
 // the estimate rises above what was signed (more parts, more labor, a request to the fleet). A fleet
 // on account is not asked: its approval travels as a PO and an authorization limit instead. The
 // phone, the office and the billing desk read these rules from here only.
-import { clockSpans, type PricedLine } from './billing'
+import type { PricedLine } from './billing'
+import { clockSpans } from './clockSpans'
 import type { Estimate, EstimatePlan, EstimateRecord } from './estimate'
 import type { PlannedPart } from '../schemas/approvals'
 

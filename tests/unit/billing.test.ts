@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import {
-  clockTotals, laborTenthsFromMs, markedUpCents, priceCall,
-  type BillingClockEvent, type BillingRates, type PriceAdjustment, type PricingInput,
+  laborTenthsFromMs, markedUpCents, priceCall, type BillingRates, type PriceAdjustment, type PricingInput,
 } from '../../shared/utils/billing'
+import { clockTotals, type BillingClockEvent } from '../../shared/utils/clockSpans'
 
 const MIN = 60_000
 // An invented shop: $145/h, after hours at 150 %, open 07:00–18:00 Monday to Friday in Chicago.

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { clockSpans, clockTotals, priceCall, type BillingClockEvent, type BillingRates } from '../../shared/utils/billing'
+import { priceCall, type BillingRates } from '../../shared/utils/billing'
+import { clockSpans, clockTotals, type BillingClockEvent } from '../../shared/utils/clockSpans'
 import { isPauseMove, statusTimes } from '../../shared/utils/callStatus'
 import { mergeCallField, type MergeInput } from '../../server/utils/sync/merge'
 import { fieldClockTotals, pauseAndStartWords, runningCalls } from '../../app/utils/fieldClock'

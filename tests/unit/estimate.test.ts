@@ -7,7 +7,8 @@
 // is what the invoice comes to once that work is done.
 import fc from 'fast-check'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { billingRatesOf, priceCall, type ClockKind } from '../../shared/utils/billing'
+import { billingRatesOf, priceCall } from '../../shared/utils/billing'
+import type { ClockKind } from '../../shared/utils/clockSpans'
 import { approvalCoverage, estimateCall, estimateRecordOfRows, limitState, pricingInputOf } from '../../shared/utils/estimate'
 import { applyPull, readRates } from '../../app/utils/syncApply'
 import { fieldEstimateRecord, type EstimateBasis } from '../../app/utils/fieldEstimate'
